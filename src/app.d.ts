@@ -1,0 +1,28 @@
+// See https://svelte.dev/docs/kit/types#app.d.ts
+import type { Role } from '$lib/roles';
+
+declare global {
+	namespace App {
+		interface Error {
+			message: string;
+			/** Quoted by the user when reporting an unexpected error; the server log carries the same id. */
+			errorId?: string;
+		}
+		interface Locals {
+			/** The signed-in person, or null. */
+			user: { id: string; email: string; name: string | null } | null;
+			/** Their organisation and role, or null when they are not a member of one (yet). */
+			membership: {
+				organisationId: string;
+				organisationName: string;
+				role: Role;
+			} | null;
+		}
+		interface PageData {
+			user?: App.Locals['user'];
+			membership?: App.Locals['membership'];
+		}
+	}
+}
+
+export {};

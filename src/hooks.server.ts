@@ -1,0 +1,57 @@
+import type { Handle, HandleServerError } from '@sveltejs/kit';
+import { sequence } from '@sveltejs/kit/hooks';
+import { randomUUID } from 'node:crypto';
+import { authHandle } from '$lib/server/auth';
+import { getMembershipForUser } from '$lib/server/members';
+
+/** Who is asking: the signed-in user and their organisation and role, on every request. */
+const identify: Handle = async ({ event, resolve }) => {
+	event.locals.user = null;
+	event.locals.membership = null;
+	const session = await event.locals.auth();
+	const user = session?.user as { id?: string; email?: string; name?: string | null } | undefined;
+	if (user?.id && user.email) {
+		event.locals.user = { id: user.id, email: user.email, name: user.name ?? null };
+		event.locals.membership = await getMembershipForUser(user.id);
+	}
+	return resolve(event);
+};
+
+const PUBLIC_PREFIXES = ['/signin', '/signout', '/auth/', '/verify', '/healthz', '/not-a-member', '/_app/', '/favicon', '/robots.txt'];
+
+/**
+ * The signed-in area is guarded here once; every load, action and endpoint checks again with
+ * requireRole(), so a route that forgets is still closed.
+ */
+const guard: Handle = async ({ event, resolve }) => {
+	const path = event.url.pathname;
+	const isPublic = path === '/' || PUBLIC_PREFIXES.some((p) => path === p.replace(/\/$/, '') || path.startsWith(p));
+	if (!isPublic) {
+		if (!event.locals.user) {
+			if (path.startsWith('/api/')) return json({ message: 'Sign in first.' }, 401);
+			return new Response(null, { status: 303, headers: { location: `/signin?next=${encodeURIComponent(path + event.url.search)}` } });
+		}
+		if (!event.locals.membership) {
+			if (path.startsWith('/api/')) return json({ message: 'You are not a member of an organisation yet.' }, 403);
+			return new Response(null, { status: 303, headers: { location: '/not-a-member' } });
+		}
+	}
+	const response = await resolve(event);
+	response.headers.set('x-content-type-options', 'nosniff');
+	response.headers.set('referrer-policy', 'same-origin');
+	response.headers.set('permissions-policy', 'camera=(), microphone=(), geolocation=()');
+	return response;
+};
+
+function json(body: unknown, status: number) {
+	return new Response(JSON.stringify(body), { status, headers: { 'content-type': 'application/json' } });
+}
+
+export const handle = sequence(authHandle, identify, guard);
+
+export const handleError: HandleServerError = ({ error, event, status, message }) => {
+	if (status === 404) return { message };
+	const errorId = randomUUID().slice(0, 8);
+	console.error(`[envelo] error ${errorId} on ${event.request.method} ${event.url.pathname}:`, error);
+	return { message: 'Something went wrong on our side. Quote this reference if you report it.', errorId };
+};

@@ -1,0 +1,390 @@
+/**
+ * Monthly interstitial-condensation cycle by the Glaser method, ISO 13788:2012 clause 6
+ * (clause numbers as recalled).
+ *
+ * Input is a chain of vapour nodes from the internal surface (node 0) to the external surface
+ * (node N): the sublayers of every layer (each R ≤ 0.25 m²·K/W), their sd-values and the
+ * dimensionless temperature φ = (θ − θe)/(θi − θe) of every node from the heat solve.
+ * Nodes joined by a zero-sd element share one vapour pressure and are handled as one
+ * vapour node ("group"); its saturation pressure is the lowest of its members.
+ *
+ * Each month: the vapour-pressure line runs from pi to pe, held at psat at every interface that
+ * is still wet from earlier months, and is drawn taut under the saturation pressures (the lower
+ * convex hull of the points between fixed nodes), so that it touches psat at the condensation
+ * interfaces. Between the touching and fixed nodes, pressures and fluxes come from the
+ * finite-element kernel with g = δ0/sd. The difference between the flux in and the flux out of a
+ * touching node is its condensation rate (negative: evaporation), taken over the month's length.
+ */
+
+import { createSeriesWork, solveSeries } from './series';
+import { DELTA_0, saturationPressure } from './moisture';
+
+export type NodeKind = 'internal-surface' | 'interface' | 'sublayer' | 'external-surface';
+
+export interface GlaserChain {
+	/** number of vapour elements (sublayers) N; nodes 0 … N */
+	elements: number;
+	/** position of each node from the internal surface, mm (length N + 1) */
+	positionMm: ArrayLike<number>;
+	/** sd-value of each element, m (length N) */
+	sd: ArrayLike<number>;
+	/** dimensionless temperature of each node, 1 = internal air, 0 = external air (length N + 1) */
+	phi: ArrayLike<number>;
+	/** index of the layer a node ends (or, for the internal surface, −1) (length N + 1) */
+	layerIndex: ArrayLike<number>;
+	/** kind of each node (length N + 1) */
+	kind: readonly NodeKind[];
+}
+
+export interface GlaserMonth {
+	month: number;
+	days: number;
+	externalTemperature: number;
+	externalVapourPressure: number;
+	internalTemperature: number;
+	internalVapourPressure: number;
+}
+
+export interface GlaserNode {
+	index: number;
+	/** position of the (outermost) heat node of this vapour node, mm */
+	positionMm: number;
+	/** position of the innermost heat node, mm (differs only across zero-sd layers) */
+	positionStartMm: number;
+	/** cumulative sd from the internal surface, m */
+	sdM: number;
+	layerIndex: number;
+	kind: NodeKind;
+}
+
+export interface GlaserMonthResult {
+	month: number;
+	days: number;
+	externalTemperature: number;
+	externalVapourPressure: number;
+	internalTemperature: number;
+	internalVapourPressure: number;
+	/** per vapour node, in the order of `nodes`: temperature °C */
+	temperature: number[];
+	/** per vapour node: saturation pressure, Pa */
+	saturationPressure: number[];
+	/** per vapour node: vapour pressure, Pa */
+	vapourPressure: number[];
+	/** per vapour node: condensation (+) or evaporation (−) rate over the month, g/m² */
+	rate: number[];
+	/** per vapour node: amount at the end of the month, g/m² */
+	accumulatedAt: number[];
+	/** total at the end of the month over all interfaces, g/m² */
+	accumulated: number;
+	/** total formed in the month, g/m² */
+	condensed: number;
+	/** total evaporated in the month, g/m² */
+	evaporated: number;
+}
+
+export interface VapourProfilePoint {
+	positionMm: number;
+	sdM: number;
+	temperature: number;
+	saturationPressure: number;
+	vapourPressure: number;
+}
+
+export interface GlaserResult {
+	nodes: GlaserNode[];
+	/** calendar month the cycle starts (first month with condensation after one without), or null if none */
+	startMonth: number | null;
+	months: GlaserMonthResult[];
+	maxAccumulation: number;
+	peakMonth: number | null;
+	maxAtInterface: number;
+	maxAtInterfaceNode: number | null;
+	evaporatesFully: boolean;
+	condensationMonths: number[];
+	outcome: 'none' | 'dries' | 'accumulates';
+	/** months in which pi exceeds psat at the internal surface (surface condensation, outside Glaser) */
+	surfaceCondensationMonths: number[];
+	vapourProfile: { month: number; points: VapourProfilePoint[] };
+	/** true when condensation is predicted with a dry start in every month (cycle starts in month 1) */
+	condensesEveryMonth: boolean;
+}
+
+const SECONDS_PER_DAY = 86400;
+/** amounts below this are taken as zero, kg/m² (10⁻⁶ g/m²) */
+const ZERO_AMOUNT = 1e-9;
+/** a rate below this is no condensation, kg/(m²·s) */
+const ZERO_RATE = 1e-16;
+
+/**
+ * Run the twelve-month Glaser cycle (ISO 13788:2012, clause 6). `months` must hold the twelve
+ * calendar months in order 1 … 12. The cycle starts in the first month in which condensation is
+ * predicted (for a dry construction) after a month in which it is not; accumulation is carried
+ * from month to month and never falls below zero. Amounts in g/m², pressures in Pa.
+ */
+export function runGlaser(chain: GlaserChain, months: readonly GlaserMonth[]): GlaserResult {
+	const n = chain.elements;
+	const nn = n + 1;
+	const x = new Float64Array(nn);
+	const gv = new Float64Array(n);
+	for (let e = 0; e < n; e++) {
+		const sd = chain.sd[e];
+		x[e + 1] = x[e] + sd;
+		gv[e] = sd > 0 ? DELTA_0 / sd : Infinity;
+	}
+	if (!(x[n] > 0)) throw new RangeError('the total sd-value of the element is zero');
+
+	// Vapour nodes: runs of heat nodes joined by zero-sd elements.
+	const gStart = new Int32Array(nn);
+	const gEnd = new Int32Array(nn);
+	let G = 0;
+	gStart[0] = 0;
+	for (let e = 0; e < n; e++) {
+		if (gv[e] !== Infinity) {
+			gEnd[G] = e;
+			G++;
+			gStart[G] = e + 1;
+		}
+	}
+	gEnd[G] = n;
+	G++;
+
+	const nodes: GlaserNode[] = new Array(G);
+	const gx = new Float64Array(G);
+	for (let g = 0; g < G; g++) {
+		const last = gEnd[g];
+		gx[g] = x[gStart[g]];
+		nodes[g] = {
+			index: g,
+			positionMm: chain.positionMm[last],
+			positionStartMm: chain.positionMm[gStart[g]],
+			sdM: gx[g],
+			layerIndex: chain.layerIndex[last],
+			kind: g === 0 ? 'internal-surface' : g === G - 1 ? 'external-surface' : chain.kind[last]
+		};
+	}
+
+	// Temperatures and saturation pressures per month and heat node, and the coldest member of each group.
+	const nm = months.length;
+	const theta = new Float64Array(nm * nn);
+	const psat = new Float64Array(nm * nn);
+	const gPsat = new Float64Array(nm * G);
+	const gMin = new Int32Array(nm * G);
+	for (let m = 0; m < nm; m++) {
+		const mo = months[m];
+		const dT = mo.internalTemperature - mo.externalTemperature;
+		const base = m * nn;
+		for (let j = 0; j < nn; j++) {
+			const t = mo.externalTemperature + dT * chain.phi[j];
+			theta[base + j] = t;
+			psat[base + j] = saturationPressure(t);
+		}
+		for (let g = 0; g < G; g++) {
+			let best = gStart[g];
+			for (let j = gStart[g] + 1; j <= gEnd[g]; j++) if (psat[base + j] < psat[base + best]) best = j;
+			gMin[m * G + g] = best;
+			gPsat[m * G + g] = psat[base + best];
+		}
+	}
+
+	const work = createSeriesWork(n);
+	const pNode = new Float64Array(nn);
+	const vert = new Int32Array(G);
+	const vertP = new Float64Array(G);
+	const stack = new Int32Array(G);
+	const rate = new Float64Array(G);
+
+	/**
+	 * One month: fills `rate` (kg/(m²·s)) and `pNode`; returns the number of vertices. Wet groups
+	 * (ma > 0) are held at saturation.
+	 */
+	const step = (m: number, ma: Float64Array | null): number => {
+		const mo = months[m];
+		const ps = gPsat.subarray(m * G, (m + 1) * G);
+		let nv = 0;
+		vert[nv] = 0;
+		vertP[nv] = mo.internalVapourPressure;
+		nv++;
+		let a = 0;
+		let pa = mo.internalVapourPressure;
+		for (let b = 1; b < G; b++) {
+			const fixed = b === G - 1 || (ma !== null && ma[b] > 0);
+			if (!fixed) continue;
+			const pb = b === G - 1 ? mo.externalVapourPressure : ps[b];
+			// Lower convex hull of (x, psat) between the fixed groups a and b.
+			let sp = 0;
+			stack[sp++] = a;
+			for (let k = a + 1; k <= b; k++) {
+				const yk = k === b ? pb : ps[k];
+				while (sp >= 2) {
+					const o = stack[sp - 2];
+					const mid = stack[sp - 1];
+					const yo = o === a ? pa : ps[o];
+					const yLine = yo + ((yk - yo) * (gx[mid] - gx[o])) / (gx[k] - gx[o]);
+					if (ps[mid] >= yLine - 1e-9 * (Math.abs(yLine) + 1)) sp--;
+					else break;
+				}
+				stack[sp++] = k;
+			}
+			for (let s = 1; s < sp; s++) {
+				const v = stack[s];
+				vert[nv] = v;
+				vertP[nv] = v === b ? pb : ps[v];
+				nv++;
+			}
+			a = b;
+			pa = pb;
+		}
+		// Pressures and fluxes between consecutive vertices from the kernel; rates at vertices.
+		rate.fill(0);
+		for (let j = gStart[0]; j <= gEnd[0]; j++) pNode[j] = vertP[0];
+		let fluxIn = 0;
+		for (let s = 0; s + 1 < nv; s++) {
+			const u = vert[s];
+			const v = vert[s + 1];
+			const flux = solveSeries(gv, gEnd[u], gStart[v], vertP[s], vertP[s + 1], pNode, work);
+			for (let j = gStart[v]; j <= gEnd[v]; j++) pNode[j] = vertP[s + 1];
+			if (s > 0) rate[u] = fluxIn - flux;
+			fluxIn = flux;
+		}
+		return nv;
+	};
+
+	// Dry-start check of every month.
+	const dry = new Array<boolean>(nm);
+	let anyDry = false;
+	let allDry = true;
+	for (let m = 0; m < nm; m++) {
+		const nv = step(m, null);
+		let c = false;
+		if (nv > 2) for (let g = 1; g < G - 1; g++) if (rate[g] > ZERO_RATE) c = true;
+		dry[m] = c;
+		anyDry ||= c;
+		allDry &&= c;
+	}
+	let start = 0;
+	if (anyDry && !allDry) {
+		for (let m = 0; m < nm; m++) {
+			if (dry[m] && !dry[(m + nm - 1) % nm]) {
+				start = m;
+				break;
+			}
+		}
+	}
+
+	const ma = new Float64Array(G);
+	const results: GlaserMonthResult[] = new Array(nm);
+	const condensationMonths: number[] = [];
+	const surfaceCondensationMonths: number[] = [];
+	let maxAccumulation = 0;
+	let peakMonth: number | null = null;
+	let maxAtInterface = 0;
+	let maxAtInterfaceNode: number | null = null;
+	let profileMonth = -1;
+	let profileCondensed = 0;
+	let profileP: Float64Array | null = null;
+	let total = 0;
+
+	for (let c = 0; c < nm; c++) {
+		const m = (start + c) % nm;
+		const mo = months[m];
+		const seconds = mo.days * SECONDS_PER_DAY;
+		step(m, ma);
+		const temperature: number[] = new Array(G);
+		const satP: number[] = new Array(G);
+		const vp: number[] = new Array(G);
+		const rt: number[] = new Array(G);
+		const acc: number[] = new Array(G);
+		let condensed = 0;
+		let evaporated = 0;
+		let formed = false;
+		total = 0;
+		for (let g = 0; g < G; g++) {
+			const amount = rate[g] * seconds;
+			const before = ma[g];
+			let after = before + amount;
+			if (after < ZERO_AMOUNT) after = 0;
+			ma[g] = after;
+			if (rate[g] > ZERO_RATE) {
+				condensed += amount;
+				formed = true;
+			} else if (amount < 0) {
+				evaporated += before - after;
+			}
+			total += after;
+			temperature[g] = theta[m * nn + gMin[m * G + g]];
+			satP[g] = gPsat[m * G + g];
+			vp[g] = pNode[gStart[g]];
+			rt[g] = amount * 1000;
+			acc[g] = after * 1000;
+			if (after * 1000 > maxAtInterface) {
+				maxAtInterface = after * 1000;
+				maxAtInterfaceNode = g;
+			}
+		}
+		if (formed) condensationMonths.push(mo.month);
+		if (mo.internalVapourPressure > gPsat[m * G]) surfaceCondensationMonths.push(mo.month);
+		if (total * 1000 > maxAccumulation) {
+			maxAccumulation = total * 1000;
+			peakMonth = mo.month;
+		}
+		if (condensed > profileCondensed) {
+			profileCondensed = condensed;
+			profileMonth = m;
+			profileP = pNode.slice();
+		}
+		results[m] = {
+			month: mo.month,
+			days: mo.days,
+			externalTemperature: mo.externalTemperature,
+			externalVapourPressure: mo.externalVapourPressure,
+			internalTemperature: mo.internalTemperature,
+			internalVapourPressure: mo.internalVapourPressure,
+			temperature,
+			saturationPressure: satP,
+			vapourPressure: vp,
+			rate: rt,
+			accumulatedAt: acc,
+			accumulated: total * 1000,
+			condensed: condensed * 1000,
+			evaporated: evaporated * 1000
+		};
+	}
+	condensationMonths.sort((p, q) => p - q);
+	surfaceCondensationMonths.sort((p, q) => p - q);
+
+	// Vapour profile for charting: the month with the most condensation formed, else the coldest month.
+	if (profileMonth < 0) {
+		profileMonth = 0;
+		for (let m = 1; m < nm; m++) if (months[m].externalTemperature < months[profileMonth].externalTemperature) profileMonth = m;
+		step(profileMonth, null);
+		profileP = pNode.slice();
+	}
+	const pp = profileP as Float64Array;
+	const points: VapourProfilePoint[] = new Array(nn);
+	for (let j = 0; j < nn; j++) {
+		points[j] = {
+			positionMm: chain.positionMm[j],
+			sdM: x[j],
+			temperature: theta[profileMonth * nn + j],
+			saturationPressure: psat[profileMonth * nn + j],
+			vapourPressure: pp[j]
+		};
+	}
+
+	const outcome: GlaserResult['outcome'] = !anyDry ? 'none' : total * 1000 > 0 ? 'accumulates' : 'dries';
+	return {
+		nodes,
+		startMonth: anyDry ? months[start].month : null,
+		months: results,
+		maxAccumulation,
+		peakMonth,
+		maxAtInterface,
+		maxAtInterfaceNode,
+		evaporatesFully: outcome !== 'accumulates',
+		condensationMonths,
+		outcome,
+		surfaceCondensationMonths,
+		vapourProfile: { month: months[profileMonth].month, points },
+		condensesEveryMonth: allDry
+	};
+}

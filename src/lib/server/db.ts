@@ -1,0 +1,29 @@
+import knex, { type Knex } from 'knex';
+import pg from 'pg';
+import { building } from '$app/environment';
+import { setting } from './config';
+
+// double precision and bigint counts come back as JS numbers, not strings.
+pg.types.setTypeParser(pg.types.builtins.INT8, (v) => Number(v));
+pg.types.setTypeParser(pg.types.builtins.NUMERIC, (v) => Number(v));
+
+function connectionString(): string {
+	const url = setting('DATABASE_URL');
+	if (!url && !building) {
+		throw new Error('DATABASE_URL is not set: start Envelo with ./docker-free-start.sh');
+	}
+	return url ?? 'postgres://unused@127.0.0.1:1/unused';
+}
+
+/** The one Knex instance of the server. */
+export const db: Knex = knex({
+	client: 'pg',
+	connection: connectionString(),
+	pool: { min: 0, max: Number(setting('DB_POOL_MAX') ?? 10) }
+});
+
+/** A pg pool for Auth.js's adapter, which speaks SQL itself. */
+export const authPool = new pg.Pool({ connectionString: connectionString(), max: 4 });
+
+/** Knex or a transaction; functions that write accept either so callers can compose them. */
+export type Db = Knex | Knex.Transaction;

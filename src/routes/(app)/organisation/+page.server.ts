@@ -1,0 +1,66 @@
+import { fail } from '@sveltejs/kit';
+import { superValidate, message, setError } from 'sveltekit-superforms';
+import { zod4 } from 'sveltekit-superforms/adapters';
+import { requireMember, requireRole } from '$lib/server/guard';
+import { changeMemberRole, inviteMember, listMembers, MembershipError, removeMember } from '$lib/server/members';
+import { sendMail } from '$lib/server/mail';
+import { inviteSchema, removeSchema, roleSchema } from './schema';
+
+export const load = async (event) => {
+	const member = requireMember(event);
+	return {
+		members: await listMembers(member.organisationId),
+		inviteForm: await superValidate(zod4(inviteSchema), { defaults: { email: '', name: '', role: 'assessor' } })
+	};
+};
+
+export const actions = {
+	invite: async function invite(event) {
+		const member = requireRole(event, 'admin');
+		const form = await superValidate(event.request, zod4(inviteSchema));
+		if (!form.valid) return fail(400, { inviteForm: form });
+		try {
+			await inviteMember({ userId: member.user.id, organisationId: member.organisationId }, form.data);
+		} catch (e) {
+			if (e instanceof MembershipError) return setError(form, 'email', e.message);
+			throw e;
+		}
+		const signInUrl = new URL('/signin', event.url.origin).toString();
+		try {
+			await sendMail({
+				to: form.data.email.toLowerCase(),
+				subject: `You are invited to ${member.organisationName} on Envelo`,
+				text:
+					`${member.user.name ?? member.user.email} has added you to ${member.organisationName} on Envelo as ${form.data.role}.\n\n` +
+					`Sign in with this address at ${signInUrl} — Envelo e-mails you a link each time; there is no password.\n`
+			});
+		} catch {
+			return message(form, `Added ${form.data.email}, but the invitation e-mail could not be sent; tell them to sign in at ${signInUrl}.`);
+		}
+		return message(form, `Invitation sent to ${form.data.email}.`);
+	},
+	role: async function setRole(event) {
+		const member = requireRole(event, 'admin');
+		const form = await superValidate(event.request, zod4(roleSchema));
+		if (!form.valid) return fail(400, { error: 'Choose a member and a role.' });
+		try {
+			await changeMemberRole({ userId: member.user.id, organisationId: member.organisationId }, form.data.userId, form.data.role);
+		} catch (e) {
+			if (e instanceof MembershipError) return fail(400, { error: e.message });
+			throw e;
+		}
+		return { done: 'Role changed.' };
+	},
+	remove: async function remove(event) {
+		const member = requireRole(event, 'admin');
+		const form = await superValidate(event.request, zod4(removeSchema));
+		if (!form.valid) return fail(400, { error: 'Unknown member.' });
+		try {
+			await removeMember({ userId: member.user.id, organisationId: member.organisationId }, form.data.userId);
+		} catch (e) {
+			if (e instanceof MembershipError) return fail(400, { error: e.message });
+			throw e;
+		}
+		return { done: 'Member removed.' };
+	}
+};

@@ -1,0 +1,15 @@
+import { z } from 'zod';
+import { ROLES } from '$lib/roles';
+
+export const inviteSchema = z.object({
+	email: z.email('Enter an e-mail address such as name@example.test.').max(254),
+	name: z.string().trim().max(120, 'Keep the name under 120 characters.').optional(),
+	role: z.enum(ROLES, { message: 'Choose assessor, supervisor or admin.' })
+});
+
+export const roleSchema = z.object({
+	userId: z.uuid('Unknown member.'),
+	role: z.enum(ROLES, { message: 'Choose assessor, supervisor or admin.' })
+});
+
+export const removeSchema = z.object({ userId: z.uuid('Unknown member.') });

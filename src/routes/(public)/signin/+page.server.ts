@@ -1,0 +1,38 @@
+import { fail, redirect } from '@sveltejs/kit';
+import { superValidate, message } from 'sveltekit-superforms';
+import { zod4 } from 'sveltekit-superforms/adapters';
+import { signIn } from '$lib/server/auth';
+import { isKnownAddress } from '$lib/server/members';
+import { allowSignInAttempt } from '$lib/server/rate-limit';
+import { signInSchema } from './schema';
+
+/** Only same-site paths may be followed after sign-in. */
+function safeNext(next: string | undefined): string {
+	return next && next.startsWith('/') && !next.startsWith('//') ? next : '/dwellings';
+}
+
+export const load = async ({ locals, url }) => {
+	if (locals.user && locals.membership) redirect(303, safeNext(url.searchParams.get('next') ?? undefined));
+	const form = await superValidate({ email: '', next: url.searchParams.get('next') ?? '' }, zod4(signInSchema), {
+		errors: false
+	});
+	return { form };
+};
+
+export const actions = {
+	default: async function requestLink(event) {
+		const form = await superValidate(event.request.clone(), zod4(signInSchema));
+		if (!form.valid) return fail(400, { form });
+		const email = form.data.email.trim().toLowerCase();
+		const client = event.getClientAddress();
+		if (!(await allowSignInAttempt(email, client))) {
+			return message(form, 'Too many sign-in requests. Wait a quarter of an hour and try again.', { status: 429 });
+		}
+		// Unknown addresses get the same answer as known ones, and no e-mail.
+		if (!(await isKnownAddress(email))) redirect(303, '/signin/check-email');
+		const body = new URLSearchParams({ providerId: 'nodemailer', email, redirectTo: safeNext(form.data.next) });
+		const headers = new Headers(event.request.headers);
+		headers.set('content-type', 'application/x-www-form-urlencoded');
+		await signIn({ ...event, request: new Request(event.request.url, { method: 'POST', headers, body }) });
+	}
+};
