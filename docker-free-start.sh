@@ -17,6 +17,7 @@ cleanup() {
 	for pid in "${PIDS[@]:-}"; do [ -n "$pid" ] && wait "$pid" 2>/dev/null || true; done
 	[ -n "$PG_DATA_RUNNING" ] && pg_stop "$PG_DATA_RUNNING"
 	[ -n "${TEST_TMP:-}" ] && rm -rf "$TEST_TMP"
+	[ -n "${TEST_BUILD:-}" ] && rm -rf "$TEST_BUILD"
 	return 0
 }
 trap cleanup EXIT
@@ -116,21 +117,34 @@ run_test() {
 	export MAIL_FROM="Envelo <no-reply@envelo.example.test>"
 	export AUTH_SECRET="test-secret-$(date +%s)-$RANDOM$RANDOM"
 
-	local failed=0
-	log "svelte-check"
-	node_modules/.bin/svelte-kit sync >/dev/null
-	node_modules/.bin/svelte-check --tsconfig ./tsconfig.json --fail-on-warnings --output human || failed=1
-	log "formatting (prettier --check)"
-	node_modules/.bin/prettier --check . --log-level warn || failed=1
-	log "unit and server tests (vitest)"
-	node_modules/.bin/vitest run || failed=1
-	log "building for the end-to-end tests"
-	node_modules/.bin/vite build >"$TEST_TMP/build.log" 2>&1 || { tail -40 "$TEST_TMP/build.log"; die "build failed"; }
-	log "end-to-end tests (Playwright, Debian's Chromium)"
-	DATABASE_URL="$E2E_DATABASE_URL" node_modules/.bin/knex --knexfile knexfile.js migrate:latest >/dev/null
-	DATABASE_URL="$E2E_DATABASE_URL" node_modules/.bin/knex --knexfile knexfile.js seed:run >/dev/null
-	export APP_PORT; APP_PORT=$(free_port)
-	DATABASE_URL="$E2E_DATABASE_URL" node_modules/.bin/playwright test || failed=1
+	# For working on one part: ONLY_UNIT="tests/server/x.test.ts" and/or ONLY_E2E="e2e/x.e2e.ts" run just
+	# those ("none" skips the stage); SKIP_STATIC=1 skips svelte-check and prettier. CI runs everything.
+	local failed=0 only_unit="${ONLY_UNIT:-}" only_e2e="${ONLY_E2E:-}"
+	if [ -z "${SKIP_STATIC:-}" ]; then
+		log "svelte-check"
+		node_modules/.bin/svelte-kit sync >/dev/null
+		node_modules/.bin/svelte-check --tsconfig ./tsconfig.json --fail-on-warnings --output human || failed=1
+		log "formatting (prettier --check)"
+		node_modules/.bin/prettier --check . --log-level warn || failed=1
+	fi
+	if [ "$only_unit" != "none" ]; then
+		log "unit and server tests (vitest)"
+		# shellcheck disable=SC2086
+		node_modules/.bin/vitest run $only_unit || failed=1
+	fi
+	if [ "$only_e2e" != "none" ]; then
+		log "building for the end-to-end tests"
+		# Inside the project (packages resolve from node_modules), one folder per run.
+		TEST_BUILD="$ROOT/.test-builds/$(basename "$TEST_TMP")"
+		export BUILD_DIR="$TEST_BUILD/build" KIT_OUT_DIR="$TEST_BUILD/kit"
+		node_modules/.bin/vite build >"$TEST_TMP/build.log" 2>&1 || { tail -40 "$TEST_TMP/build.log"; die "build failed"; }
+		log "end-to-end tests (Playwright, Debian's Chromium)"
+		DATABASE_URL="$E2E_DATABASE_URL" node_modules/.bin/knex --knexfile knexfile.js migrate:latest >/dev/null
+		DATABASE_URL="$E2E_DATABASE_URL" node_modules/.bin/knex --knexfile knexfile.js seed:run >/dev/null
+		export APP_PORT; APP_PORT=$(free_port)
+		# shellcheck disable=SC2086
+		DATABASE_URL="$E2E_DATABASE_URL" node_modules/.bin/playwright test $only_e2e || failed=1
+	fi
 	if [ "$failed" -ne 0 ]; then log "FAILED"; exit 1; fi
 	log "all tests passed"
 }

@@ -34,7 +34,7 @@ export default defineConfig({
 		}
 	},
 	webServer: {
-		command: 'node build',
+		command: `node ${process.env.BUILD_DIR ?? 'build'}`,
 		url: `${origin}/healthz`,
 		reuseExistingServer: false,
 		timeout: 60_000,

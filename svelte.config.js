@@ -5,7 +5,9 @@ import { vitePreprocess } from '@sveltejs/vite-plugin-svelte';
 const config = {
 	preprocess: vitePreprocess(),
 	kit: {
-		adapter: adapter(),
+		// BUILD_DIR and KIT_OUT_DIR let several test runs build side by side in one checkout.
+		adapter: adapter({ out: process.env.BUILD_DIR ?? 'build' }),
+		outDir: process.env.KIT_OUT_DIR ?? '.svelte-kit',
 		csp: {
 			mode: 'auto',
 			directives: {

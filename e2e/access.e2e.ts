@@ -43,7 +43,9 @@ function walk(dir: string, segs: string[] = []): Route[] {
 	const server = path.join(dir, '+server.ts');
 	if (fs.existsSync(server) && pattern.startsWith('/api/')) {
 		const src = fs.readFileSync(server, 'utf8');
-		const methods = [...src.matchAll(/export\s+(?:const|async function|function)\s+(GET|POST|PUT|PATCH|DELETE)\b/g)].map((m) => m[1]);
+		const methods = [
+			...src.matchAll(/export\s+(?:const|async function|function)\s+(GET|POST|PUT|PATCH|DELETE)\b/g)
+		].map((m) => m[1]);
 		out.push({ kind: 'api', pattern, methods });
 	}
 	return out;
@@ -107,7 +109,9 @@ test("a member of another organisation never reaches this organisation's rows", 
 			expect(body, `${method} ${url} leaked the organisation's name`).not.toContain('Northfield');
 			for (const id of ids) expect(body, `${method} ${url} echoed an id`).not.toContain(id);
 			if (ids.length > 0) {
-				expect([400, 403, 404, 405, 409, 422], `${method} ${url} gave ${res.status()}`).toContain(res.status());
+				expect([400, 403, 404, 405, 409, 422], `${method} ${url} gave ${res.status()}`).toContain(
+					res.status()
+				);
 			} else if (method !== 'GET') {
 				expect(res.status(), `${method} ${url}`).not.toBe(500);
 			}

@@ -22,7 +22,14 @@ export function db(): Knex {
 	return e2eDb;
 }
 
-type Mail = { id: string; to: string[]; subject: string; text: string; receivedAt: string; attachments: { index: number; filename: string }[] };
+type Mail = {
+	id: string;
+	to: string[];
+	subject: string;
+	text: string;
+	receivedAt: string;
+	attachments: { index: number; filename: string }[];
+};
 
 /** Wait for the newest message to an address whose subject matches, received after `since`. */
 export async function waitForMail(to: string, subject: RegExp, since: string): Promise<Mail> {
@@ -54,9 +61,22 @@ export async function signInAs(context: BrowserContext, email: string) {
 	const user = await db()('users').where({ email }).first('id');
 	if (!user) throw new Error(`no user ${email}`);
 	const token = randomBytes(24).toString('hex');
-	await db()('sessions').insert({ userId: user.id, sessionToken: token, expires: new Date(Date.now() + 3600_000) });
+	await db()('sessions').insert({
+		userId: user.id,
+		sessionToken: token,
+		expires: new Date(Date.now() + 3600_000)
+	});
 	const url = new URL(process.env.PLAYWRIGHT_BASE_URL ?? `http://127.0.0.1:${process.env.APP_PORT ?? 4173}`);
-	await context.addCookies([{ name: 'authjs.session-token', value: token, domain: url.hostname, path: '/', httpOnly: true, sameSite: 'Lax' }]);
+	await context.addCookies([
+		{
+			name: 'authjs.session-token',
+			value: token,
+			domain: url.hostname,
+			path: '/',
+			httpOnly: true,
+			sameSite: 'Lax'
+		}
+	]);
 	return token;
 }
 
@@ -64,6 +84,10 @@ export async function signInAs(context: BrowserContext, email: string) {
 export async function sessionCookie(email: string) {
 	const user = await db()('users').where({ email }).first('id');
 	const token = randomBytes(24).toString('hex');
-	await db()('sessions').insert({ userId: user.id, sessionToken: token, expires: new Date(Date.now() + 3600_000) });
+	await db()('sessions').insert({
+		userId: user.id,
+		sessionToken: token,
+		expires: new Date(Date.now() + 3600_000)
+	});
 	return `authjs.session-token=${token}`;
 }

@@ -14,11 +14,15 @@ test.describe('sign-in by e-mail link', () => {
 			await expect(page.getByTestId('whoami')).toContainText(new RegExp(role, 'i'));
 			await expect(page.getByTestId('whoami')).toContainText('Northfield Retrofit Partnership');
 			for (const section of ['Dwellings', 'Library', 'Climates', 'Audit', 'Organisation']) {
-				await expect(page.getByRole('navigation', { name: 'Sections' }).getByRole('link', { name: section })).toBeVisible();
+				await expect(
+					page.getByRole('navigation', { name: 'Sections' }).getByRole('link', { name: section })
+				).toBeVisible();
 			}
 			await page.getByRole('link', { name: 'Organisation' }).click();
 			// Only an admin may invite or change roles.
-			await expect(page.getByRole('heading', { name: 'Invite a member' })).toHaveCount(role === 'admin' ? 1 : 0);
+			await expect(page.getByRole('heading', { name: 'Invite a member' })).toHaveCount(
+				role === 'admin' ? 1 : 0
+			);
 			await expect(page.getByRole('button', { name: 'Remove' })).toHaveCount(role === 'admin' ? 3 : 0);
 			// The other organisation's people never appear.
 			await expect(page.getByText('harbourline', { exact: false })).toHaveCount(0);

@@ -19,7 +19,10 @@ const dir = path.resolve(args.dir ?? '.data/mail');
 fs.mkdirSync(dir, { recursive: true });
 
 const esc = (s) =>
-	String(s ?? '').replace(/[&<>"']/g, (c) => ({ '&': '&amp;', '<': '&lt;', '>': '&gt;', '"': '&quot;', "'": '&#39;' })[c]);
+	String(s ?? '').replace(
+		/[&<>"']/g,
+		(c) => ({ '&': '&amp;', '<': '&lt;', '>': '&gt;', '"': '&quot;', "'": '&#39;' })[c]
+	);
 
 function listMessages() {
 	return fs
@@ -69,14 +72,16 @@ const smtp = new SMTPServer({
 smtp.on('error', (e) => console.error('[fake-smtp]', e.message));
 smtp.listen(smtpPort, '127.0.0.1');
 
-const page = (title, body) => `<!doctype html><html lang="en"><head><meta charset="utf-8"><title>${esc(title)}</title>
+const page = (
+	title,
+	body
+) => `<!doctype html><html lang="en"><head><meta charset="utf-8"><title>${esc(title)}</title>
 <style>body{font:15px/1.45 system-ui,sans-serif;margin:2rem auto;max-width:60rem;color:#222;background:#faf8f3;padding:0 1rem}
 table{border-collapse:collapse;width:100%}td,th{border-bottom:1px solid #ddd;padding:.35rem .5rem;text-align:left}
 pre{white-space:pre-wrap;background:#fff;border:1px solid #ddd;padding:1rem}a{color:#7a3b12}</style></head>
 <body><p><a href="/">Local mail inbox</a> — messages sent by Envelo in development and tests; nothing leaves this machine.</p>${body}</body></html>`;
 
-const linkify = (text) =>
-	esc(text).replace(/https?:\/\/[^\s<>"']+/g, (u) => `<a href="${u}">${u}</a>`);
+const linkify = (text) => esc(text).replace(/https?:\/\/[^\s<>"']+/g, (u) => `<a href="${u}">${u}</a>`);
 
 http
 	.createServer((req, res) => {
@@ -88,18 +93,26 @@ http
 		const messages = listMessages();
 		if (url.pathname === '/api/messages') {
 			const to = url.searchParams.get('to')?.toLowerCase();
-			return send(200, 'application/json', JSON.stringify(to ? messages.filter((m) => m.to.includes(to)) : messages));
+			return send(
+				200,
+				'application/json',
+				JSON.stringify(to ? messages.filter((m) => m.to.includes(to)) : messages)
+			);
 		}
 		if (url.pathname === '/api/messages' && req.method === 'DELETE') return send(405, 'text/plain', 'no');
 		const m = url.pathname.match(/^\/messages\/([\w-]+)(?:\/(raw|attachments\/(\d+)))?$/);
 		if (m) {
 			const msg = messages.find((x) => x.id === m[1]);
 			if (!msg) return send(404, 'text/plain', 'no such message');
-			if (m[2] === 'raw') return send(200, 'message/rfc822', fs.readFileSync(path.join(dir, `${msg.id}.eml`)));
+			if (m[2] === 'raw')
+				return send(200, 'message/rfc822', fs.readFileSync(path.join(dir, `${msg.id}.eml`)));
 			if (m[3] !== undefined) {
 				const att = msg.attachments[Number(m[3])];
 				if (!att) return send(404, 'text/plain', 'no such attachment');
-				res.writeHead(200, { 'content-type': att.contentType, 'content-disposition': `attachment; filename="${att.filename}"` });
+				res.writeHead(200, {
+					'content-type': att.contentType,
+					'content-disposition': `attachment; filename="${att.filename}"`
+				});
 				return res.end(fs.readFileSync(path.join(dir, `${msg.id}.att${m[3]}`)));
 			}
 			return send(
@@ -128,7 +141,9 @@ ${messages.map((x) => `<tr><td>${esc(x.receivedAt.replace('T', ' ').slice(0, 19)
 	})
 	.listen(inboxPort, '127.0.0.1');
 
-console.log(`[fake-smtp] SMTP on 127.0.0.1:${smtpPort}, inbox on http://127.0.0.1:${inboxPort}, storing in ${dir}`);
+console.log(
+	`[fake-smtp] SMTP on 127.0.0.1:${smtpPort}, inbox on http://127.0.0.1:${inboxPort}, storing in ${dir}`
+);
 const stop = () => {
 	smtp.close(() => process.exit(0));
 	setTimeout(() => process.exit(0), 500).unref();

@@ -1,8 +1,10 @@
-import type { Handle, HandleServerError } from '@sveltejs/kit';
+import type { Handle, HandleServerError, ServerInit } from '@sveltejs/kit';
 import { sequence } from '@sveltejs/kit/hooks';
 import { randomUUID } from 'node:crypto';
 import { authHandle } from '$lib/server/auth';
 import { getMembershipForUser } from '$lib/server/members';
+import { startWorkers } from '$lib/server/workers';
+// Background workers register themselves when their module is imported (one line each, below).
 
 /** Who is asking: the signed-in user and their organisation and role, on every request. */
 const identify: Handle = async ({ event, resolve }) => {
@@ -17,7 +19,17 @@ const identify: Handle = async ({ event, resolve }) => {
 	return resolve(event);
 };
 
-const PUBLIC_PREFIXES = ['/signin', '/signout', '/auth/', '/verify', '/healthz', '/not-a-member', '/_app/', '/favicon', '/robots.txt'];
+const PUBLIC_PREFIXES = [
+	'/signin',
+	'/signout',
+	'/auth/',
+	'/verify',
+	'/healthz',
+	'/not-a-member',
+	'/_app/',
+	'/favicon',
+	'/robots.txt'
+];
 
 /**
  * The signed-in area is guarded here once; every load, action and endpoint checks again with
@@ -25,14 +37,19 @@ const PUBLIC_PREFIXES = ['/signin', '/signout', '/auth/', '/verify', '/healthz',
  */
 const guard: Handle = async ({ event, resolve }) => {
 	const path = event.url.pathname;
-	const isPublic = path === '/' || PUBLIC_PREFIXES.some((p) => path === p.replace(/\/$/, '') || path.startsWith(p));
+	const isPublic =
+		path === '/' || PUBLIC_PREFIXES.some((p) => path === p.replace(/\/$/, '') || path.startsWith(p));
 	if (!isPublic) {
 		if (!event.locals.user) {
 			if (path.startsWith('/api/')) return json({ message: 'Sign in first.' }, 401);
-			return new Response(null, { status: 303, headers: { location: `/signin?next=${encodeURIComponent(path + event.url.search)}` } });
+			return new Response(null, {
+				status: 303,
+				headers: { location: `/signin?next=${encodeURIComponent(path + event.url.search)}` }
+			});
 		}
 		if (!event.locals.membership) {
-			if (path.startsWith('/api/')) return json({ message: 'You are not a member of an organisation yet.' }, 403);
+			if (path.startsWith('/api/'))
+				return json({ message: 'You are not a member of an organisation yet.' }, 403);
 			return new Response(null, { status: 303, headers: { location: '/not-a-member' } });
 		}
 	}
@@ -54,4 +71,8 @@ export const handleError: HandleServerError = ({ error, event, status, message }
 	const errorId = randomUUID().slice(0, 8);
 	console.error(`[envelo] error ${errorId} on ${event.request.method} ${event.url.pathname}:`, error);
 	return { message: 'Something went wrong on our side. Quote this reference if you report it.', errorId };
+};
+
+export const init: ServerInit = async () => {
+	await startWorkers();
 };

@@ -22,7 +22,12 @@ export async function makeOrganisation(name = `Test org ${randomBytes(3).toStrin
 export async function makeMember(organisationId: string, role: Role = 'assessor', name?: string) {
 	const id = randomUUID();
 	const email = `${role}-${id.slice(0, 8)}@example.test`;
-	await tdb()('users').insert({ id, email, name: name ?? `${role} ${id.slice(0, 4)}`, emailVerified: new Date() });
+	await tdb()('users').insert({
+		id,
+		email,
+		name: name ?? `${role} ${id.slice(0, 4)}`,
+		emailVerified: new Date()
+	});
 	await tdb()('memberships').insert({ organisation_id: organisationId, user_id: id, role });
 	return { id, email, role, organisationId };
 }
@@ -46,12 +51,17 @@ export async function makeTeam() {
 }
 
 /** The shape requireRole() reads, for calling server modules and route handlers directly. */
-export function fakeEvent(member: { id: string; email: string; role: Role; organisationId: string } | null, path = '/dwellings') {
+export function fakeEvent(
+	member: { id: string; email: string; role: Role; organisationId: string } | null,
+	path = '/dwellings'
+) {
 	return {
 		url: new URL(`http://127.0.0.1${path}`),
 		locals: {
 			user: member ? { id: member.id, email: member.email, name: null } : null,
-			membership: member ? { organisationId: member.organisationId, organisationName: 'Test', role: member.role } : null
+			membership: member
+				? { organisationId: member.organisationId, organisationName: 'Test', role: member.role }
+				: null
 		}
 	};
 }

@@ -8,7 +8,9 @@ import config from '../knexfile.js';
 export default async function setup() {
 	const url = process.env.TEST_DATABASE_URL;
 	if (!url) {
-		console.warn('[tests] TEST_DATABASE_URL is not set: server suites will be skipped (run ./docker-free-start.sh test)');
+		console.warn(
+			'[tests] TEST_DATABASE_URL is not set: server suites will be skipped (run ./docker-free-start.sh test)'
+		);
 		return;
 	}
 	process.env.DATABASE_URL = url;

@@ -227,14 +227,12 @@ export async function up(knex) {
 
 /** @param {import('knex').Knex} knex */
 export async function down(knex) {
-	for (const table of [
-		'audit_items',
-		'audit_batches',
-		'mail_outbox'
-	]) {
+	for (const table of ['audit_items', 'audit_batches', 'mail_outbox']) {
 		await knex.schema.dropTable(table);
 	}
-	await knex.raw('DROP TRIGGER IF EXISTS reports_immutable ON reports; DROP TRIGGER IF EXISTS reports_no_truncate ON reports');
+	await knex.raw(
+		'DROP TRIGGER IF EXISTS reports_immutable ON reports; DROP TRIGGER IF EXISTS reports_no_truncate ON reports'
+	);
 	for (const table of [
 		'reports',
 		'templates',

@@ -27,28 +27,40 @@ describe.skipIf(!hasDatabase)('members', async () => {
 
 	it('keeps at least one admin', async () => {
 		const t = await makeTeam();
-		await expect(members.changeMemberRole({ userId: t.admin.id, organisationId: t.org.id }, t.admin.id, 'assessor')).rejects.toThrow(
-			/at least one admin/
+		await expect(
+			members.changeMemberRole({ userId: t.admin.id, organisationId: t.org.id }, t.admin.id, 'assessor')
+		).rejects.toThrow(/at least one admin/);
+		await members.changeMemberRole(
+			{ userId: t.admin.id, organisationId: t.org.id },
+			t.assessor.id,
+			'supervisor'
 		);
-		await members.changeMemberRole({ userId: t.admin.id, organisationId: t.org.id }, t.assessor.id, 'supervisor');
 		expect((await members.getMembershipForUser(t.assessor.id))?.role).toBe('supervisor');
 	});
 
 	it('cannot touch a member of another organisation', async () => {
 		const a = await makeTeam();
 		const b = await makeTeam();
-		await expect(members.removeMember({ userId: a.admin.id, organisationId: a.org.id }, b.assessor.id)).rejects.toThrow(/No such member/);
+		await expect(
+			members.removeMember({ userId: a.admin.id, organisationId: a.org.id }, b.assessor.id)
+		).rejects.toThrow(/No such member/);
 		expect(await members.getMembershipForUser(b.assessor.id)).not.toBeNull();
 	});
 
 	it('removing a member ends their sessions and logs it; the log refuses changes', async () => {
 		const t = await makeTeam();
-		await tdb()('sessions').insert({ userId: t.assessor.id, sessionToken: `tok-${t.assessor.id}`, expires: new Date(Date.now() + 60_000) });
+		await tdb()('sessions').insert({
+			userId: t.assessor.id,
+			sessionToken: `tok-${t.assessor.id}`,
+			expires: new Date(Date.now() + 60_000)
+		});
 		await members.removeMember({ userId: t.admin.id, organisationId: t.org.id }, t.assessor.id);
 		expect(await tdb()('sessions').where({ userId: t.assessor.id }).first()).toBeUndefined();
 		const row = await tdb()('activity_log').where({ organisation_id: t.org.id, action: 'remove' }).first();
 		expect(row.entity_id).toBe(t.assessor.id);
-		await expect(tdb()('activity_log').where({ id: row.id }).update({ action: 'x' })).rejects.toThrow(/append-only/);
+		await expect(tdb()('activity_log').where({ id: row.id }).update({ action: 'x' })).rejects.toThrow(
+			/append-only/
+		);
 		await expect(tdb()('activity_log').where({ id: row.id }).delete()).rejects.toThrow(/append-only/);
 	});
 

@@ -22,7 +22,10 @@ export async function logActivity(
 	});
 }
 
-export async function listActivity(organisationId: string, filter: { entity?: string; entityId?: string; limit?: number } = {}) {
+export async function listActivity(
+	organisationId: string,
+	filter: { entity?: string; entityId?: string; limit?: number } = {}
+) {
 	const q = db('activity_log as a')
 		.leftJoin('users as u', 'u.id', 'a.user_id')
 		.where('a.organisation_id', organisationId)

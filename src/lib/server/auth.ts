@@ -29,7 +29,11 @@ async function sendSignInLink({ identifier, url }: { identifier: string; url: st
 	}
 }
 
-export const { handle: authHandle, signIn, signOut } = SvelteKitAuth(async (): Promise<SvelteKitAuthConfig> => ({
+export const {
+	handle: authHandle,
+	signIn,
+	signOut
+} = SvelteKitAuth(async (): Promise<SvelteKitAuthConfig> => ({
 	adapter: PostgresAdapter(authPool),
 	secret: setting('AUTH_SECRET'),
 	trustHost: true,

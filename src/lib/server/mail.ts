@@ -7,7 +7,9 @@ export function smtpSettings() {
 		host: setting('SMTP_HOST') ?? '127.0.0.1',
 		port: Number(setting('SMTP_PORT') ?? 2525),
 		secure: setting('SMTP_SECURE') === 'true',
-		auth: setting('SMTP_USER') ? { user: setting('SMTP_USER'), pass: setting('SMTP_PASSWORD') ?? '' } : undefined,
+		auth: setting('SMTP_USER')
+			? { user: setting('SMTP_USER'), pass: setting('SMTP_PASSWORD') ?? '' }
+			: undefined,
 		// The local fake server has no certificate; a real provider is reached with STARTTLS when offered.
 		ignoreTLS: (setting('SMTP_HOST') ?? '127.0.0.1') === '127.0.0.1',
 		connectionTimeout: 5000,

@@ -31,7 +31,15 @@ export async function listMembers(organisationId: string) {
 		.join('users as u', 'u.id', 'm.user_id')
 		.where('m.organisation_id', organisationId)
 		.orderBy([{ column: 'm.role' }, { column: 'u.email' }])
-		.select('u.id', 'u.email', 'u.name', 'u.registration_number', 'u.emailVerified as email_verified', 'm.role', 'm.created_at');
+		.select(
+			'u.id',
+			'u.email',
+			'u.name',
+			'u.registration_number',
+			'u.emailVerified as email_verified',
+			'm.role',
+			'm.created_at'
+		);
 	return rows.map((r) => ({
 		userId: r.id as string,
 		email: r.email as string,
@@ -85,7 +93,14 @@ export async function inviteMember(
 			invited_by: actor.userId
 		});
 		await logActivity(
-			{ organisationId: actor.organisationId, userId: actor.userId, action: 'invite', entity: 'membership', entityId: user.id, details: { email, role: input.role } },
+			{
+				organisationId: actor.organisationId,
+				userId: actor.userId,
+				action: 'invite',
+				entity: 'membership',
+				entityId: user.id,
+				details: { email, role: input.role }
+			},
 			t
 		);
 		return { userId: user.id as string };
@@ -94,20 +109,39 @@ export async function inviteMember(
 }
 
 async function assertNotLastAdmin(t: Db, organisationId: string, userId: string) {
-	const admins = await t('memberships').where({ organisation_id: organisationId, role: 'admin' }).pluck('user_id');
+	const admins = await t('memberships')
+		.where({ organisation_id: organisationId, role: 'admin' })
+		.pluck('user_id');
 	if (admins.length === 1 && admins[0] === userId) {
-		throw new MembershipError('An organisation needs at least one admin: make someone else admin first.', 'role');
+		throw new MembershipError(
+			'An organisation needs at least one admin: make someone else admin first.',
+			'role'
+		);
 	}
 }
 
-export async function changeMemberRole(actor: { userId: string; organisationId: string }, userId: string, role: Role) {
+export async function changeMemberRole(
+	actor: { userId: string; organisationId: string },
+	userId: string,
+	role: Role
+) {
 	return db.transaction(async (t) => {
-		const m = await t('memberships').where({ organisation_id: actor.organisationId, user_id: userId }).forUpdate().first();
+		const m = await t('memberships')
+			.where({ organisation_id: actor.organisationId, user_id: userId })
+			.forUpdate()
+			.first();
 		if (!m) throw new MembershipError('No such member in this organisation.', 'userId');
 		if (m.role === 'admin' && role !== 'admin') await assertNotLastAdmin(t, actor.organisationId, userId);
 		await t('memberships').where({ id: m.id }).update({ role });
 		await logActivity(
-			{ organisationId: actor.organisationId, userId: actor.userId, action: 'change-role', entity: 'membership', entityId: userId, details: { from: m.role, to: role } },
+			{
+				organisationId: actor.organisationId,
+				userId: actor.userId,
+				action: 'change-role',
+				entity: 'membership',
+				entityId: userId,
+				details: { from: m.role, to: role }
+			},
 			t
 		);
 	});
@@ -115,14 +149,24 @@ export async function changeMemberRole(actor: { userId: string; organisationId: 
 
 export async function removeMember(actor: { userId: string; organisationId: string }, userId: string) {
 	return db.transaction(async (t) => {
-		const m = await t('memberships').where({ organisation_id: actor.organisationId, user_id: userId }).forUpdate().first();
+		const m = await t('memberships')
+			.where({ organisation_id: actor.organisationId, user_id: userId })
+			.forUpdate()
+			.first();
 		if (!m) throw new MembershipError('No such member in this organisation.', 'userId');
 		if (m.role === 'admin') await assertNotLastAdmin(t, actor.organisationId, userId);
 		await t('memberships').where({ id: m.id }).delete();
 		// End their open sessions so removal takes effect at once.
 		await t('sessions').where({ userId }).delete();
 		await logActivity(
-			{ organisationId: actor.organisationId, userId: actor.userId, action: 'remove', entity: 'membership', entityId: userId, details: { role: m.role } },
+			{
+				organisationId: actor.organisationId,
+				userId: actor.userId,
+				action: 'remove',
+				entity: 'membership',
+				entityId: userId,
+				details: { role: m.role }
+			},
 			t
 		);
 	});

@@ -15,9 +15,18 @@ export const SIGN_IN_LIMITS = {
 export async function allowSignInAttempt(email: string, client: string): Promise<boolean> {
 	const since = db.raw(`now() - interval '${SIGN_IN_LIMITS.windowMinutes} minutes'`);
 	const [byAddress, byClient] = await Promise.all([
-		db('sign_in_attempts').where('email', email).andWhere('created_at', '>', since).count<{ count: number }[]>('* as count'),
-		db('sign_in_attempts').where('client', client).andWhere('created_at', '>', since).count<{ count: number }[]>('* as count')
+		db('sign_in_attempts')
+			.where('email', email)
+			.andWhere('created_at', '>', since)
+			.count<{ count: number }[]>('* as count'),
+		db('sign_in_attempts')
+			.where('client', client)
+			.andWhere('created_at', '>', since)
+			.count<{ count: number }[]>('* as count')
 	]);
 	await db('sign_in_attempts').insert({ email, client });
-	return Number(byAddress[0].count) < SIGN_IN_LIMITS.perAddress && Number(byClient[0].count) < SIGN_IN_LIMITS.perClient;
+	return (
+		Number(byAddress[0].count) < SIGN_IN_LIMITS.perAddress &&
+		Number(byClient[0].count) < SIGN_IN_LIMITS.perClient
+	);
 }

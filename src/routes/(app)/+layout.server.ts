@@ -4,6 +4,10 @@ export const load = (event) => {
 	const member = requireMember(event);
 	return {
 		user: member.user,
-		membership: { organisationId: member.organisationId, organisationName: member.organisationName, role: member.role }
+		membership: {
+			organisationId: member.organisationId,
+			organisationName: member.organisationName,
+			role: member.role
+		}
 	};
 };

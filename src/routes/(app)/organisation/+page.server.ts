@@ -2,7 +2,13 @@ import { fail } from '@sveltejs/kit';
 import { superValidate, message, setError } from 'sveltekit-superforms';
 import { zod4 } from 'sveltekit-superforms/adapters';
 import { requireMember, requireRole } from '$lib/server/guard';
-import { changeMemberRole, inviteMember, listMembers, MembershipError, removeMember } from '$lib/server/members';
+import {
+	changeMemberRole,
+	inviteMember,
+	listMembers,
+	MembershipError,
+	removeMember
+} from '$lib/server/members';
 import { sendMail } from '$lib/server/mail';
 import { inviteSchema, removeSchema, roleSchema } from './schema';
 
@@ -10,7 +16,9 @@ export const load = async (event) => {
 	const member = requireMember(event);
 	return {
 		members: await listMembers(member.organisationId),
-		inviteForm: await superValidate(zod4(inviteSchema), { defaults: { email: '', name: '', role: 'assessor' } })
+		inviteForm: await superValidate(zod4(inviteSchema), {
+			defaults: { email: '', name: '', role: 'assessor' }
+		})
 	};
 };
 
@@ -35,7 +43,10 @@ export const actions = {
 					`Sign in with this address at ${signInUrl} — Envelo e-mails you a link each time; there is no password.\n`
 			});
 		} catch {
-			return message(form, `Added ${form.data.email}, but the invitation e-mail could not be sent; tell them to sign in at ${signInUrl}.`);
+			return message(
+				form,
+				`Added ${form.data.email}, but the invitation e-mail could not be sent; tell them to sign in at ${signInUrl}.`
+			);
 		}
 		return message(form, `Invitation sent to ${form.data.email}.`);
 	},
@@ -44,7 +55,11 @@ export const actions = {
 		const form = await superValidate(event.request, zod4(roleSchema));
 		if (!form.valid) return fail(400, { error: 'Choose a member and a role.' });
 		try {
-			await changeMemberRole({ userId: member.user.id, organisationId: member.organisationId }, form.data.userId, form.data.role);
+			await changeMemberRole(
+				{ userId: member.user.id, organisationId: member.organisationId },
+				form.data.userId,
+				form.data.role
+			);
 		} catch (e) {
 			if (e instanceof MembershipError) return fail(400, { error: e.message });
 			throw e;

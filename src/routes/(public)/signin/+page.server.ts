@@ -13,9 +13,13 @@ function safeNext(next: string | undefined): string {
 
 export const load = async ({ locals, url }) => {
 	if (locals.user && locals.membership) redirect(303, safeNext(url.searchParams.get('next') ?? undefined));
-	const form = await superValidate({ email: '', next: url.searchParams.get('next') ?? '' }, zod4(signInSchema), {
-		errors: false
-	});
+	const form = await superValidate(
+		{ email: '', next: url.searchParams.get('next') ?? '' },
+		zod4(signInSchema),
+		{
+			errors: false
+		}
+	);
 	return { form };
 };
 
@@ -26,11 +30,17 @@ export const actions = {
 		const email = form.data.email.trim().toLowerCase();
 		const client = event.getClientAddress();
 		if (!(await allowSignInAttempt(email, client))) {
-			return message(form, 'Too many sign-in requests. Wait a quarter of an hour and try again.', { status: 429 });
+			return message(form, 'Too many sign-in requests. Wait a quarter of an hour and try again.', {
+				status: 429
+			});
 		}
 		// Unknown addresses get the same answer as known ones, and no e-mail.
 		if (!(await isKnownAddress(email))) redirect(303, '/signin/check-email');
-		const body = new URLSearchParams({ providerId: 'nodemailer', email, redirectTo: safeNext(form.data.next) });
+		const body = new URLSearchParams({
+			providerId: 'nodemailer',
+			email,
+			redirectTo: safeNext(form.data.next)
+		});
 		const headers = new Headers(event.request.headers);
 		headers.set('content-type', 'application/x-www-form-urlencoded');
 		await signIn({ ...event, request: new Request(event.request.url, { method: 'POST', headers, body }) });
