@@ -1,0 +1,75 @@
+/**
+ * Envelo calculation core — the public face. Pure TypeScript: no I/O, no clock, no framework.
+ *
+ * ISO 6946 U-values (surface and air-layer resistances, combined method for bridged layers, ΔU
+ * corrections), a 1-D finite-element conduction solve for the temperature profile, and the
+ * ISO 13788 surface-humidity (fRsi) and monthly Glaser interstitial-condensation checks.
+ */
+export { analyseElement, buildThermalModel, GLASER_SUBLAYER_MAX_R } from './element';
+export type { ThermalModel, LayerModel } from './element';
+export { solveThickness, solveThicknessDetailed } from './inverse';
+export type { ThicknessSolution } from './inverse';
+export {
+	saturationPressure,
+	saturationTemperature,
+	humidityClassExcess,
+	internalVapourPressure,
+	vapourThickness,
+	temperatureFactor,
+	minimumTemperatureFactor,
+	DELTA_0,
+	RSI_SURFACE_CHECK,
+	SURFACE_RH_CRITICAL,
+	HUMIDITY_CLASS_EXCESS,
+	HUMIDITY_CLASS_SAFETY_FACTOR,
+	MONTH_DAYS
+} from './moisture';
+export {
+	RSI,
+	RSE,
+	AIR_LAYER_THICKNESS_MM,
+	AIR_LAYER_RESISTANCE,
+	unventilatedAirLayerResistance,
+	slightlyVentilatedTotal,
+	layerResistance
+} from './resistances';
+export type { HeatFlow } from './resistances';
+export { combinedMethod, bridgeFraction, COMBINED_METHOD_MAX_RATIO } from './bridging';
+export type { CombinedResult, SeriesLayerR } from './bridging';
+export { airGapCorrection, fastenerCorrection, applyCorrections, AIR_GAP_DELTA_U2, CORRECTION_OMIT_FRACTION } from './corrections';
+export { solveSeries, createSeriesWork } from './series';
+export type { SeriesWork } from './series';
+export { runGlaser } from './glaser';
+export type { GlaserChain, GlaserMonth, GlaserResult, GlaserNode, GlaserMonthResult } from './glaser';
+export { roundValue, describeRounding, DEFAULT_U_ROUNDING } from './rounding';
+export type { RoundingRule } from './rounding';
+export { ENGINE_VERSION, CAUTIONS } from './cautions';
+export {
+	elementInputSchema,
+	layerSchema,
+	bridgeSchema,
+	fastenersSchema,
+	climateMonthSchema,
+	internalSchema,
+	elementResultSchema,
+	layerResultSchema,
+	surfaceResultSchema,
+	condensationResultSchema,
+	parseElementInput,
+	assertElementInput,
+	formatIssues,
+	ElementInputError
+} from './schema';
+export type {
+	ElementInput,
+	ElementResult,
+	Layer,
+	ClimateMonth,
+	InternalConditions,
+	LayerResult,
+	SurfaceResult,
+	CondensationResult,
+	FieldIssue,
+	MoistureLimits,
+	Rounding
+} from './schema';

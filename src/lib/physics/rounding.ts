@@ -1,0 +1,34 @@
+/**
+ * Rounding of reported values. Every further calculation uses the unrounded value.
+ */
+
+export interface RoundingRule {
+	mode: 'decimals' | 'significant';
+	digits: number;
+}
+
+/** Default for U-values: half-up to two decimal places (the usual reporting convention). */
+export const DEFAULT_U_ROUNDING: RoundingRule = { mode: 'decimals', digits: 2 };
+
+/**
+ * Round half away from zero to `digits` decimal places or significant figures. The value is
+ * first reduced to 12 significant digits so that binary round-off (0.145 held as 0.14499…)
+ * does not decide the last digit.
+ */
+export function roundValue(value: number, rule: RoundingRule = DEFAULT_U_ROUNDING): number {
+	if (value === 0 || !Number.isFinite(value)) return value;
+	const v = Number(value.toPrecision(12));
+	const places = rule.mode === 'decimals' ? rule.digits : rule.digits - 1 - Math.floor(Math.log10(Math.abs(v)));
+	const sign = v < 0 ? -1 : 1;
+	const shifted = Math.round(Number(`${Math.abs(v)}e${places}`));
+	return sign * Number(`${shifted}e${-places}`);
+}
+
+/** Plain statement of the rounding used, stored with every result. */
+export function describeRounding(rule: RoundingRule): string {
+	const form = rule.mode === 'decimals' ? `${rule.digits} decimal place${rule.digits === 1 ? '' : 's'}` : `${rule.digits} significant figure${rule.digits === 1 ? '' : 's'}`;
+	return (
+		`U-value rounded half away from zero to ${form} for reporting; the unrounded value is used in every further calculation. ` +
+		'ISO 6946 states final U-values to two significant figures, which gives the same digits as two decimal places for 0.10 ≤ U < 1.0 W/(m²·K).'
+	);
+}
