@@ -1,0 +1,95 @@
+/**
+ * From a stored element (its `build_up`, `heat_flow` and `internal` columns) and its climate to the
+ * engine's `ElementInput`. Pure: used by the editor in the page, by the server when it recomputes,
+ * by reports and by audits, so every place computes the same thing from the same record.
+ */
+import type { ElementInput, Layer } from '$lib/physics';
+
+export type HeatFlowDirection = 'upward' | 'horizontal' | 'downward';
+
+/** A layer as stored in `elements.build_up` / `templates.build_up`: the engine's layer plus where it came from. */
+export type StoredLayer = Layer & {
+	materialId?: string;
+	materialRevisionId?: string;
+	materialCode?: string;
+	/** when given, `bridge.fraction = widthMm / centresMm` is stored as well */
+	bridgeGeometry?: { widthMm: number; centresMm: number };
+};
+
+export type StoredBuildUp = { rsi?: number; rse?: number; layers: StoredLayer[] };
+
+export type StoredInternal = {
+	temperature: number;
+	relativeHumidity?: number;
+	humidityClass?: 1 | 2 | 3 | 4 | 5;
+};
+
+export type ClimateMonthValues = { month: number; temperature: number; relativeHumidity: number };
+
+/** Internal design temperature when none is stored, °C. */
+export const DEFAULT_INTERNAL_TEMPERATURE = 20; // common practice, no source
+/** External design temperature when no climate is attached, °C. */
+export const DEFAULT_EXTERNAL_TEMPERATURE = -5; // common practice, no source
+
+const LIBRARY_KEYS = ['materialId', 'materialRevisionId', 'materialCode', 'bridgeGeometry'] as const;
+
+/** The engine's layer from a stored layer: library links dropped, bridge geometry turned into a fraction. */
+export function toEngineLayer(stored: StoredLayer): Layer {
+	const layer: Record<string, unknown> = { ...stored };
+	for (const key of LIBRARY_KEYS) delete layer[key];
+	const geometry = stored.bridgeGeometry;
+	if (stored.bridge) {
+		const bridge: Record<string, unknown> = { ...stored.bridge };
+		if (geometry && geometry.centresMm > 0) {
+			// The fraction is the one input of the combined method; width and centres only produce it.
+			bridge.fraction = geometry.widthMm / geometry.centresMm;
+			delete bridge.widthMm;
+			delete bridge.centresMm;
+		}
+		layer.bridge = bridge;
+	}
+	return layer as Layer;
+}
+
+/**
+ * The engine input for a stored element. Design temperatures for the profile: the internal
+ * temperature (else 20 °C) and the coldest month of the climate (else −5 °C). The climate and the
+ * moisture checks are included only when twelve months are given.
+ */
+export function toElementInput(
+	el: {
+		heatFlow: HeatFlowDirection;
+		buildUp: StoredBuildUp | null | undefined;
+		internal?: Partial<StoredInternal> | null;
+	},
+	climateMonths?: ClimateMonthValues[] | null
+): ElementInput {
+	const buildUp = el.buildUp ?? { layers: [] };
+	const internalTemperature =
+		typeof el.internal?.temperature === 'number' ? el.internal.temperature : DEFAULT_INTERNAL_TEMPERATURE;
+	const months = climateMonths && climateMonths.length > 0 ? climateMonths : null;
+	const coldest = months ? Math.min(...months.map((m) => m.temperature)) : DEFAULT_EXTERNAL_TEMPERATURE;
+
+	const input: ElementInput = {
+		heatFlow: el.heatFlow,
+		layers: (buildUp.layers ?? []).map(toEngineLayer),
+		designTemperatures: { internal: internalTemperature, external: coldest }
+	};
+	if (typeof buildUp.rsi === 'number') input.rsi = buildUp.rsi;
+	if (typeof buildUp.rse === 'number') input.rse = buildUp.rse;
+	if (el.internal) {
+		const internal: StoredInternal = { temperature: internalTemperature };
+		if (typeof el.internal.relativeHumidity === 'number')
+			internal.relativeHumidity = el.internal.relativeHumidity;
+		if (typeof el.internal.humidityClass === 'number') internal.humidityClass = el.internal.humidityClass;
+		input.internal = internal;
+	}
+	if (months) {
+		input.climate = months.map((m) => ({
+			month: m.month,
+			temperature: m.temperature,
+			relativeHumidity: m.relativeHumidity
+		}));
+	}
+	return input;
+}
