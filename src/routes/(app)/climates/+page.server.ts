@@ -1,0 +1,94 @@
+import { fail, redirect } from '@sveltejs/kit';
+import { requireMember, requireRole } from '$lib/server/guard';
+import { createClimate, listClimates } from '$lib/server/climates';
+import { parseClimateCsv } from '$lib/server/csv/climates';
+import { climateInputSchema } from '$lib/climates/schema';
+import { climateFromForm, climateFormValues, formErrors } from '$lib/climates/form';
+import { ConflictError } from '$lib/climates/errors';
+
+export const load = async (event) => {
+	const member = requireMember(event);
+	return { climates: await listClimates(member.organisationId) };
+};
+
+export const actions = {
+	create: async function create(event) {
+		const member = requireRole(event, 'admin');
+		const fd = await event.request.formData();
+		const values = climateFormValues(fd);
+		const input = climateInputSchema.safeParse(climateFromForm(fd));
+		if (!input.success) {
+			return fail(400, { action: 'create' as const, values, errors: formErrors(input.error) });
+		}
+		let id: string;
+		try {
+			id = (await createClimate(member, input.data)).id;
+		} catch (e) {
+			if (e instanceof ConflictError) {
+				return fail(409, {
+					action: 'create' as const,
+					values,
+					errors: { name: e.message } as Record<string, string>
+				});
+			}
+			throw e;
+		}
+		redirect(303, `/climates/${id}?created=1`);
+	},
+
+	import: async function importCsv(event) {
+		const member = requireRole(event, 'admin');
+		const fd = await event.request.formData();
+		const values = {
+			name: String(fd.get('name') ?? ''),
+			source: String(fd.get('source') ?? ''),
+			illustrative: fd.get('illustrative') === 'on'
+		};
+		const file = fd.get('file');
+		const pasted = String(fd.get('text') ?? '');
+		let bytes: Uint8Array | string;
+		let fileName = 'pasted text';
+		if (file instanceof File && file.size > 0) {
+			bytes = new Uint8Array(await file.arrayBuffer());
+			fileName = file.name;
+		} else if (pasted.trim() !== '') {
+			bytes = pasted;
+		} else {
+			return fail(400, {
+				action: 'import' as const,
+				values,
+				errors: { file: 'Choose a CSV file, or paste its text.' } as Record<string, string>,
+				problems: []
+			});
+		}
+		const parsed = parseClimateCsv(bytes);
+		const input = climateInputSchema.safeParse({ ...values, months: parsed.ok ? parsed.months : [] });
+		const errors = input.success ? {} : formErrors(input.error);
+		delete errors.months;
+		for (const k of Object.keys(errors)) if (k.startsWith('months.')) delete errors[k];
+		if (!parsed.ok || !input.success || Object.keys(errors).length > 0) {
+			return fail(400, {
+				action: 'import' as const,
+				values,
+				errors,
+				fileName,
+				problems: parsed.ok ? [] : parsed.problems.map((p) => p.message)
+			});
+		}
+		let id: string;
+		try {
+			id = (await createClimate(member, input.data)).id;
+		} catch (e) {
+			if (e instanceof ConflictError) {
+				return fail(409, {
+					action: 'import' as const,
+					values,
+					errors: { name: e.message } as Record<string, string>,
+					problems: []
+				});
+			}
+			throw e;
+		}
+		redirect(303, `/climates/${id}?created=1`);
+	}
+};
