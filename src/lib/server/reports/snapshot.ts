@@ -1,0 +1,88 @@
+/**
+ * What an issued report freezes: every input, every result, the engine version, the library
+ * revisions and the limit table. The PDF is rendered from this alone, so a re-render of a stored
+ * snapshot prints the same numbers.
+ */
+import type { ElementInput, ElementResult } from '$lib/physics';
+import type { ElementKind } from '$lib/element-kinds';
+import type { StoredBuildUp, StoredInternal } from '$lib/element-input';
+
+export type ReportScope = 'element' | 'dwelling';
+
+export type SnapshotClimate = {
+	id: string;
+	name: string;
+	source: string;
+	illustrative: boolean;
+	months: { month: number; temperature: number; relativeHumidity: number }[];
+};
+
+export type SnapshotLimitTable = {
+	id: string;
+	name: string;
+	edition: string;
+	dated: string | null;
+	source: string | null;
+	limits: Partial<Record<ElementKind, number>>;
+};
+
+export type SnapshotMaterialRevision = {
+	layerIndex: number;
+	materialId: string;
+	revisionId: string;
+	revision: number;
+	code: string | null;
+	name: string | null;
+	manufacturer: string | null;
+	lambdaKind: string | null;
+	source: string | null;
+};
+
+export type SnapshotElement = {
+	id: string;
+	name: string;
+	kind: ElementKind;
+	area: number;
+	heatFlow: 'upward' | 'horizontal' | 'downward';
+	givenU?: number | null;
+	givenUSource?: string | null;
+	buildUp: StoredBuildUp | null;
+	internal: StoredInternal | null;
+	climate: SnapshotClimate | null;
+	input: ElementInput | null;
+	result: ElementResult | null;
+	/** the U-value compared with the limit: the rounded result, or the given value */
+	u: number | null;
+	limit: number | null;
+	pass: boolean | null;
+	materialRevisions: SnapshotMaterialRevision[];
+};
+
+export type ReportSnapshot = {
+	dwelling: {
+		id: string;
+		reference: string;
+		address: string;
+		programme: string | null;
+		stage: string;
+		clientName: string | null;
+		clientEmail: string | null;
+		assessor: { id: string; name: string; email: string; registrationNumber: string | null } | null;
+	};
+	organisation: { id: string; name: string };
+	limitTable: SnapshotLimitTable | null;
+	elements: SnapshotElement[];
+	engineVersion: string;
+	issuedAt: string;
+	/** identity of the document itself, frozen with the data */
+	document: {
+		scope: ReportScope;
+		draft: boolean;
+		number: string;
+		revision: number;
+		verificationCode: string | null;
+		verifyUrl: string | null;
+		supersedes: { number: string; revision: number; issuedAt: string } | null;
+		issuedBy: { id: string; name: string };
+	};
+};
