@@ -193,13 +193,9 @@ export function parseClimateCsv(input: string | Uint8Array): ClimateCsvResult {
 		const rh = parseNumber(rawRh, decimalComma);
 		if (rawRh === '') bad('relative_humidity', 'is empty');
 		else if (rh === null) bad('relative_humidity', `${show(rawRh)} is not a number`);
-		else if (rh < 0 || rh > 100) {
-			bad(
-				'relative_humidity',
-				rh > 0 && rh <= 1
-					? `${rawRh} looks like a fraction; give relative humidity in % (0–100)`
-					: `${rawRh} is outside 0–100 %`
-			);
+		else if (rh < 0 || rh > 100) bad('relative_humidity', `${rawRh} is outside 0–100 %`);
+		else if (rh > 0 && rh <= 1) {
+			bad('relative_humidity', `${rawRh} looks like a fraction; give relative humidity in % (0–100)`);
 		}
 
 		if (month !== null) {
