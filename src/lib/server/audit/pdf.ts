@@ -1,0 +1,218 @@
+/** The batch audit report as PDF (pdfmake, Source Sans 3 from the npm package `source-sans`). */
+import { createRequire } from 'node:module';
+import fs from 'node:fs';
+import path from 'node:path';
+import pdfmake from 'pdfmake';
+import type { Content, TDocumentDefinitions } from 'pdfmake/interfaces';
+import { CAUTIONS } from '$lib/physics';
+import { FLAG_LABELS, ITEM_STATE_LABELS, SEVERITY_LABELS } from '$lib/audit/flags';
+import type { Batch, BatchSummary, ItemRow } from '../audits';
+import { uChartSvg } from './chart';
+
+const FONT = 'SourceSans3';
+
+function fontDir(): string {
+	const candidates: string[] = [];
+	try {
+		const require = createRequire(import.meta.url);
+		candidates.push(path.join(path.dirname(require.resolve('source-sans/package.json')), 'TTF'));
+	} catch {
+		// fall back to the working directory
+	}
+	candidates.push(path.resolve('node_modules/source-sans/TTF'));
+	const dir = candidates.find((d) => fs.existsSync(path.join(d, 'SourceSans3-Regular.ttf')));
+	if (!dir) throw new Error('Source Sans 3 TTF files not found (npm package source-sans)');
+	return dir;
+}
+
+let configured = false;
+/** Adds the font family (the same files and name the report PDFs use) without replacing other settings. */
+function configure() {
+	if (configured) return;
+	const dir = fontDir();
+	const file = (n: string) => path.join(dir, n);
+	pdfmake.addFonts({
+		[FONT]: {
+			normal: file('SourceSans3-Regular.ttf'),
+			bold: file('SourceSans3-Semibold.ttf'),
+			italics: file('SourceSans3-It.ttf'),
+			bolditalics: file('SourceSans3-SemiboldIt.ttf')
+		}
+	});
+	pdfmake.setUrlAccessPolicy(() => false);
+	pdfmake.setLocalAccessPolicy((p: string) => path.resolve(p).startsWith(dir + path.sep));
+	configured = true;
+}
+
+const th = (t: string, right = false): Content => ({
+	text: t,
+	bold: true,
+	alignment: right ? 'right' : 'left'
+});
+const num = (n: number | string): Content => ({ text: String(n), alignment: 'right' });
+
+export async function batchReportPdf(
+	batch: Batch,
+	summary: BatchSummary,
+	items: ItemRow[],
+	generatedBy: string,
+	organisation: string
+): Promise<Buffer> {
+	configure();
+	const s = batch.sampling;
+	const rule =
+		s.rule === 'all'
+			? 'all dwellings'
+			: `random ${s.percent} % with at least ${s.minimumPerAssessor} per assessor`;
+	const doc: TDocumentDefinitions = {
+		info: { title: `Audit report — ${batch.name}`, creator: 'Envelo' },
+		pageSize: 'A4',
+		pageMargins: [40, 48, 40, 48],
+		defaultStyle: { font: FONT, fontSize: 9, color: '#1f1b16' },
+		header: (page, pages) => ({
+			columns: [
+				{ text: `${organisation} · Audit report · ${batch.name}`, color: '#5b554c' },
+				{ text: `page ${page} of ${pages}`, alignment: 'right', color: '#5b554c' }
+			],
+			margin: [40, 20, 40, 0],
+			fontSize: 8
+		}),
+		content: [
+			{ text: `Audit report: ${batch.name}`, fontSize: 16, bold: true },
+			{
+				text: `Created ${batch.createdAt.slice(0, 10)} by ${batch.createdByName ?? 'unknown'}; generated ${new Date().toISOString().slice(0, 16).replace('T', ' ')} UTC by ${generatedBy}.`,
+				margin: [0, 2, 0, 0],
+				color: '#5b554c'
+			},
+			{
+				text: `Sampling: ${rule}${s.includeFlagged ? ', plus every dwelling that carries a flag' : ''}; seed ${batch.seed}. Drawn from ${batch.counts.population} dwellings; ${summary.items} in the batch. Recomputed: ${batch.progress.finishedAt ? batch.progress.finishedAt.slice(0, 16).replace('T', ' ') + ' UTC' : 'not yet'}.`,
+				margin: [0, 2, 0, 8]
+			},
+			{ text: 'Outcomes', bold: true, fontSize: 11, margin: [0, 4, 0, 2] },
+			{
+				table: {
+					widths: ['*', 60],
+					body: [
+						[th('Outcome'), th('Dwellings', true)],
+						...Object.entries(summary.byState).map(([k, v]) => [
+							ITEM_STATE_LABELS[k as keyof typeof ITEM_STATE_LABELS],
+							num(v)
+						]),
+						['Resubmissions', num(summary.resubmissions)]
+					]
+				},
+				layout: 'lightHorizontalLines'
+			},
+			{ text: 'Flags by kind', bold: true, fontSize: 11, margin: [0, 10, 0, 2] },
+			summary.flagsByCode.length
+				? {
+						table: {
+							widths: ['*', 40, 40, 40, 50],
+							body: [
+								[
+									th('Flag'),
+									th(SEVERITY_LABELS.high, true),
+									th(SEVERITY_LABELS.medium, true),
+									th(SEVERITY_LABELS.low, true),
+									th('Dwellings', true)
+								],
+								...summary.flagsByCode.map((f) => [
+									f.label,
+									num(f.high),
+									num(f.medium),
+									num(f.low),
+									num(f.dwellings)
+								])
+							]
+						},
+						layout: 'lightHorizontalLines'
+					}
+				: { text: 'No flags.' },
+			{ text: 'Per assessor', bold: true, fontSize: 11, margin: [0, 10, 0, 2] },
+			{
+				table: {
+					widths: ['*', 42, 42, 42, 42, 42, 42, 42],
+					body: [
+						[
+							th('Assessor'),
+							th('Dwellings', true),
+							th('Flagged', true),
+							th('Accepted', true),
+							th('Advice', true),
+							th('Returned', true),
+							th('Open', true),
+							th('Resub.', true)
+						],
+						...summary.perAssessor.map((a) => [
+							a.name,
+							num(a.dwellings),
+							num(a.flagged),
+							num(a.accepted),
+							num(a.advice),
+							num(a.returned),
+							num(a.awaiting),
+							num(a.resubmissions)
+						])
+					]
+				},
+				layout: 'lightHorizontalLines'
+			},
+			{
+				text: 'U-values by element kind against the limits',
+				bold: true,
+				fontSize: 11,
+				margin: [0, 10, 0, 2]
+			},
+			summary.uByKind.length
+				? { svg: uChartSvg(summary.uByKind, { width: 515, height: 210, font: FONT }), width: 515 }
+				: { text: 'No recomputed U-values yet.' },
+			{
+				text: 'Dots: recomputed U of each element (revisions the assessor used). Squares: over the limit. Dashed line: the limit of the limit table in force.',
+				fontSize: 7.5,
+				color: '#5b554c'
+			},
+			{ text: 'Dwellings', bold: true, fontSize: 11, margin: [0, 10, 0, 2], pageBreak: 'before' },
+			{
+				table: {
+					headerRows: 1,
+					widths: [60, 70, 30, '*', 70, 55],
+					body: [
+						[
+							th('Dwelling'),
+							th('Assessor'),
+							th('Flags', true),
+							th('Flag kinds and comment'),
+							th('Outcome'),
+							th('Decided')
+						],
+						...items.map((i) => [
+							i.reference,
+							i.assessorName ?? '—',
+							num(i.flags.length),
+							{
+								stack: [
+									{ text: [...new Set(i.flags.map((f) => FLAG_LABELS[f.code]))].join('; ') || '—' },
+									...(i.comment ? [{ text: i.comment, italics: true }] : [])
+								]
+							},
+							ITEM_STATE_LABELS[i.state] + (i.resubmissions ? ` (resubmitted ${i.resubmissions}×)` : ''),
+							i.decidedAt ? `${i.decidedAt.slice(0, 10)}\n${i.decidedByName ?? ''}` : '—'
+						])
+					]
+				},
+				layout: 'lightHorizontalLines',
+				fontSize: 8
+			},
+			{ text: 'Cautions', bold: true, fontSize: 10, margin: [0, 12, 0, 2] },
+			{ ul: [...CAUTIONS], fontSize: 7.5, color: '#5b554c' },
+			{
+				text: "Every decision, comment, flag and recompute behind this report is kept in the organisation's append-only activity log.",
+				fontSize: 7.5,
+				color: '#5b554c',
+				margin: [0, 4, 0, 0]
+			}
+		]
+	};
+	const buf = await pdfmake.createPdf(doc).getBuffer();
+	return Buffer.from(buf);
+}
