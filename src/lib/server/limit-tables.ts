@@ -193,6 +193,20 @@ export async function deleteLimitTable(member: Member, id: string): Promise<bool
 	});
 }
 
+/** Dwellings that name the table (not those that fall back to it as the default), first 50 by reference. */
+export async function listDwellingsNamingLimitTable(organisationId: string, id: string) {
+	const rows = await db('dwellings')
+		.where({ organisation_id: organisationId, limit_table_id: id })
+		.orderBy('reference')
+		.limit(50)
+		.select('id', 'reference', 'address');
+	return rows.map((r) => ({
+		id: r.id as string,
+		reference: r.reference as string,
+		address: r.address as string
+	}));
+}
+
 /** The maximum U for an element kind in a table, or null when the table names none. */
 export function limitFor(table: Pick<LimitTable, 'limits'> | null, kind: ElementKind): number | null {
 	const v = table?.limits[kind];

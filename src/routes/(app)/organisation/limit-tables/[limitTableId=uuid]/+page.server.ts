@@ -1,0 +1,56 @@
+import { error, fail, redirect } from '@sveltejs/kit';
+import { requireMember, requireRole } from '$lib/server/guard';
+import {
+	deleteLimitTable,
+	getLimitTable,
+	listDwellingsNamingLimitTable,
+	setDefaultLimitTable,
+	updateLimitTable
+} from '$lib/server/limit-tables';
+import { limitTableInputSchema } from '$lib/climates/schema';
+import { formErrors, limitTableFormValues, limitTableFromForm } from '$lib/climates/form';
+import { ConflictError } from '$lib/climates/errors';
+
+const NOT_FOUND = 'No such limit table in your organisation.';
+
+export const load = async (event) => {
+	const member = requireMember(event);
+	const table = await getLimitTable(member.organisationId, event.params.limitTableId);
+	if (!table) error(404, NOT_FOUND);
+	const dwellings = await listDwellingsNamingLimitTable(member.organisationId, table.id);
+	return { table, dwellings, created: event.url.searchParams.has('created') };
+};
+
+export const actions = {
+	update: async function update(event) {
+		const member = requireRole(event, 'admin');
+		const fd = await event.request.formData();
+		const values = limitTableFormValues(fd);
+		const input = limitTableInputSchema.safeParse(limitTableFromForm(fd));
+		if (!input.success) return fail(400, { values, errors: formErrors(input.error) });
+		try {
+			if (!(await updateLimitTable(member, event.params.limitTableId, input.data))) error(404, NOT_FOUND);
+		} catch (e) {
+			if (e instanceof ConflictError) {
+				return fail(409, { values, errors: { name: e.message } as Record<string, string> });
+			}
+			throw e;
+		}
+		return { done: 'Limit table saved.' };
+	},
+	default: async function makeDefault(event) {
+		const member = requireRole(event, 'admin');
+		if (!(await setDefaultLimitTable(member, event.params.limitTableId))) error(404, NOT_FOUND);
+		return { done: "This is now the organisation's default limit table." };
+	},
+	delete: async function remove(event) {
+		const member = requireRole(event, 'admin');
+		try {
+			if (!(await deleteLimitTable(member, event.params.limitTableId))) error(404, NOT_FOUND);
+		} catch (e) {
+			if (e instanceof ConflictError) return fail(409, { refused: e.message });
+			throw e;
+		}
+		redirect(303, '/organisation/limit-tables');
+	}
+};
