@@ -231,6 +231,7 @@ async function linkToLibrary(trx, organisationId, code, layer) {
 			'r.sd'
 		);
 	if (!m) return layer;
+	/** @type {Record<string, unknown>} */
 	const linked = {
 		...layer,
 		materialId: m.material_id,
