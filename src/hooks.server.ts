@@ -6,6 +6,7 @@ import { getMembershipForUser } from '$lib/server/members';
 import { startWorkers } from '$lib/server/workers';
 // Background workers register themselves when their module is imported (one line each, below).
 import '$lib/server/audit/worker';
+import '$lib/server/outbox';
 
 /** Who is asking: the signed-in user and their organisation and role, on every request. */
 const identify: Handle = async ({ event, resolve }) => {

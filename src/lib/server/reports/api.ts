@@ -1,0 +1,64 @@
+/** Request schemas and replies shared by the report pages and the JSON API. */
+import { json, error } from '@sveltejs/kit';
+import { z } from 'zod';
+import { setting } from '../config';
+import { ReportError } from '../reports';
+import type { Role } from '$lib/roles';
+
+/** Who may issue and e-mail reports; every member may read them. */
+export const ISSUE_ROLES: Role[] = ['assessor', 'admin'];
+
+const uuid = (what: string) =>
+	z.uuid({ error: (iss) => (iss.input === undefined ? 'is required' : `must be the id of ${what}`) });
+
+export const issueSchema = z.object({
+	dwellingId: uuid('a dwelling'),
+	elementId: uuid('an element of the dwelling').nullish()
+});
+
+export const emailSchema = z.object({
+	to: z
+		.string({ error: 'is required' })
+		.trim()
+		.min(1, 'is required')
+		.max(254, 'is too long')
+		.pipe(z.email({ error: 'must be an e-mail address, e.g. client@example.com' })),
+	message: z.string({ error: 'must be text' }).max(2000, 'must be at most 2000 characters').optional()
+});
+
+/** Issues of a zod error as `{ path, message }`. */
+export function zodIssues(e: z.ZodError) {
+	return e.issues.map((i) => ({ path: i.path.map(String).join('.') || '(body)', message: i.message }));
+}
+
+/** The origin printed in verification URLs: the configured ORIGIN, else the request's. */
+export function publicOrigin(url: URL): string {
+	return (setting('ORIGIN') ?? url.origin).replace(/\/$/, '');
+}
+
+/** Expected refusals as JSON; anything else goes on to handleError (500 with an error id). */
+export function apiFailure(e: unknown): Response {
+	if (e instanceof ReportError) {
+		return json({ message: e.message, issues: e.issues }, { status: e.status });
+	}
+	throw e;
+}
+
+export async function readJsonBody(request: Request): Promise<unknown> {
+	try {
+		return await request.json();
+	} catch {
+		error(400, 'The request body must be JSON.');
+	}
+}
+
+export function pdfResponse(pdf: Buffer, filename: string, disposition: 'inline' | 'attachment' = 'inline') {
+	return new Response(new Uint8Array(pdf), {
+		headers: {
+			'content-type': 'application/pdf',
+			'content-length': String(pdf.length),
+			'content-disposition': `${disposition}; filename="${filename}"`,
+			'cache-control': 'private, no-store'
+		}
+	});
+}

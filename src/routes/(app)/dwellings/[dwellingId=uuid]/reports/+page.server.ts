@@ -1,0 +1,160 @@
+import { error, fail } from '@sveltejs/kit';
+import { z } from 'zod';
+import { requireMember, requireRole } from '$lib/server/guard';
+import { db } from '$lib/server/db';
+import {
+	buildSnapshot,
+	emailReport,
+	issueReport,
+	listMailForDwelling,
+	listReportsForDwelling,
+	ReportError
+} from '$lib/server/reports';
+import { requeueMail, kickOutbox } from '$lib/server/outbox';
+import { emailSchema, ISSUE_ROLES, publicOrigin } from '$lib/server/reports/api';
+import { moistureWord, passWord } from '$lib/server/reports/document';
+
+async function dwellingOf(organisationId: string, dwellingId: string) {
+	const d = await db('dwellings')
+		.where({ id: dwellingId, organisation_id: organisationId })
+		.first('id', 'reference', 'address', 'status', 'stage', 'client_name', 'client_email');
+	if (!d) error(404, 'No such dwelling.');
+	return d;
+}
+
+export const load = async (event) => {
+	const member = requireMember(event);
+	const d = await dwellingOf(member.organisationId, event.params.dwellingId);
+	// What the report would say now: every element recomputed, problems named (nothing rendered).
+	const { snapshot, problems } = await buildSnapshot(
+		member.organisationId,
+		d.id,
+		null,
+		{
+			scope: 'dwelling',
+			draft: true,
+			number: 'DRAFT',
+			revision: 0,
+			verificationCode: null,
+			verifyUrl: null,
+			supersedes: null,
+			issuedBy: { id: member.user.id, name: member.user.name ?? member.user.email }
+		},
+		new Date().toISOString()
+	);
+	const [reports, mail] = await Promise.all([
+		listReportsForDwelling(member.organisationId, d.id),
+		listMailForDwelling(member.organisationId, d.id)
+	]);
+	return {
+		dwelling: {
+			id: d.id as string,
+			reference: d.reference as string,
+			address: d.address as string,
+			status: d.status as string,
+			stage: d.stage as string,
+			clientName: (d.client_name as string) ?? null,
+			clientEmail: (d.client_email as string) ?? null
+		},
+		elements: snapshot.elements.map((e) => ({
+			id: e.id,
+			name: e.name,
+			kind: e.kind,
+			area: e.area,
+			u: e.u,
+			limit: e.limit,
+			pass: e.pass,
+			result: passWord(e.pass),
+			moisture: moistureWord(e),
+			calculable: e.result !== null || e.u !== null
+		})),
+		limitTable: snapshot.limitTable ? `${snapshot.limitTable.name}, ${snapshot.limitTable.edition}` : null,
+		assessor: snapshot.dwelling.assessor,
+		problems,
+		reports,
+		mail,
+		canIssue: ISSUE_ROLES.includes(member.role)
+	};
+};
+
+const issueForm = z.object({ elementId: z.union([z.uuid(), z.literal('')]).optional() });
+const emailForm = emailSchema.extend({ reportId: z.uuid({ error: 'Choose a report.' }) });
+const retryForm = z.object({ mailId: z.uuid() });
+
+export const actions = {
+	issue: async function issue(event) {
+		const member = requireRole(event, ...ISSUE_ROLES);
+		const parsed = issueForm.safeParse(Object.fromEntries(await event.request.formData()));
+		if (!parsed.success)
+			return fail(400, { issueError: 'Choose the dwelling or one of its elements.', issues: [] as string[] });
+		const elementId = parsed.data.elementId || null;
+		try {
+			const r = await issueReport(
+				{ userId: member.user.id, organisationId: member.organisationId },
+				{ dwellingId: event.params.dwellingId, elementId },
+				publicOrigin(event.url)
+			);
+			return { done: `Issued report ${r.number}, revision ${r.revision}.`, issuedId: r.id };
+		} catch (e) {
+			if (e instanceof ReportError) {
+				if (e.status === 404) error(404, e.message);
+				return fail(e.status, { issueError: e.message, issues: e.issues });
+			}
+			throw e;
+		}
+	},
+	email: async function email(event) {
+		const member = requireRole(event, ...ISSUE_ROLES);
+		const raw = Object.fromEntries(await event.request.formData());
+		const parsed = emailForm.safeParse({
+			reportId: raw.reportId,
+			to: raw.to,
+			message: typeof raw.message === 'string' && raw.message.trim() ? raw.message : undefined
+		});
+		if (!parsed.success) {
+			const fields: Record<string, string> = {};
+			for (const i of parsed.error.issues) fields[String(i.path[0] ?? 'to')] ??= i.message;
+			return fail(400, {
+				emailReportId: String(raw.reportId ?? ''),
+				emailErrors: fields,
+				to: String(raw.to ?? '')
+			});
+		}
+		// The report must belong to this dwelling (and organisation).
+		const owned = await db('reports')
+			.where({
+				id: parsed.data.reportId,
+				organisation_id: member.organisationId,
+				dwelling_id: event.params.dwellingId
+			})
+			.first('id');
+		if (!owned) error(404, 'No such report.');
+		try {
+			const m = await emailReport(
+				{ userId: member.user.id, organisationId: member.organisationId },
+				parsed.data.reportId,
+				{ to: parsed.data.to, message: parsed.data.message }
+			);
+			return { done: `E-mail to ${m.to} queued; it is sent in a few seconds.` };
+		} catch (e) {
+			if (e instanceof ReportError) return fail(e.status, { issueError: e.message, issues: e.issues });
+			throw e;
+		}
+	},
+	retry: async function retry(event) {
+		const member = requireRole(event, ...ISSUE_ROLES);
+		const parsed = retryForm.safeParse(Object.fromEntries(await event.request.formData()));
+		if (!parsed.success) return fail(400, { issueError: 'Choose a message.', issues: [] as string[] });
+		const mail = await db('mail_outbox')
+			.where({
+				id: parsed.data.mailId,
+				organisation_id: member.organisationId,
+				dwelling_id: event.params.dwellingId
+			})
+			.first('id');
+		if (!mail || !(await requeueMail(member.organisationId, parsed.data.mailId)))
+			error(404, 'No such message.');
+		kickOutbox();
+		return { done: 'The message is queued again.' };
+	}
+};
