@@ -1,0 +1,65 @@
+import { error, fail } from '@sveltejs/kit';
+import { requireMember, requireRole } from '$lib/server/guard';
+import { AuditError, decideItem, getItem, listItems, type ItemRow } from '$lib/server/audits';
+import { decisionSchema } from '$lib/audit/schemas';
+
+const rank: Record<string, number> = {
+	resubmitted: 0,
+	'awaiting-review': 1,
+	returned: 2,
+	'accepted-with-advice': 3,
+	accepted: 4
+};
+const weight = (i: ItemRow) =>
+	i.flags.reduce((s, f) => s + (f.severity === 'high' ? 100 : f.severity === 'medium' ? 10 : 1), 0);
+
+/** The review queue: open dwellings first, the most serious flags first within them. */
+function queueOrder(items: ItemRow[]) {
+	return items
+		.slice()
+		.sort(
+			(a, b) =>
+				rank[a.state] - rank[b.state] || weight(b) - weight(a) || a.reference.localeCompare(b.reference)
+		);
+}
+
+export async function load(event) {
+	const member = requireMember(event);
+	const item = await getItem(member.organisationId, event.params.itemId);
+	if (!item || item.batchId !== event.params.batchId) error(404, 'No such audit item.');
+	const queue = queueOrder(await listItems(member.organisationId, item.batchId));
+	const at = queue.findIndex((q) => q.id === item.id);
+	const nextOpen = queue.find(
+		(q, i) => i !== at && (q.state === 'awaiting-review' || q.state === 'resubmitted')
+	);
+	return {
+		item,
+		position: at + 1,
+		total: queue.length,
+		previousId: at > 0 ? queue[at - 1].id : null,
+		nextId: at >= 0 && at < queue.length - 1 ? queue[at + 1].id : null,
+		nextOpenId: nextOpen?.id ?? null
+	};
+}
+
+export const actions = {
+	decide: async (event) => {
+		const member = requireRole(event, 'supervisor', 'admin');
+		const f = await event.request.formData();
+		const raw = { decision: String(f.get('decision') ?? ''), comment: String(f.get('comment') ?? '') };
+		const parsed = decisionSchema.safeParse(raw);
+		if (!parsed.success) {
+			const errors: Record<string, string> = {};
+			for (const i of parsed.error.issues) errors[i.path.map(String).join('.')] ??= i.message;
+			return fail(400, { values: raw, errors });
+		}
+		try {
+			await decideItem(member, event.params.itemId, parsed.data);
+		} catch (e) {
+			if (e instanceof AuditError)
+				return fail(e.status, { values: raw, errors: { form: e.message } as Record<string, string> });
+			throw e;
+		}
+		return { decided: parsed.data.decision };
+	}
+};

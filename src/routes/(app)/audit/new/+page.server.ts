@@ -1,0 +1,105 @@
+import { fail, redirect } from '@sveltejs/kit';
+import { requireRole } from '$lib/server/guard';
+import { AuditError, createBatch, listAssessors, listProgrammes } from '$lib/server/audits';
+import { enqueueRecompute } from '$lib/server/audit/worker';
+import { parseReferenceFile, parseReferenceText, type ReferenceLine } from '$lib/server/audit/references';
+import { newBatchSchema } from '$lib/audit/schemas';
+import { DWELLING_STATUSES } from '$lib/element-kinds';
+
+export async function load(event) {
+	const member = requireRole(event, 'supervisor', 'admin');
+	const [assessors, programmes] = await Promise.all([
+		listAssessors(member.organisationId),
+		listProgrammes(member.organisationId)
+	]);
+	return { assessors, programmes, statuses: DWELLING_STATUSES };
+}
+
+const text = (f: FormData, k: string) => {
+	const v = f.get(k);
+	return typeof v === 'string' && v.trim() !== '' ? v.trim() : undefined;
+};
+const number = (f: FormData, k: string) => {
+	const v = text(f, k);
+	return v === undefined ? undefined : Number(v.replace(',', '.'));
+};
+
+export const actions = {
+	create: async (event) => {
+		const member = requireRole(event, 'supervisor', 'admin');
+		const f = await event.request.formData();
+		const values = Object.fromEntries([...f.entries()].filter(([, v]) => typeof v === 'string')) as Record<
+			string,
+			string
+		>;
+		const statuses = f.getAll('statuses').filter((s): s is string => typeof s === 'string');
+		const source = text(f, 'source') === 'references' ? 'references' : 'filter';
+		let referenceLines: ReferenceLine[] | undefined;
+		if (source === 'references') {
+			const file = f.get('file');
+			const parsed =
+				file instanceof File && file.size > 0
+					? parseReferenceFile(new Uint8Array(await file.arrayBuffer()))
+					: parseReferenceText(text(f, 'references') ?? '');
+			if (parsed.issues.length) {
+				return fail(400, {
+					values,
+					statuses,
+					message: 'The reference list could not be used; nothing was created.',
+					errors: {},
+					lines: parsed.issues.map((i) => i.message)
+				});
+			}
+			referenceLines = parsed.lines;
+		}
+		const rule = text(f, 'rule') === 'random' ? 'random' : 'all';
+		const raw = {
+			name: text(f, 'name') ?? '',
+			source,
+			filter: {
+				assessorId: text(f, 'assessorId'),
+				issuedFrom: text(f, 'issuedFrom'),
+				issuedTo: text(f, 'issuedTo'),
+				statuses: statuses.length ? statuses : undefined,
+				programme: text(f, 'programme')
+			},
+			references: referenceLines?.map((l) => l.reference),
+			sampling:
+				rule === 'random'
+					? {
+							rule,
+							percent: number(f, 'percent'),
+							minimumPerAssessor: number(f, 'minimumPerAssessor') ?? 0,
+							includeFlagged: f.get('includeFlagged') === 'on'
+						}
+					: { rule, includeFlagged: f.get('includeFlagged') === 'on' },
+			seed: text(f, 'seed')
+		};
+		const parsed = newBatchSchema.safeParse(raw);
+		if (!parsed.success) {
+			const errors: Record<string, string> = {};
+			for (const i of parsed.error.issues) errors[i.path.map(String).join('.')] ??= i.message;
+			return fail(400, { values, statuses, message: 'Check the marked fields.', errors, lines: [] });
+		}
+		let id: string;
+		try {
+			const created = await createBatch(member, { ...parsed.data, referenceLines, references: undefined });
+			id = created.id;
+		} catch (e) {
+			if (e instanceof AuditError) {
+				const errors: Record<string, string> = {};
+				for (const i of e.issues) if (i.line === undefined) errors[i.path] ??= i.message;
+				return fail(e.status, {
+					values,
+					statuses,
+					message: e.message,
+					errors,
+					lines: e.issues.filter((i) => i.line !== undefined).map((i) => i.message)
+				});
+			}
+			throw e;
+		}
+		await enqueueRecompute(member.organisationId, id, member.user.id);
+		redirect(303, `/audit/${id}`);
+	}
+};
