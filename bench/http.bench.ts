@@ -1,0 +1,145 @@
+// HTTP benchmarks on loopback: POST /api/v1/calculate and the dwelling page beside the trivial /healthz,
+// on the same server. Needs BENCH_DATABASE_URL (migrated, demo-seeded) and a build in BENCH_BUILD_DIR (or
+// ./build): `npm run bench -- http` prepares both. 20 connections for 10 s each (autocannon).
+// Targets: /calculate p99 < 50 ms and at least half the trivial route's throughput.
+import { spawn } from 'node:child_process';
+import { createServer } from 'node:net';
+import { randomBytes } from 'node:crypto';
+import knex from 'knex';
+import autocannon from 'autocannon';
+
+const DB_URL = process.env.BENCH_DATABASE_URL;
+if (!DB_URL) {
+	console.log('http bench skipped: set BENCH_DATABASE_URL (npm run bench prepares it)');
+	process.exit(0);
+}
+const BUILD = process.env.BENCH_BUILD_DIR ?? 'build';
+const CONNECTIONS = 20;
+const DURATION = Number(process.env.BENCH_SECONDS ?? 10);
+
+const freePort = () =>
+	new Promise<number>((resolve, reject) => {
+		const s = createServer();
+		s.listen(0, '127.0.0.1', () => {
+			const port = (s.address() as { port: number }).port;
+			s.close(() => resolve(port));
+		});
+		s.on('error', reject);
+	});
+
+const db = knex({ client: 'pg', connection: DB_URL, pool: { min: 0, max: 2 } });
+const user = await db('users').where({ email: 'ben.okafor@northfield-retrofit.example.test' }).first('id');
+if (!user) throw new Error('demo assessor missing: is the bench database seeded?');
+const token = randomBytes(24).toString('hex');
+await db('sessions').insert({
+	userId: user.id,
+	sessionToken: token,
+	expires: new Date(Date.now() + 3600_000)
+});
+const dwelling = await db('dwellings')
+	.where({ organisation_id: '00000000-0000-4000-8000-000000000001' })
+	.orderBy('reference')
+	.first('id', 'reference');
+if (!dwelling) throw new Error('no demo dwelling: is seed 04 in place?');
+
+const port = await freePort();
+const origin = `http://127.0.0.1:${port}`;
+const server = spawn('node', [BUILD], {
+	env: {
+		...process.env,
+		DATABASE_URL: DB_URL,
+		PORT: String(port),
+		HOST: '127.0.0.1',
+		ORIGIN: origin,
+		AUTH_SECRET: process.env.AUTH_SECRET ?? 'bench-secret'
+	},
+	stdio: ['ignore', 'ignore', 'inherit']
+});
+const stop = () => server.kill('SIGTERM');
+process.on('exit', stop);
+for (let i = 0; ; i++) {
+	try {
+		if ((await fetch(`${origin}/healthz`)).ok) break;
+	} catch {
+		/* not up yet */
+	}
+	if (i > 100) throw new Error('server did not start');
+	await new Promise((r) => setTimeout(r, 200));
+}
+
+const cookie = `authjs.session-token=${token}`;
+// A bridged timber-frame wall with a 12-month climate: U, profile, fRsi and the Glaser cycle.
+const climate = [-1, 0, 3, 6, 10, 13, 15, 15, 12, 8, 4, 1].map((t, i) => ({
+	month: i + 1,
+	temperature: t,
+	relativeHumidity: 85
+}));
+const body = JSON.stringify({
+	heatFlow: 'horizontal',
+	layers: [
+		{ name: 'Plasterboard', thicknessMm: 12.5, lambda: 0.21, mu: 10 },
+		{ name: 'Vapour control layer', thicknessMm: 0.2, resistance: 0, sd: 50 },
+		{
+			name: 'Mineral wool between studs',
+			thicknessMm: 140,
+			lambda: 0.035,
+			mu: 1,
+			bridge: { lambda: 0.13, fraction: 0.15, mu: 50 }
+		},
+		{ name: 'OSB', thicknessMm: 9, lambda: 0.13, mu: 50 },
+		{ name: 'Wood fibre board', thicknessMm: 60, lambda: 0.04, mu: 5 },
+		{ name: 'Render', thicknessMm: 8, lambda: 1, mu: 10 }
+	],
+	internal: { temperature: 20, humidityClass: 3 },
+	climate
+});
+const check = await fetch(`${origin}/api/v1/calculate`, {
+	method: 'POST',
+	headers: { cookie, 'content-type': 'application/json' },
+	body
+});
+if (check.status !== 200)
+	throw new Error(`/api/v1/calculate answered ${check.status}: ${await check.text()}`);
+const page = await fetch(`${origin}/dwellings/${dwelling.id}`, { headers: { cookie } });
+if (page.status !== 200) throw new Error(`dwelling page answered ${page.status}`);
+
+type Run = { name: string; rps: number; p50: number; p99: number; non2xx: number };
+async function run(name: string, opts: Partial<autocannon.Options>): Promise<Run> {
+	const r = await autocannon({ url: origin, connections: CONNECTIONS, duration: DURATION, ...opts });
+	return {
+		name,
+		rps: r.requests.average,
+		p50: r.latency.p50,
+		p99: r.latency.p99,
+		non2xx: r.non2xx + r.errors
+	};
+}
+const trivial = await run('GET /healthz (floor)', { path: '/healthz' });
+const calc = await run('POST /api/v1/calculate', {
+	path: '/api/v1/calculate',
+	method: 'POST',
+	headers: { cookie, 'content-type': 'application/json' },
+	body
+});
+const dw = await run(`GET /dwellings/:id (${dwelling.reference})`, {
+	path: `/dwellings/${dwelling.id}`,
+	headers: { cookie }
+});
+
+console.log(`${CONNECTIONS} connections, ${DURATION} s each, loopback, one server`);
+for (const r of [trivial, calc, dw]) {
+	console.log(
+		`${r.name.padEnd(34)} ${r.rps.toFixed(0).padStart(6)} req/s   p50 ${String(r.p50).padStart(4)} ms   p99 ${String(r.p99).padStart(4)} ms   non-2xx/errors ${r.non2xx}`
+	);
+}
+const ratio = calc.rps / trivial.rps;
+console.log(
+	`calculate / trivial throughput ratio ${ratio.toFixed(2)} (target ≥ 0.50): ${ratio >= 0.5 ? 'met' : 'NOT met'}`
+);
+console.log(`calculate p99 ${calc.p99} ms (target < 50 ms): ${calc.p99 < 50 ? 'met' : 'NOT met'}`);
+console.log(`dwelling page / trivial throughput ratio ${(dw.rps / trivial.rps).toFixed(2)} (no target)`);
+
+await db('sessions').where({ sessionToken: token }).delete();
+await db.destroy();
+stop();
+process.exit(0);

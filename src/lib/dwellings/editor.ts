@@ -1,0 +1,204 @@
+/**
+ * Pure helpers of the build-up editor: rows as the person types them (text, so "0,035" and half-typed
+ * numbers survive) to stored layers and back, and rows pasted from a spreadsheet.
+ */
+import Papa from 'papaparse';
+import type { StoredBuildUp, StoredLayer } from '$lib/element-input';
+
+export type LayerMode = 'lambda' | 'resistance' | 'air';
+export type AirKind = 'unventilated' | 'slightly-ventilated' | 'well-ventilated';
+
+export type EditRow = {
+	key: number;
+	name: string;
+	thickness: string;
+	mode: LayerMode;
+	lambda: string;
+	resistance: string;
+	air: AirKind;
+	opening: string;
+	vapour: 'mu' | 'sd';
+	mu: string;
+	sd: string;
+	bridged: boolean;
+	bridgeBy: 'fraction' | 'geometry';
+	bridgeName: string;
+	bridgeLambda: string;
+	bridgeFraction: string;
+	bridgeWidth: string;
+	bridgeCentres: string;
+	bridgeMu: string;
+	materialId?: string;
+	materialRevisionId?: string;
+	materialCode?: string;
+};
+
+let nextKey = 1;
+export const newKey = () => nextKey++;
+
+export function blankRow(over: Partial<EditRow> = {}): EditRow {
+	return {
+		key: newKey(),
+		name: '',
+		thickness: '',
+		mode: 'lambda',
+		lambda: '',
+		resistance: '',
+		air: 'unventilated',
+		opening: '',
+		vapour: 'mu',
+		mu: '',
+		sd: '',
+		bridged: false,
+		bridgeBy: 'fraction',
+		bridgeName: '',
+		bridgeLambda: '',
+		bridgeFraction: '',
+		bridgeWidth: '',
+		bridgeCentres: '',
+		bridgeMu: '',
+		...over
+	};
+}
+
+const str = (v: number | undefined | null) => (v === undefined || v === null ? '' : String(v));
+
+/**
+ * A number from what was typed: '' is absent; a decimal comma is accepted; anything else that is not
+ * a number is passed on as the text, so the schema names the field and quotes the text.
+ */
+export function parseNumber(text: string): number | string | undefined {
+	const t = text.trim().replace(/\s+/g, '');
+	if (t === '') return undefined;
+	const n = Number(t.replace(',', '.'));
+	return Number.isFinite(n) ? n : text.trim();
+}
+
+export function rowFromLayer(l: StoredLayer): EditRow {
+	const mode: LayerMode = l.air ? 'air' : l.resistance !== undefined ? 'resistance' : 'lambda';
+	return blankRow({
+		name: l.name,
+		thickness: str(l.thicknessMm),
+		mode,
+		lambda: str(l.lambda),
+		resistance: str(l.resistance),
+		air: l.air ?? 'unventilated',
+		opening: str(l.openingAreaMm2),
+		vapour: l.sd !== undefined ? 'sd' : 'mu',
+		mu: str(l.mu),
+		sd: str(l.sd),
+		bridged: Boolean(l.bridge),
+		bridgeBy: l.bridgeGeometry ? 'geometry' : 'fraction',
+		bridgeName: l.bridge?.name ?? '',
+		bridgeLambda: str(l.bridge?.lambda),
+		bridgeFraction: l.bridgeGeometry ? '' : str(l.bridge?.fraction),
+		bridgeWidth: str(l.bridgeGeometry?.widthMm),
+		bridgeCentres: str(l.bridgeGeometry?.centresMm),
+		bridgeMu: str(l.bridge?.mu),
+		materialId: l.materialId,
+		materialRevisionId: l.materialRevisionId,
+		materialCode: l.materialCode
+	});
+}
+
+/** The stored layer of a row (values that do not parse stay as text for the schema to report). */
+export function layerFromRow(r: EditRow): StoredLayer {
+	const layer: Record<string, unknown> = {
+		name: r.name.trim() || 'Layer',
+		thicknessMm: parseNumber(r.thickness)
+	};
+	if (r.mode === 'lambda') layer.lambda = parseNumber(r.lambda);
+	else if (r.mode === 'resistance') layer.resistance = parseNumber(r.resistance);
+	else {
+		layer.air = r.air;
+		layer.openingAreaMm2 = parseNumber(r.opening);
+		const rFixed = parseNumber(r.resistance);
+		if (rFixed !== undefined) layer.resistance = rFixed;
+	}
+	if (r.vapour === 'mu') layer.mu = parseNumber(r.mu);
+	else layer.sd = parseNumber(r.sd);
+	if (r.bridged) {
+		const bridge: Record<string, unknown> = { lambda: parseNumber(r.bridgeLambda) };
+		if (r.bridgeName.trim()) bridge.name = r.bridgeName.trim();
+		const mu = parseNumber(r.bridgeMu);
+		if (mu !== undefined) bridge.mu = mu;
+		if (r.bridgeBy === 'fraction') bridge.fraction = parseNumber(r.bridgeFraction);
+		else {
+			const w = parseNumber(r.bridgeWidth);
+			const c = parseNumber(r.bridgeCentres);
+			layer.bridgeGeometry = { widthMm: w, centresMm: c };
+			if (typeof w === 'number' && typeof c === 'number' && c > 0) bridge.fraction = w / c;
+			else bridge.fraction = undefined;
+		}
+		layer.bridge = bridge;
+	}
+	if (r.materialId) layer.materialId = r.materialId;
+	if (r.materialRevisionId) layer.materialRevisionId = r.materialRevisionId;
+	if (r.materialCode) layer.materialCode = r.materialCode;
+	for (const k of Object.keys(layer)) if (layer[k] === undefined) delete layer[k];
+	return layer as StoredLayer;
+}
+
+export function buildUpFromRows(rows: EditRow[], rsi?: string, rse?: string): StoredBuildUp {
+	const b: Record<string, unknown> = { layers: rows.map(layerFromRow) };
+	const a = rsi === undefined ? undefined : parseNumber(rsi);
+	const e = rse === undefined ? undefined : parseNumber(rse);
+	if (a !== undefined) b.rsi = a;
+	if (e !== undefined) b.rse = e;
+	return b as StoredBuildUp;
+}
+
+/** Issues grouped by path for showing next to the field: `buildUp.layers.2.thicknessMm` → that cell. */
+export function issuesByPath(issues: { path: string; message: string }[]): Record<string, string> {
+	const out: Record<string, string> = {};
+	for (const i of issues) {
+		const p = i.path.replace(/^buildUp\./, '');
+		out[p] ??= i.message;
+	}
+	return out;
+}
+
+export type PasteResult = { rows: EditRow[]; errors: string[] };
+
+/**
+ * Rows copied from a spreadsheet (tab-separated, or commas/semicolons): name, thickness in mm, λ in
+ * W/(m·K), then optionally μ. A first row whose thickness is not a number is taken as a header.
+ * Each bad line is named with its number and why; good lines are still returned.
+ */
+export function parsePastedRows(text: string): PasteResult {
+	const parsed = Papa.parse<string[]>(text.trim(), { delimiter: '', skipEmptyLines: 'greedy' });
+	const rows: EditRow[] = [];
+	const errors: string[] = [];
+	parsed.data.forEach((cells, i) => {
+		const line = i + 1;
+		const c = cells.map((x) => (x ?? '').trim());
+		if (c.length < 3) {
+			errors.push(
+				`line ${line}: expected name, thickness (mm), λ (W/(m·K)) and optionally μ; found ${c.length} column${c.length === 1 ? '' : 's'}`
+			);
+			return;
+		}
+		const d = parseNumber(c[1]);
+		const lambda = parseNumber(c[2]);
+		const mu = c[3] !== undefined ? parseNumber(c[3]) : undefined;
+		if (i === 0 && typeof d !== 'number') return; // header row
+		if (!c[0]) errors.push(`line ${line}: the layer name is empty`);
+		else if (typeof d !== 'number' || d <= 0)
+			errors.push(`line ${line}: thickness “${c[1]}” is not a number of mm above 0`);
+		else if (typeof lambda !== 'number' || lambda <= 0)
+			errors.push(`line ${line}: λ “${c[2]}” is not a number above 0`);
+		else if (mu !== undefined && (typeof mu !== 'number' || mu < 1))
+			errors.push(`line ${line}: μ “${c[3]}” is not a number of at least 1`);
+		else
+			rows.push(
+				blankRow({
+					name: c[0],
+					thickness: String(d),
+					lambda: String(lambda),
+					mu: mu === undefined ? '' : String(mu)
+				})
+			);
+	});
+	for (const e of parsed.errors) errors.push(`line ${(e.row ?? 0) + 1}: ${e.message}`);
+	return { rows, errors };
+}

@@ -1,0 +1,249 @@
+/**
+ * zod schemas of dwellings and elements, shared by the pages, the JSON API, the server modules and the
+ * OpenAPI document. Physics fields reuse the engine's own schemas so a layer is checked the same way
+ * everywhere; element-level checks (climate needs internal conditions, μ for the condensation check…)
+ * come from the engine's `parseElementInput` on the composed input (see `validateElement`).
+ */
+import { z } from 'zod';
+import { DWELLING_STATUSES, ELEMENT_KINDS, GIVEN_U_KINDS, type ElementKind } from '$lib/element-kinds';
+import { internalSchema, layerSchema, parseElementInput } from '$lib/physics';
+import { toElementInput, type ClimateMonthValues, type StoredBuildUp } from '$lib/element-input';
+
+const text = (max: number, what = 'text') =>
+	z
+		.string({ error: `must be ${what}` })
+		.trim()
+		.max(max, `must be at most ${max} characters`);
+const optionalText = (max: number) =>
+	z
+		.string({ error: 'must be text' })
+		.trim()
+		.max(max, `must be at most ${max} characters`)
+		.nullish()
+		.transform((v) => (v ? v : null));
+const uuidOrNull = z
+	.union([z.uuid({ error: 'must be an id' }), z.literal(''), z.null()])
+	.optional()
+	.transform((v) => (v ? v : null));
+
+export const STAGES = ['design', 'as-built'] as const;
+export type Stage = (typeof STAGES)[number];
+export const STAGE_LABELS: Record<Stage, string> = { design: 'Design', 'as-built': 'As built' };
+
+export const elementKindSchema = z.enum(ELEMENT_KINDS, {
+	error: `must be one of ${ELEMENT_KINDS.join(', ')}`
+});
+export const heatFlowSchema = z.enum(['upward', 'horizontal', 'downward'], {
+	error: 'must be upward, horizontal or downward'
+});
+export const versionSchema = z
+	.number({ error: 'is required: the version you loaded, for the check that nobody changed it since' })
+	.int('must be a whole number')
+	.min(1, 'must be ≥ 1');
+
+/* ------------------------------------------------------------ dwellings */
+
+export const dwellingFieldsSchema = z.object({
+	reference: text(60).min(1, 'is required'),
+	address: text(300).default(''),
+	programme: optionalText(120),
+	clientName: optionalText(160),
+	clientEmail: z
+		.union([z.email({ error: 'must be an e-mail address' }), z.literal(''), z.null()])
+		.optional()
+		.transform((v) => (v ? v.toLowerCase() : null)),
+	assessorId: uuidOrNull,
+	stage: z.enum(STAGES, { error: 'must be design or as-built' }).default('design'),
+	limitTableId: uuidOrNull,
+	climateId: uuidOrNull
+});
+export type DwellingFields = z.output<typeof dwellingFieldsSchema>;
+export type DwellingFieldsInput = z.input<typeof dwellingFieldsSchema>;
+
+export const dwellingUpdateSchema = dwellingFieldsSchema.partial().extend({ version: versionSchema });
+export type DwellingUpdate = z.output<typeof dwellingUpdateSchema>;
+
+export const dwellingCopySchema = z.object({
+	reference: text(60).min(1, 'is required'),
+	address: text(300).optional()
+});
+
+export const DWELLING_SORTS = ['reference', 'address', 'status', 'updated', 'assessor'] as const;
+export const dwellingListQuerySchema = z.object({
+	q: z.string().trim().max(100, 'must be at most 100 characters').optional().default(''),
+	status: z
+		.enum([...DWELLING_STATUSES, 'active', 'all', ''], {
+			error: `must be one of ${DWELLING_STATUSES.join(', ')}, active (all but archived) or all`
+		})
+		.optional()
+		.default('active'),
+	assessorId: z
+		.union([z.uuid({ error: 'must be an id' }), z.literal('')])
+		.optional()
+		.default(''),
+	sort: z.enum(DWELLING_SORTS, { error: `must be one of ${DWELLING_SORTS.join(', ')}` }).default('updated'),
+	dir: z.enum(['asc', 'desc'], { error: 'must be asc or desc' }).default('desc'),
+	page: z.coerce
+		.number({ error: 'must be a number' })
+		.int('must be a whole number')
+		.min(1, 'must be ≥ 1')
+		.default(1),
+	pageSize: z.coerce
+		.number({ error: 'must be a number' })
+		.int('must be a whole number')
+		.min(1, 'must be ≥ 1')
+		.max(100, 'must be ≤ 100')
+		.default(25)
+});
+export type DwellingListQuery = z.output<typeof dwellingListQuerySchema>;
+
+/* ------------------------------------------------------------ elements */
+
+export const storedLayerSchema = layerSchema.safeExtend({
+	materialId: z.uuid({ error: 'must be a material id' }).optional(),
+	materialRevisionId: z.uuid({ error: 'must be a material revision id' }).optional(),
+	materialCode: z.string().max(60).optional(),
+	bridgeGeometry: z
+		.object({
+			widthMm: z.number({ error: 'must be a number' }).gt(0, 'must be > 0'),
+			centresMm: z.number({ error: 'must be a number' }).gt(0, 'must be > 0')
+		})
+		.optional()
+});
+
+export const storedBuildUpSchema = z.object({
+	rsi: z
+		.number({ error: 'must be a number' })
+		.gte(0, 'must be ≥ 0')
+		.lte(10, 'must be ≤ 10 m²·K/W')
+		.optional(),
+	rse: z
+		.number({ error: 'must be a number' })
+		.gte(0, 'must be ≥ 0')
+		.lte(10, 'must be ≤ 10 m²·K/W')
+		.optional(),
+	layers: z
+		.array(storedLayerSchema, { error: 'must be a list of layers' })
+		.min(1, 'at least one layer is required')
+		.max(40, 'at most 40 layers')
+});
+
+export const elementFieldsSchema = z.object({
+	name: text(120).min(1, 'is required'),
+	kind: elementKindSchema,
+	area: z
+		.number({ error: 'must be a number in m²' })
+		.gt(0, 'must be > 0 m²')
+		.lte(100000, 'must be ≤ 100 000 m²'),
+	heatFlow: heatFlowSchema.optional(),
+	position: z.number().int().min(0).optional(),
+	buildUp: storedBuildUpSchema.nullish(),
+	givenU: z
+		.number({ error: 'must be a number in W/(m²·K)' })
+		.gt(0, 'must be > 0 W/(m²·K)')
+		.lte(10, 'must be ≤ 10 W/(m²·K)')
+		.nullish(),
+	givenUSource: optionalText(300),
+	climateId: uuidOrNull,
+	internal: internalSchema.nullish()
+});
+export type ElementFields = z.output<typeof elementFieldsSchema>;
+export type ElementFieldsInput = z.input<typeof elementFieldsSchema>;
+
+export const elementUpdateSchema = elementFieldsSchema.extend({ version: versionSchema });
+
+/** Common insulation board and roll thicknesses, mm, for "thickness to meet the limit". */
+export const PRODUCT_THICKNESSES_MM = [
+	20, 25, 30, 40, 50, 60, 70, 75, 80, 90, 100, 110, 120, 125, 130, 140, 150, 160, 170, 180, 200, 220, 240,
+	250, 260, 280, 300, 320, 350, 400
+] as const; // common practice, no source
+
+export const isGivenU = (kind: ElementKind) => GIVEN_U_KINDS.includes(kind);
+
+export type FieldIssue = { path: string; message: string };
+
+/**
+ * Put the stored form in order before validation: bridging given by member width and centres gets
+ * its fraction (contracts: both are stored); empty optional numbers are dropped.
+ */
+export function normaliseBuildUp(buildUp: StoredBuildUp): StoredBuildUp {
+	return {
+		...buildUp,
+		layers: buildUp.layers.map((l) => {
+			const g = l.bridgeGeometry;
+			if (l.bridge && g && g.centresMm > 0)
+				return { ...l, bridge: { ...l.bridge, fraction: g.widthMm / g.centresMm } };
+			return l;
+		})
+	};
+}
+
+/**
+ * Full validation of an element as entered: its fields, then the engine's checks on the input it makes
+ * with the given climate. Paths name the element's own fields (`buildUp.layers.2.thicknessMm`).
+ */
+export function validateElement(
+	raw: unknown,
+	climateMonths: ClimateMonthValues[] | null
+): { ok: true; data: ElementFields } | { ok: false; issues: FieldIssue[] } {
+	const parsed = elementFieldsSchema.safeParse(raw);
+	if (!parsed.success) {
+		return {
+			ok: false,
+			issues: parsed.error.issues.map((i) => ({
+				path: i.path.map(String).join('.') || '(body)',
+				message: i.message
+			}))
+		};
+	}
+	const data = parsed.data;
+	const issues: FieldIssue[] = [];
+	if (isGivenU(data.kind)) {
+		if (data.givenU == null)
+			issues.push({ path: 'givenU', message: 'is required for a window or door (W/(m²·K))' });
+		if (!data.givenUSource)
+			issues.push({ path: 'givenUSource', message: 'is required: where the given U-value comes from' });
+		if (issues.length) return { ok: false, issues };
+		return { ok: true, data: { ...data, buildUp: null } };
+	}
+	if (!data.buildUp)
+		return { ok: false, issues: [{ path: 'buildUp', message: 'is required: at least one layer' }] };
+	data.buildUp = normaliseBuildUp(data.buildUp as StoredBuildUp) as ElementFields['buildUp'];
+	const input = toElementInput(
+		{
+			heatFlow: data.heatFlow ?? 'horizontal',
+			buildUp: data.buildUp as StoredBuildUp,
+			internal: data.internal
+		},
+		climateMonths
+	);
+	const engine = parseElementInput(input);
+	if (!engine.ok) {
+		for (const i of engine.issues) {
+			let path = i.path;
+			if (path.startsWith('layers')) path = `buildUp.${path}`;
+			else if (path === 'rsi' || path === 'rse') path = `buildUp.${path}`;
+			else if (path.startsWith('climate')) path = 'climateId';
+			else if (path.startsWith('designTemperatures')) path = 'internal.temperature';
+			issues.push({ path, message: i.message });
+		}
+		return { ok: false, issues };
+	}
+	return { ok: true, data };
+}
+
+export const archiveSchema = z.object({
+	archived: z.boolean({ error: 'must be true (archive) or false (restore to draft)' }),
+	version: versionSchema
+});
+
+export const thicknessRequestSchema = z.object({
+	/** the physics ElementInput */
+	input: z.unknown(),
+	layerIndex: z
+		.number({ error: 'must be a layer index' })
+		.int('must be a whole number')
+		.min(0, 'must be ≥ 0'),
+	targetU: z.number({ error: 'must be a number in W/(m²·K)' }).gt(0, 'must be > 0'),
+	productThicknessesMm: z.array(z.number().gt(0, 'must be > 0')).max(200).optional()
+});

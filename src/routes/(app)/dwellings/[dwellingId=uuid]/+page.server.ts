@@ -1,0 +1,116 @@
+import { error, fail, redirect } from '@sveltejs/kit';
+import { superValidate, setError, message } from 'sveltekit-superforms';
+import { zod4 } from 'sveltekit-superforms/adapters';
+import { requireMember, requireRole } from '$lib/server/guard';
+import {
+	copyDwelling,
+	getDwellingOverview,
+	listDwellingOptions,
+	setDwellingArchived,
+	updateDwelling,
+	WRITE_ROLES
+} from '$lib/server/dwellings';
+import { deleteElement, duplicateElement } from '$lib/server/elements';
+import { copyFormSchema, dwellingFormSchema } from '$lib/dwellings/forms';
+import { ConflictError, NotFoundError, ValidationError } from '$lib/dwellings/errors';
+
+export const load = async (event) => {
+	const member = requireMember(event);
+	const overview = await getDwellingOverview(member.organisationId, event.params.dwellingId);
+	if (!overview) error(404, 'No such dwelling.');
+	const d = overview.dwelling;
+	const [options, form] = await Promise.all([
+		listDwellingOptions(member.organisationId),
+		superValidate(zod4(dwellingFormSchema), {
+			defaults: {
+				reference: d.reference,
+				address: d.address,
+				programme: d.programme ?? '',
+				clientName: d.clientName ?? '',
+				clientEmail: d.clientEmail ?? '',
+				assessorId: d.assessorId ?? '',
+				stage: d.stage,
+				limitTableId: d.limitTableId ?? '',
+				climateId: d.climateId ?? '',
+				version: d.version
+			}
+		})
+	]);
+	return { ...overview, options, form };
+};
+
+async function expected<T>(fn: () => Promise<T>) {
+	try {
+		return { ok: true as const, value: await fn() };
+	} catch (e) {
+		if (e instanceof ValidationError)
+			return {
+				ok: false as const,
+				status: 400,
+				message: e.issues.map((i) => `${i.path}: ${i.message}`).join('; ')
+			};
+		if (e instanceof ConflictError) return { ok: false as const, status: 409, message: e.message };
+		if (e instanceof NotFoundError) error(404, 'Not found.');
+		throw e;
+	}
+}
+
+export const actions = {
+	update: async function update(event) {
+		const member = requireRole(event, ...WRITE_ROLES);
+		const form = await superValidate(event.request, zod4(dwellingFormSchema));
+		if (!form.valid) return fail(400, { form });
+		const { version, ...fields } = form.data;
+		try {
+			await updateDwelling(member, event.params.dwellingId, { ...fields, version });
+		} catch (e) {
+			if (e instanceof ValidationError) {
+				for (const i of e.issues) setError(form, i.path as 'reference', i.message);
+				return fail(400, { form });
+			}
+			if (e instanceof ConflictError) return message(form, e.message, { status: 409 });
+			if (e instanceof NotFoundError) error(404, 'Not found.');
+			throw e;
+		}
+		return message(form, 'Saved.');
+	},
+	copy: async function copy(event) {
+		const member = requireRole(event, ...WRITE_ROLES);
+		const body = Object.fromEntries(await event.request.formData());
+		const parsed = copyFormSchema.safeParse(body);
+		if (!parsed.success) return fail(400, { copyError: parsed.error.issues.map((i) => i.message).join(' ') });
+		const r = await expected(() => copyDwelling(member, event.params.dwellingId, parsed.data));
+		if (!r.ok) return fail(r.status, { copyError: r.message });
+		redirect(303, `/dwellings/${r.value.id}`);
+	},
+	archive: async function archive(event) {
+		const member = requireRole(event, ...WRITE_ROLES);
+		const data = await event.request.formData();
+		const r = await expected(() =>
+			setDwellingArchived(
+				member,
+				event.params.dwellingId,
+				data.get('archived') === 'true',
+				Number(data.get('version'))
+			)
+		);
+		if (!r.ok) return fail(r.status, { actionError: r.message });
+		return { done: data.get('archived') === 'true' ? 'Archived.' : 'Restored to draft.' };
+	},
+	duplicateElement: async function duplicate(event) {
+		const member = requireRole(event, ...WRITE_ROLES);
+		const data = await event.request.formData();
+		const r = await expected(() => duplicateElement(member, String(data.get('elementId'))));
+		if (!r.ok) return fail(r.status, { actionError: r.message });
+		return { done: `Added “${r.value.name}”.` };
+	},
+	deleteElement: async function remove(event) {
+		const member = requireRole(event, ...WRITE_ROLES);
+		const data = await event.request.formData();
+		const r = await expected(() =>
+			deleteElement(member, String(data.get('elementId')), Number(data.get('version')))
+		);
+		if (!r.ok) return fail(r.status, { actionError: r.message });
+		return { done: 'Element deleted.' };
+	}
+};

@@ -1,0 +1,34 @@
+import { json } from '@sveltejs/kit';
+import { requireMember } from '$lib/server/guard';
+import { ElementInputError, parseElementInput, solveThicknessDetailed } from '$lib/physics';
+import { handle, readJson } from '$lib/dwellings/api';
+import { ValidationError } from '$lib/dwellings/errors';
+import { PRODUCT_THICKNESSES_MM, thicknessRequestSchema } from '$lib/dwellings/schema';
+
+/** Stateless: the thickness of one layer that reaches a target U, rounded up to a product size. */
+export const POST = (event) =>
+	handle(async () => {
+		requireMember(event);
+		const body = thicknessRequestSchema.safeParse(await readJson(event.request));
+		if (!body.success) {
+			throw new ValidationError(
+				body.error.issues.map((i) => ({ path: i.path.join('.') || '(body)', message: i.message }))
+			);
+		}
+		const input = parseElementInput(body.data.input);
+		if (!input.ok)
+			throw new ValidationError(input.issues.map((i) => ({ path: `input.${i.path}`, message: i.message })));
+		try {
+			return json(
+				solveThicknessDetailed(
+					input.data,
+					body.data.layerIndex,
+					body.data.targetU,
+					body.data.productThicknessesMm ?? PRODUCT_THICKNESSES_MM
+				)
+			);
+		} catch (e) {
+			if (e instanceof ElementInputError) throw new ValidationError(e.issues);
+			throw e;
+		}
+	});

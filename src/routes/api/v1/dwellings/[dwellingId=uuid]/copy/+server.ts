@@ -1,0 +1,13 @@
+import { json } from '@sveltejs/kit';
+import { requireRole } from '$lib/server/guard';
+import { copyDwelling, WRITE_ROLES } from '$lib/server/dwellings';
+import { handle, readJson } from '$lib/dwellings/api';
+
+/** A new draft with the same details and copies of every element: body `{ reference, address? }`. */
+export const POST = (event) =>
+	handle(async () => {
+		const member = requireRole(event, ...WRITE_ROLES);
+		return json(await copyDwelling(member, event.params.dwellingId, await readJson(event.request)), {
+			status: 201
+		});
+	});
