@@ -25,7 +25,7 @@ import {
 } from './moisture';
 import { solveSeries } from './series';
 import { runGlaser, type GlaserMonth, type NodeKind } from './glaser';
-import { DEFAULT_U_ROUNDING, describeRounding, roundValue } from './rounding';
+import { DEFAULT_ROUNDING_DESCRIPTION, DEFAULT_U_ROUNDING, describeRounding, roundValue } from './rounding';
 import { CAUTIONS, ENGINE_VERSION } from './cautions';
 
 /** Largest resistance of one sublayer in the Glaser calculation, m²·K/W. */
@@ -76,7 +76,10 @@ export interface ThermalModel {
 	warnings: string[];
 }
 
-const fmt = (v: number, d = 3) => Number(v.toFixed(d)).toString();
+const fmt = (v: number, d = 3) => {
+	const f = 10 ** d;
+	return String(Math.round(v * f) / f);
+};
 
 /**
  * Build the ISO 6946 thermal model of a validated element: surface resistances (6.8), layer and
@@ -292,17 +295,18 @@ export function analyseElement(raw: ElementInput): ElementResult {
 	const { layers, active, rsi, rse } = tm;
 
 	// Heat chain: Rsi film, every active layer split into sub-elements of R ≤ 0.25, Rse film.
-	const splits = new Int32Array(active);
+	const splits: number[] = new Array(active);
 	let nElem = 2;
 	for (let i = 0; i < active; i++) {
 		splits[i] = Math.max(1, Math.ceil(layers[i].rPath / GLASER_SUBLAYER_MAX_R - 1e-9));
 		nElem += splits[i];
 	}
-	const gHeat = new Float64Array(nElem);
-	const posNode = new Float64Array(nElem + 1);
-	const layerOfNode = new Int32Array(nElem + 1);
+	// Plain arrays: small typed arrays are costly to allocate, and this runs on every keystroke.
+	const gHeat: number[] = new Array(nElem);
+	const posNode: number[] = new Array(nElem + 1);
+	const layerOfNode: number[] = new Array(nElem + 1);
 	const kindOfNode: NodeKind[] = new Array(nElem + 1);
-	const sdElem = new Float64Array(nElem);
+	const sdElem: number[] = new Array(nElem);
 	const moistureReady = input.climate !== undefined && input.internal !== undefined;
 	gHeat[0] = rsi > 0 ? 1 / rsi : Infinity;
 	posNode[0] = 0;
@@ -333,7 +337,7 @@ export function analyseElement(raw: ElementInput): ElementResult {
 	kindOfNode[e + 1] = 'external-surface';
 
 	// Dimensionless solve: φ = 1 at the internal air, 0 at the external air.
-	const phi = new Float64Array(nElem + 1);
+	const phi: number[] = new Array(nElem + 1);
 	const fluxPhi = solveSeries(gHeat, 0, nElem, 1, 0, phi);
 
 	const coldest = input.climate?.reduce((a, c) => Math.min(a, c.temperature), Infinity);
@@ -350,7 +354,7 @@ export function analyseElement(raw: ElementInput): ElementResult {
 	const tAt = (node: number) => design.external + dT * phi[node];
 
 	// Node that ends layer i in the chain: 1 + Σ splits up to i.
-	const endNode = new Int32Array(active);
+	const endNode: number[] = new Array(active);
 	{
 		let n = 1;
 		for (let i = 0; i < active; i++) {
@@ -373,7 +377,8 @@ export function analyseElement(raw: ElementInput): ElementResult {
 			positionEndMm: m.endMm,
 			kind: m.kind,
 			r: m.rPath,
-			...(m.rBridge !== undefined ? { rBridge: m.rBridge, bridgeFraction: m.fraction } : {}),
+			rBridge: m.rBridge,
+			bridgeFraction: m.fraction,
 			rEquivalent: m.rEquivalent,
 			sd: m.sd,
 			temperatureInside: tIn,
@@ -390,7 +395,7 @@ export function analyseElement(raw: ElementInput): ElementResult {
 		engineVersion: ENGINE_VERSION,
 		uValue: tm.u,
 		uValueRounded: roundValue(tm.u, rounding),
-		roundingConvention: describeRounding(rounding),
+		roundingConvention: input.rounding ? describeRounding(rounding) : DEFAULT_ROUNDING_DESCRIPTION,
 		uUncorrected: tm.uUncorrected,
 		rTotal: tm.rTotal,
 		...(tm.bridged ? { rUpper: tm.rUpper, rLower: tm.rLower, relativeError: tm.relativeError } : {}),
@@ -484,10 +489,10 @@ export function analyseElement(raw: ElementInput): ElementResult {
 		const glaser = runGlaser(
 			{
 				elements: nV,
-				positionMm: posNode.subarray(1, nElem),
-				sd: sdElem.subarray(1, nElem - 1),
-				phi: phi.subarray(1, nElem),
-				layerIndex: layerOfNode.subarray(1, nElem),
+				positionMm: posNode.slice(1, nElem),
+				sd: sdElem.slice(1, nElem - 1),
+				phi: phi.slice(1, nElem),
+				layerIndex: layerOfNode.slice(1, nElem),
 				kind: kindOfNode.slice(1, nElem)
 			},
 			months

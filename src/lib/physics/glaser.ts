@@ -16,7 +16,7 @@
  * touching node is its condensation rate (negative: evaporation), taken over the month's length.
  */
 
-import { createSeriesWork, solveSeries } from './series';
+import { solveSeries, type SeriesWork } from './series';
 import { DELTA_0, saturationPressure } from './moisture';
 
 export type NodeKind = 'internal-surface' | 'interface' | 'sublayer' | 'external-surface';
@@ -115,6 +115,13 @@ const ZERO_AMOUNT = 1e-9;
 /** a rate below this is no condensation, kg/(m²·s) */
 const ZERO_RATE = 1e-16;
 
+/** A plain array of n zeros (plain arrays are far cheaper to allocate than small typed ones). */
+function zeros(n: number): number[] {
+	const a = new Array<number>(n);
+	for (let i = 0; i < n; i++) a[i] = 0;
+	return a;
+}
+
 /**
  * Run the twelve-month Glaser cycle (ISO 13788:2012, clause 6). `months` must hold the twelve
  * calendar months in order 1 … 12. The cycle starts in the first month in which condensation is
@@ -124,8 +131,9 @@ const ZERO_RATE = 1e-16;
 export function runGlaser(chain: GlaserChain, months: readonly GlaserMonth[]): GlaserResult {
 	const n = chain.elements;
 	const nn = n + 1;
-	const x = new Float64Array(nn);
-	const gv = new Float64Array(n);
+	const nm = months.length;
+	const x = zeros(nn);
+	const gv = zeros(nn);
 	for (let e = 0; e < n; e++) {
 		const sd = chain.sd[e];
 		x[e + 1] = x[e] + sd;
@@ -134,22 +142,19 @@ export function runGlaser(chain: GlaserChain, months: readonly GlaserMonth[]): G
 	if (!(x[n] > 0)) throw new RangeError('the total sd-value of the element is zero');
 
 	// Vapour nodes: runs of heat nodes joined by zero-sd elements.
-	const gStart = new Int32Array(nn);
-	const gEnd = new Int32Array(nn);
-	let G = 0;
-	gStart[0] = 0;
+	const gStart: number[] = [0];
+	const gEnd: number[] = [];
 	for (let e = 0; e < n; e++) {
 		if (gv[e] !== Infinity) {
-			gEnd[G] = e;
-			G++;
-			gStart[G] = e + 1;
+			gEnd.push(e);
+			gStart.push(e + 1);
 		}
 	}
-	gEnd[G] = n;
-	G++;
+	gEnd.push(n);
+	const G = gStart.length;
 
 	const nodes: GlaserNode[] = new Array(G);
-	const gx = new Float64Array(G);
+	const gx = zeros(G);
 	for (let g = 0; g < G; g++) {
 		const last = gEnd[g];
 		gx[g] = x[gStart[g]];
@@ -163,100 +168,113 @@ export function runGlaser(chain: GlaserChain, months: readonly GlaserMonth[]): G
 		};
 	}
 
-	// Temperatures and saturation pressures per month and heat node, and the coldest member of each group.
-	const nm = months.length;
-	const theta = new Float64Array(nm * nn);
-	const psat = new Float64Array(nm * nn);
-	const gPsat = new Float64Array(nm * G);
-	const gMin = new Int32Array(nm * G);
+	// Temperature and saturation pressure of every vapour node in every month (the coldest member
+	// of a group sets its saturation pressure). These arrays are also the monthly results.
+	const monthT: number[][] = new Array(nm);
+	const monthPs: number[][] = new Array(nm);
 	for (let m = 0; m < nm; m++) {
 		const mo = months[m];
-		const dT = mo.internalTemperature - mo.externalTemperature;
-		const base = m * nn;
-		for (let j = 0; j < nn; j++) {
-			const t = mo.externalTemperature + dT * chain.phi[j];
-			theta[base + j] = t;
-			psat[base + j] = saturationPressure(t);
-		}
+		const te = mo.externalTemperature;
+		const dT = mo.internalTemperature - te;
+		const tArr: number[] = new Array(G);
+		const pArr: number[] = new Array(G);
 		for (let g = 0; g < G; g++) {
-			let best = gStart[g];
-			for (let j = gStart[g] + 1; j <= gEnd[g]; j++) if (psat[base + j] < psat[base + best]) best = j;
-			gMin[m * G + g] = best;
-			gPsat[m * G + g] = psat[base + best];
+			let t = te + dT * chain.phi[gStart[g]];
+			let ps = saturationPressure(t);
+			for (let j = gStart[g] + 1; j <= gEnd[g]; j++) {
+				const tj = te + dT * chain.phi[j];
+				const pj = saturationPressure(tj);
+				if (pj < ps) {
+					ps = pj;
+					t = tj;
+				}
+			}
+			tArr[g] = t;
+			pArr[g] = ps;
 		}
+		monthT[m] = tArr;
+		monthPs[m] = pArr;
 	}
 
-	const work = createSeriesWork(n);
-	const pNode = new Float64Array(nn);
-	const vert = new Int32Array(G);
-	const vertP = new Float64Array(G);
-	const stack = new Int32Array(G);
-	const rate = new Float64Array(G);
+	const work: SeriesWork = { g: zeros(nn), c: zeros(nn), d: zeros(nn) };
+	const pNode = zeros(nn);
+	const vert = zeros(G);
+	const vertP = zeros(G);
+	const stack = zeros(G);
+	const hy = zeros(G);
+	const rate = zeros(G);
+	const ma = zeros(G);
 
 	/**
-	 * One month: fills `rate` (kg/(m²·s)) and `pNode`; returns the number of vertices. Wet groups
-	 * (ma > 0) are held at saturation.
+	 * The taut vapour-pressure line of one month: fills `vert`/`vertP` with the fixed and touching
+	 * vapour nodes in order and returns their number. Wet groups (ma > 0) are held at saturation.
 	 */
-	const step = (m: number, ma: Float64Array | null): number => {
+	const hull = (m: number, wet: boolean): number => {
 		const mo = months[m];
-		const ps = gPsat.subarray(m * G, (m + 1) * G);
+		const ps = monthPs[m];
 		let nv = 0;
 		vert[nv] = 0;
 		vertP[nv] = mo.internalVapourPressure;
 		nv++;
+		hy[0] = mo.internalVapourPressure;
+		for (let g = 1; g < G - 1; g++) hy[g] = ps[g];
+		hy[G - 1] = mo.externalVapourPressure;
 		let a = 0;
-		let pa = mo.internalVapourPressure;
 		for (let b = 1; b < G; b++) {
-			const fixed = b === G - 1 || (ma !== null && ma[b] > 0);
-			if (!fixed) continue;
-			const pb = b === G - 1 ? mo.externalVapourPressure : ps[b];
-			// Lower convex hull of (x, psat) between the fixed groups a and b.
+			if (b < G - 1 && !(wet && ma[b] > 0)) continue;
+			// Lower convex hull of (x, y) between the fixed groups a and b (monotone chain). A point
+			// is kept only if it lies below the chord of its neighbours by more than a round-off margin;
+			// the test is written without division: (y_mid − y_o)(x_k − x_o) < (y_k − y_o)(x_mid − x_o).
 			let sp = 0;
 			stack[sp++] = a;
 			for (let k = a + 1; k <= b; k++) {
-				const yk = k === b ? pb : ps[k];
+				const yk = hy[k];
+				const xk = gx[k];
 				while (sp >= 2) {
 					const o = stack[sp - 2];
 					const mid = stack[sp - 1];
-					const yo = o === a ? pa : ps[o];
-					const yLine = yo + ((yk - yo) * (gx[mid] - gx[o])) / (gx[k] - gx[o]);
-					if (ps[mid] >= yLine - 1e-9 * (Math.abs(yLine) + 1)) sp--;
+					const xo = gx[o];
+					const yo = hy[o];
+					const ym = hy[mid];
+					const span = xk - xo;
+					if ((ym - yo) * span >= (yk - yo) * (gx[mid] - xo) - 1e-9 * (Math.abs(ym) + 1) * span) sp--;
 					else break;
 				}
 				stack[sp++] = k;
 			}
-			for (let s = 1; s < sp; s++) {
-				const v = stack[s];
+			for (let q = 1; q < sp; q++) {
+				const v = stack[q];
 				vert[nv] = v;
-				vertP[nv] = v === b ? pb : ps[v];
+				vertP[nv] = hy[v];
 				nv++;
 			}
 			a = b;
-			pa = pb;
-		}
-		// Pressures and fluxes between consecutive vertices from the kernel; rates at vertices.
-		rate.fill(0);
-		for (let j = gStart[0]; j <= gEnd[0]; j++) pNode[j] = vertP[0];
-		let fluxIn = 0;
-		for (let s = 0; s + 1 < nv; s++) {
-			const u = vert[s];
-			const v = vert[s + 1];
-			const flux = solveSeries(gv, gEnd[u], gStart[v], vertP[s], vertP[s + 1], pNode, work);
-			for (let j = gStart[v]; j <= gEnd[v]; j++) pNode[j] = vertP[s + 1];
-			if (s > 0) rate[u] = fluxIn - flux;
-			fluxIn = flux;
 		}
 		return nv;
 	};
 
-	// Dry-start check of every month.
-	const dry = new Array<boolean>(nm);
+	/** Pressures at every node and rates (kg/(m²·s)) at the vertices, from the kernel between vertices. */
+	const pressures = (nv: number): void => {
+		rate.fill(0);
+		for (let j = gStart[0]; j <= gEnd[0]; j++) pNode[j] = vertP[0];
+		let fluxIn = 0;
+		for (let q = 0; q + 1 < nv; q++) {
+			const u = vert[q];
+			const v = vert[q + 1];
+			const flux = solveSeries(gv, gEnd[u], gStart[v], vertP[q], vertP[q + 1], pNode, work);
+			for (let j = gStart[v]; j <= gEnd[v]; j++) pNode[j] = vertP[q + 1];
+			if (q > 0) rate[u] = fluxIn - flux;
+			fluxIn = flux;
+		}
+	};
+
+	// Dry-start check of every month: a touching node of the taut line is a convex corner of it,
+	// where more vapour arrives than leaves, so any touching node means condensation.
+	const dry: boolean[] = new Array(nm);
 	let anyDry = false;
 	let allDry = true;
 	for (let m = 0; m < nm; m++) {
-		const nv = step(m, null);
-		let c = false;
-		if (nv > 2) for (let g = 1; g < G - 1; g++) if (rate[g] > ZERO_RATE) c = true;
+		const c = hull(m, false) > 2;
 		dry[m] = c;
 		anyDry ||= c;
 		allDry &&= c;
@@ -271,7 +289,6 @@ export function runGlaser(chain: GlaserChain, months: readonly GlaserMonth[]): G
 		}
 	}
 
-	const ma = new Float64Array(G);
 	const results: GlaserMonthResult[] = new Array(nm);
 	const condensationMonths: number[] = [];
 	const surfaceCondensationMonths: number[] = [];
@@ -281,16 +298,14 @@ export function runGlaser(chain: GlaserChain, months: readonly GlaserMonth[]): G
 	let maxAtInterfaceNode: number | null = null;
 	let profileMonth = -1;
 	let profileCondensed = 0;
-	let profileP: Float64Array | null = null;
+	let profileP: number[] | null = null;
 	let total = 0;
 
 	for (let c = 0; c < nm; c++) {
 		const m = (start + c) % nm;
 		const mo = months[m];
 		const seconds = mo.days * SECONDS_PER_DAY;
-		step(m, ma);
-		const temperature: number[] = new Array(G);
-		const satP: number[] = new Array(G);
+		pressures(hull(m, true));
 		const vp: number[] = new Array(G);
 		const rt: number[] = new Array(G);
 		const acc: number[] = new Array(G);
@@ -299,20 +314,19 @@ export function runGlaser(chain: GlaserChain, months: readonly GlaserMonth[]): G
 		let formed = false;
 		total = 0;
 		for (let g = 0; g < G; g++) {
-			const amount = rate[g] * seconds;
+			const r = rate[g];
+			const amount = r * seconds;
 			const before = ma[g];
 			let after = before + amount;
 			if (after < ZERO_AMOUNT) after = 0;
 			ma[g] = after;
-			if (rate[g] > ZERO_RATE) {
+			if (r > ZERO_RATE) {
 				condensed += amount;
 				formed = true;
 			} else if (amount < 0) {
 				evaporated += before - after;
 			}
 			total += after;
-			temperature[g] = theta[m * nn + gMin[m * G + g]];
-			satP[g] = gPsat[m * G + g];
 			vp[g] = pNode[gStart[g]];
 			rt[g] = amount * 1000;
 			acc[g] = after * 1000;
@@ -322,7 +336,7 @@ export function runGlaser(chain: GlaserChain, months: readonly GlaserMonth[]): G
 			}
 		}
 		if (formed) condensationMonths.push(mo.month);
-		if (mo.internalVapourPressure > gPsat[m * G]) surfaceCondensationMonths.push(mo.month);
+		if (mo.internalVapourPressure > monthPs[m][0]) surfaceCondensationMonths.push(mo.month);
 		if (total * 1000 > maxAccumulation) {
 			maxAccumulation = total * 1000;
 			peakMonth = mo.month;
@@ -339,8 +353,8 @@ export function runGlaser(chain: GlaserChain, months: readonly GlaserMonth[]): G
 			externalVapourPressure: mo.externalVapourPressure,
 			internalTemperature: mo.internalTemperature,
 			internalVapourPressure: mo.internalVapourPressure,
-			temperature,
-			saturationPressure: satP,
+			temperature: monthT[m],
+			saturationPressure: monthPs[m],
 			vapourPressure: vp,
 			rate: rt,
 			accumulatedAt: acc,
@@ -353,21 +367,22 @@ export function runGlaser(chain: GlaserChain, months: readonly GlaserMonth[]): G
 	surfaceCondensationMonths.sort((p, q) => p - q);
 
 	// Vapour profile for charting: the month with the most condensation formed, else the coldest month.
-	if (profileMonth < 0) {
+	if (profileP === null) {
 		profileMonth = 0;
 		for (let m = 1; m < nm; m++) if (months[m].externalTemperature < months[profileMonth].externalTemperature) profileMonth = m;
-		step(profileMonth, null);
-		profileP = pNode.slice();
+		pressures(hull(profileMonth, false));
+		profileP = pNode;
 	}
-	const pp = profileP as Float64Array;
+	const pm = months[profileMonth];
 	const points: VapourProfilePoint[] = new Array(nn);
 	for (let j = 0; j < nn; j++) {
+		const t = pm.externalTemperature + (pm.internalTemperature - pm.externalTemperature) * chain.phi[j];
 		points[j] = {
 			positionMm: chain.positionMm[j],
 			sdM: x[j],
-			temperature: theta[profileMonth * nn + j],
-			saturationPressure: psat[profileMonth * nn + j],
-			vapourPressure: pp[j]
+			temperature: t,
+			saturationPressure: saturationPressure(t),
+			vapourPressure: profileP[j]
 		};
 	}
 
@@ -384,7 +399,7 @@ export function runGlaser(chain: GlaserChain, months: readonly GlaserMonth[]): G
 		condensationMonths,
 		outcome,
 		surfaceCondensationMonths,
-		vapourProfile: { month: months[profileMonth].month, points },
+		vapourProfile: { month: pm.month, points },
 		condensesEveryMonth: allDry
 	};
 }

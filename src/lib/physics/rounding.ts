@@ -17,6 +17,12 @@ export const DEFAULT_U_ROUNDING: RoundingRule = { mode: 'decimals', digits: 2 };
  */
 export function roundValue(value: number, rule: RoundingRule = DEFAULT_U_ROUNDING): number {
 	if (value === 0 || !Number.isFinite(value)) return value;
+	if (rule.mode === 'decimals') {
+		// Fast path: away from a half the plain scaled rounding is exact (n / 10^k is correctly rounded).
+		const p = 10 ** rule.digits;
+		const scaled = Math.abs(value) * p;
+		if (Math.abs(scaled - Math.floor(scaled) - 0.5) > 1e-6) return (value < 0 ? -1 : 1) * (Math.round(scaled) / p);
+	}
 	const v = Number(value.toPrecision(12));
 	const places = rule.mode === 'decimals' ? rule.digits : rule.digits - 1 - Math.floor(Math.log10(Math.abs(v)));
 	const sign = v < 0 ? -1 : 1;
@@ -32,3 +38,6 @@ export function describeRounding(rule: RoundingRule): string {
 		'ISO 6946 states final U-values to two significant figures, which gives the same digits as two decimal places for 0.10 ≤ U < 1.0 W/(m²·K).'
 	);
 }
+
+/** The statement for the default rule, prepared once. */
+export const DEFAULT_ROUNDING_DESCRIPTION = describeRounding(DEFAULT_U_ROUNDING);

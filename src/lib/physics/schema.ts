@@ -1,6 +1,12 @@
 /**
  * zod schemas of the element input and result. The same schemas serve the forms, the JSON API
  * and the CSV import; every error names the field by its path, e.g. `layers.2.thicknessMm`.
+ *
+ * The object shapes check types only; ranges and cross-field rules are applied by one refinement
+ * per schema (for the element: one for the whole build-up). zod runs every `.gt()` or nested
+ * refinement as a separate check, and those checks cost more than the calculation itself for a
+ * long build-up, while the page validates on every keystroke. The refinements run even when a
+ * type error is present (`when`), so one pass reports every bad field.
  */
 import { z } from 'zod';
 import { AIR_LAYER_MAX_MM, AIR_OPENING_SLIGHTLY_MAX, AIR_OPENING_UNVENTILATED_MAX } from './resistances';
@@ -13,227 +19,346 @@ const describe = (v: unknown): string => {
 	return typeof v;
 };
 
-/** A finite number with plain-English messages. */
+/** A finite number with plain-English messages (ranges are checked by the refinements below). */
 const num = () =>
 	z.number({
 		error: (iss) => (iss.input === undefined ? 'is required' : `must be a finite number, got ${describe(iss.input)}`)
 	});
-const positive = () => num().gt(0, 'must be > 0');
-const nonNegative = () => num().gte(0, 'must be ≥ 0');
-const temperature = () => num().gte(-80, 'must be ≥ −80 °C').lte(80, 'must be ≤ 80 °C');
+
+/** Adds an issue at a path relative to the object being checked. */
+type Add = (path: readonly (string | number)[], message: string) => void;
+type Rule = readonly [(v: number) => boolean, string];
+const POSITIVE: Rule[] = [[(v) => v > 0, 'must be > 0']];
+const NON_NEGATIVE: Rule[] = [[(v) => v >= 0, 'must be ≥ 0']];
+const TEMPERATURE: Rule[] = [
+	[(v) => v >= -80, 'must be ≥ −80 °C'],
+	[(v) => v <= 80, 'must be ≤ 80 °C']
+];
+const MU: Rule[] = [[(v) => v >= 1, 'must be ≥ 1 (still air is 1)']];
+const RESISTANCE_LIMIT: Rule[] = [
+	[(v) => v >= 0, 'must be ≥ 0'],
+	[(v) => v <= 10, 'must be ≤ 10 m²·K/W']
+];
+
+const isObject = (v: unknown): v is Record<string, unknown> => typeof v === 'object' && v !== null;
+
+/** Apply range rules to the numeric fields of `obj`, one issue per failing field (type errors are zod's). */
+function checkRanges(obj: Record<string, unknown>, add: Add, rules: readonly (readonly [string, readonly Rule[]])[]): void {
+	for (const [field, list] of rules) {
+		const v = obj[field];
+		if (typeof v !== 'number' || !Number.isFinite(v)) continue;
+		for (const [test, message] of list) {
+			if (!test(v)) {
+				add([field], message);
+				break;
+			}
+		}
+	}
+}
+
+const prefixed = (add: Add, prefix: readonly (string | number)[]): Add => (path, message) => add([...prefix, ...path], message);
+const fromCtx =
+	(ctx: z.RefinementCtx): Add =>
+	(path, message) =>
+		ctx.addIssue({ code: 'custom', path: [...path], message });
+const ALWAYS = { when: () => true };
+
+/* ------------------------------------------------------------------ rules */
+
+function refineBridge(b: Record<string, unknown>, add: Add): void {
+	checkRanges(b, add, [
+		['lambda', POSITIVE],
+		['fraction', [[(v) => v > 0 && v < 1, 'must be between 0 and 1 (exclusive)']]],
+		['widthMm', POSITIVE],
+		['centresMm', POSITIVE],
+		['mu', MU]
+	]);
+	const byWidth = b.widthMm !== undefined || b.centresMm !== undefined;
+	if (b.fraction === undefined && !byWidth) add(['fraction'], 'give the bridging fraction, or widthMm and centresMm');
+	else if (b.fraction !== undefined && byWidth) add(['fraction'], 'give either fraction or widthMm and centresMm, not both');
+	else if (byWidth) {
+		if (b.widthMm === undefined) add(['widthMm'], 'is required with centresMm');
+		else if (b.centresMm === undefined) add(['centresMm'], 'is required with widthMm');
+		else if ((b.widthMm as number) > 0 && (b.widthMm as number) >= (b.centresMm as number)) add(['widthMm'], 'must be smaller than centresMm');
+	}
+}
+
+function refineFasteners(f: Record<string, unknown>, add: Add): void {
+	checkRanges(f, add, [
+		['lambda', POSITIVE],
+		['areaMm2', POSITIVE],
+		['perM2', POSITIVE],
+		['penetrationMm', POSITIVE]
+	]);
+}
+
+const LAYER_RANGES: (readonly [string, readonly Rule[]])[] = [
+	['thicknessMm', [...POSITIVE, [(v) => v <= 10000, 'must be ≤ 10 000 mm']]],
+	['lambda', POSITIVE],
+	['resistance', [...NON_NEGATIVE, [(v) => v <= 100, 'must be ≤ 100 m²·K/W']]],
+	['openingAreaMm2', NON_NEGATIVE],
+	['mu', MU],
+	['sd', [...NON_NEGATIVE, [(v) => v <= 100000, 'must be ≤ 100 000 m']]]
+];
+
+function refineLayer(l: Record<string, unknown>, add: Add): void {
+	checkRanges(l, add, LAYER_RANGES);
+	const thickness = l.thicknessMm as number;
+	if (l.air === undefined) {
+		if (l.lambda === undefined && l.resistance === undefined) add(['lambda'], 'give λ or the thermal resistance');
+		else if (l.lambda !== undefined && l.resistance !== undefined) add(['resistance'], 'give either λ or the thermal resistance, not both');
+		if (l.openingAreaMm2 !== undefined) add(['openingAreaMm2'], 'applies to air layers only');
+	} else {
+		if (l.air !== 'well-ventilated' && l.resistance === undefined && thickness > AIR_LAYER_MAX_MM) {
+			add(['thicknessMm'], `an air layer over ${AIR_LAYER_MAX_MM} mm is outside the ISO 6946 table; give its resistance directly`);
+		}
+		const a = l.openingAreaMm2 as number | undefined;
+		if (l.air === 'unventilated' && a !== undefined && a > AIR_OPENING_UNVENTILATED_MAX) {
+			add(['openingAreaMm2'], `must be ≤ ${AIR_OPENING_UNVENTILATED_MAX} mm² for an unventilated air layer`);
+		}
+		if (l.air === 'slightly-ventilated') {
+			if (a === undefined) add(['openingAreaMm2'], 'is required for a slightly ventilated air layer');
+			else if (!(a > AIR_OPENING_UNVENTILATED_MAX && a <= AIR_OPENING_SLIGHTLY_MAX)) {
+				add(['openingAreaMm2'], 'must be over 500 and at most 1500 mm² for a slightly ventilated air layer');
+			}
+		}
+		if (l.air === 'well-ventilated') {
+			if (a !== undefined && a <= AIR_OPENING_SLIGHTLY_MAX) add(['openingAreaMm2'], 'must be over 1500 mm² for a well-ventilated air layer');
+			if (l.bridge) add(['bridge'], 'a well-ventilated air layer cannot be bridged');
+		}
+	}
+	if (l.mu !== undefined && l.sd !== undefined) add(['sd'], 'give either μ or sd, not both');
+	if (isObject(l.bridge)) refineBridge(l.bridge, prefixed(add, ['bridge']));
+	if (isObject(l.fasteners)) {
+		refineFasteners(l.fasteners, prefixed(add, ['fasteners']));
+		const pen = l.fasteners.penetrationMm;
+		if (typeof pen === 'number' && pen > thickness) add(['fasteners', 'penetrationMm'], 'must not exceed the layer thickness');
+	}
+}
+
+function refineClimateMonth(m: Record<string, unknown>, add: Add): void {
+	checkRanges(m, add, [
+		['month', [[(v) => Number.isInteger(v) && v >= 1 && v <= 12, 'must be 1–12']]],
+		['temperature', TEMPERATURE],
+		['relativeHumidity', [[(v) => v >= 0 && v <= 100, 'must be 0–100 %']]]
+	]);
+}
+
+function refineInternal(i: Record<string, unknown>, add: Add): void {
+	checkRanges(i, add, [
+		['temperature', TEMPERATURE],
+		['relativeHumidity', [[(v) => v > 0 && v <= 100, 'must be over 0 and at most 100 %']]]
+	]);
+}
+
+function refineRounding(r: Record<string, unknown>, add: Add): void {
+	checkRanges(r, add, [['digits', [[(v) => Number.isInteger(v) && v >= 0 && v <= 6, 'must be a whole number 0–6']]]]);
+}
+
+function refineLimits(l: Record<string, unknown>, add: Add): void {
+	checkRanges(l, add, [
+		['maxAtInterfaceGm2', NON_NEGATIVE],
+		['maxTotalGm2', NON_NEGATIVE]
+	]);
+}
+
+/* ------------------------------------------------------------------ shapes */
 
 export const heatFlowSchema = z.enum(['upward', 'horizontal', 'downward'], {
 	error: (iss) => (iss.input === undefined ? 'is required' : 'must be upward, horizontal or downward')
 });
 
-export const bridgeSchema = z
-	.object({
-		/** thermal conductivity of the bridging material, W/(m·K) */
-		lambda: positive(),
-		/** area fraction of the bridging material, 0 < f < 1 */
-		fraction: num().gt(0, 'must be between 0 and 1 (exclusive)').lt(1, 'must be between 0 and 1 (exclusive)').optional(),
-		/** width of one bridging member, mm (with centresMm, instead of fraction) */
-		widthMm: positive().optional(),
-		/** centre-to-centre spacing of the bridging members, mm */
-		centresMm: positive().optional(),
-		/** vapour resistance factor of the bridging material (defaults to that of the main material) */
-		mu: num().gte(1, 'must be ≥ 1 (still air is 1)').optional(),
-		name: z.string().optional()
-	})
-	.superRefine((b, ctx) => {
-		const byWidth = b.widthMm !== undefined || b.centresMm !== undefined;
-		if (b.fraction === undefined && !byWidth) {
-			ctx.addIssue({ code: 'custom', path: ['fraction'], message: 'give the bridging fraction, or widthMm and centresMm' });
-		} else if (b.fraction !== undefined && byWidth) {
-			ctx.addIssue({ code: 'custom', path: ['fraction'], message: 'give either fraction or widthMm and centresMm, not both' });
-		} else if (byWidth) {
-			if (b.widthMm === undefined) ctx.addIssue({ code: 'custom', path: ['widthMm'], message: 'is required with centresMm' });
-			else if (b.centresMm === undefined) ctx.addIssue({ code: 'custom', path: ['centresMm'], message: 'is required with widthMm' });
-			else if (b.widthMm >= b.centresMm) ctx.addIssue({ code: 'custom', path: ['widthMm'], message: 'must be smaller than centresMm' });
-		}
-	});
-
-export const fastenersSchema = z.object({
-	/** thermal conductivity of the fastener, W/(m·K) */
-	lambda: positive(),
-	/** cross-sectional area of one fastener, mm² */
-	areaMm2: positive(),
-	/** number of fasteners per m² */
-	perM2: positive(),
-	/** length inside the insulation layer, mm (defaults to the layer thickness) */
-	penetrationMm: positive().optional()
+const bridgeShape = z.object({
+	/** thermal conductivity of the bridging material, W/(m·K); > 0 */
+	lambda: num(),
+	/** area fraction of the bridging material, 0 < f < 1 */
+	fraction: num().optional(),
+	/** width of one bridging member, mm (with centresMm, instead of fraction); > 0 */
+	widthMm: num().optional(),
+	/** centre-to-centre spacing of the bridging members, mm; > 0 */
+	centresMm: num().optional(),
+	/** vapour resistance factor of the bridging material (defaults to that of the main material); ≥ 1 */
+	mu: num().optional(),
+	name: z.string().optional()
 });
 
-export const layerSchema = z
-	.object({
-		name: z.string({ error: 'must be text' }),
-		/** mm */
-		thicknessMm: positive().lte(10000, 'must be ≤ 10 000 mm'),
-		/** W/(m·K) */
-		lambda: positive().optional(),
-		/** m²·K/W, given directly (0 for a thin membrane) */
-		resistance: nonNegative().lte(100, 'must be ≤ 100 m²·K/W').optional(),
-		air: z
-			.enum(['unventilated', 'slightly-ventilated', 'well-ventilated'], {
-				error: 'must be unventilated, slightly-ventilated or well-ventilated'
-			})
-			.optional(),
-		/** opening area of an air layer, mm² per m length (vertical) or per m² (horizontal) */
-		openingAreaMm2: nonNegative().optional(),
-		/** vapour resistance factor, dimensionless */
-		mu: num().gte(1, 'must be ≥ 1 (still air is 1)').optional(),
-		/** vapour diffusion-equivalent air layer thickness, m */
-		sd: nonNegative().lte(100000, 'must be ≤ 100 000 m').optional(),
-		/** ISO 6946 air-gap correction level */
-		airGapLevel: z.union([z.literal(0), z.literal(1), z.literal(2)], { error: 'must be 0, 1 or 2' }).optional(),
-		bridge: bridgeSchema.optional(),
-		fasteners: fastenersSchema.optional()
-	})
-	.superRefine((l, ctx) => {
-		if (l.air === undefined) {
-			if (l.lambda === undefined && l.resistance === undefined) {
-				ctx.addIssue({ code: 'custom', path: ['lambda'], message: 'give λ or the thermal resistance' });
-			} else if (l.lambda !== undefined && l.resistance !== undefined) {
-				ctx.addIssue({ code: 'custom', path: ['resistance'], message: 'give either λ or the thermal resistance, not both' });
-			}
-			if (l.openingAreaMm2 !== undefined) {
-				ctx.addIssue({ code: 'custom', path: ['openingAreaMm2'], message: 'applies to air layers only' });
-			}
-		} else {
-			if (l.air !== 'well-ventilated' && l.resistance === undefined && l.thicknessMm > AIR_LAYER_MAX_MM) {
-				ctx.addIssue({
-					code: 'custom',
-					path: ['thicknessMm'],
-					message: `an air layer over ${AIR_LAYER_MAX_MM} mm is outside the ISO 6946 table; give its resistance directly`
-				});
-			}
-			const a = l.openingAreaMm2;
-			if (l.air === 'unventilated' && a !== undefined && a > AIR_OPENING_UNVENTILATED_MAX) {
-				ctx.addIssue({ code: 'custom', path: ['openingAreaMm2'], message: `must be ≤ ${AIR_OPENING_UNVENTILATED_MAX} mm² for an unventilated air layer` });
-			}
-			if (l.air === 'slightly-ventilated') {
-				if (a === undefined) ctx.addIssue({ code: 'custom', path: ['openingAreaMm2'], message: 'is required for a slightly ventilated air layer' });
-				else if (!(a > AIR_OPENING_UNVENTILATED_MAX && a <= AIR_OPENING_SLIGHTLY_MAX)) {
-					ctx.addIssue({ code: 'custom', path: ['openingAreaMm2'], message: 'must be over 500 and at most 1500 mm² for a slightly ventilated air layer' });
-				}
-			}
-			if (l.air === 'well-ventilated') {
-				if (a !== undefined && a <= AIR_OPENING_SLIGHTLY_MAX) {
-					ctx.addIssue({ code: 'custom', path: ['openingAreaMm2'], message: 'must be over 1500 mm² for a well-ventilated air layer' });
-				}
-				if (l.bridge) ctx.addIssue({ code: 'custom', path: ['bridge'], message: 'a well-ventilated air layer cannot be bridged' });
-			}
-		}
-		if (l.mu !== undefined && l.sd !== undefined) {
-			ctx.addIssue({ code: 'custom', path: ['sd'], message: 'give either μ or sd, not both' });
-		}
-		if (l.fasteners?.penetrationMm !== undefined && l.fasteners.penetrationMm > l.thicknessMm) {
-			ctx.addIssue({ code: 'custom', path: ['fasteners', 'penetrationMm'], message: 'must not exceed the layer thickness' });
-		}
-	});
+const fastenersShape = z.object({
+	/** thermal conductivity of the fastener, W/(m·K); > 0 */
+	lambda: num(),
+	/** cross-sectional area of one fastener, mm²; > 0 */
+	areaMm2: num(),
+	/** number of fasteners per m²; > 0 */
+	perM2: num(),
+	/** length inside the insulation layer, mm (defaults to the layer thickness); > 0 */
+	penetrationMm: num().optional()
+});
 
-export const climateMonthSchema = z.object({
-	month: num().int('must be a whole number').gte(1, 'must be 1–12').lte(12, 'must be 1–12'),
+const layerShape = z.object({
+	name: z.string({ error: 'must be text' }),
+	/** mm; > 0 */
+	thicknessMm: num(),
+	/** W/(m·K); > 0 */
+	lambda: num().optional(),
+	/** m²·K/W, given directly (0 for a thin membrane); ≥ 0 */
+	resistance: num().optional(),
+	air: z
+		.enum(['unventilated', 'slightly-ventilated', 'well-ventilated'], {
+			error: 'must be unventilated, slightly-ventilated or well-ventilated'
+		})
+		.optional(),
+	/** opening area of an air layer, mm² per m length (vertical) or per m² (horizontal); ≥ 0 */
+	openingAreaMm2: num().optional(),
+	/** vapour resistance factor, dimensionless; ≥ 1 */
+	mu: num().optional(),
+	/** vapour diffusion-equivalent air layer thickness, m; ≥ 0 */
+	sd: num().optional(),
+	/** ISO 6946 air-gap correction level */
+	airGapLevel: z.union([z.literal(0), z.literal(1), z.literal(2)], { error: 'must be 0, 1 or 2' }).optional(),
+	bridge: bridgeShape.optional(),
+	fasteners: fastenersShape.optional()
+});
+
+const climateMonthShape = z.object({
+	/** 1–12 */
+	month: num(),
 	/** monthly mean external temperature, °C */
-	temperature: temperature(),
-	/** monthly mean external relative humidity, % */
-	relativeHumidity: num().gte(0, 'must be 0–100 %').lte(100, 'must be 0–100 %')
+	temperature: num(),
+	/** monthly mean external relative humidity, % (0–100) */
+	relativeHumidity: num()
 });
 
-export const internalSchema = z.object({
+const internalShape = z.object({
 	/** °C */
-	temperature: temperature(),
-	/** % */
-	relativeHumidity: num().gt(0, 'must be over 0 %').lte(100, 'must be at most 100 %').optional(),
-	humidityClass: z
-		.union([z.literal(1), z.literal(2), z.literal(3), z.literal(4), z.literal(5)], { error: 'must be 1, 2, 3, 4 or 5' })
-		.optional()
+	temperature: num(),
+	/** %, over 0 and at most 100 */
+	relativeHumidity: num().optional(),
+	humidityClass: z.union([z.literal(1), z.literal(2), z.literal(3), z.literal(4), z.literal(5)], { error: 'must be 1, 2, 3, 4 or 5' }).optional()
 });
 
-export const roundingSchema = z.object({
+const roundingShape = z.object({
 	mode: z.enum(['decimals', 'significant'], { error: 'must be decimals or significant' }),
-	digits: num().int('must be a whole number').gte(0, 'must be 0–6').lte(6, 'must be 0–6')
+	digits: num()
 });
 
-export const moistureLimitsSchema = z.object({
-	/** largest acceptable amount at any one interface, g/m² */
-	maxAtInterfaceGm2: nonNegative().optional(),
-	/** largest acceptable total over all interfaces, g/m² */
-	maxTotalGm2: nonNegative().optional(),
+const moistureLimitsShape = z.object({
+	/** largest acceptable amount at any one interface, g/m²; ≥ 0 */
+	maxAtInterfaceGm2: num().optional(),
+	/** largest acceptable total over all interfaces, g/m²; ≥ 0 */
+	maxTotalGm2: num().optional(),
 	/** whether condensate must evaporate within the year (default true) */
 	requireEvaporation: z.boolean({ error: 'must be true or false' }).optional()
 });
 
-export const elementInputSchema = z
-	.object({
-		heatFlow: heatFlowSchema,
-		/** m²·K/W; overrides the ISO 6946 value for U and profile */
-		rsi: nonNegative().lte(10, 'must be ≤ 10 m²·K/W').optional(),
-		/** m²·K/W; overrides the ISO 6946 value for U and profile */
-		rse: nonNegative().lte(10, 'must be ≤ 10 m²·K/W').optional(),
-		/** from inside to outside */
-		layers: z.array(layerSchema, { error: 'must be a list of layers' }).min(1, 'at least one layer is required'),
-		/** °C, for the temperature profile */
-		designTemperatures: z.object({ internal: temperature(), external: temperature() }).optional(),
-		internal: internalSchema.optional(),
-		/** twelve months, relative humidity in % */
-		climate: z.array(climateMonthSchema, { error: 'must be a list of months' }).optional(),
-		/** internal surface resistance for the fRsi check, m²·K/W (ISO 13788: 0.25) */
-		surfaceRsi: positive().lte(10, 'must be ≤ 10 m²·K/W').optional(),
-		/** ISO 6946 rule (omit ΔU below 3 % of U) or always apply ΔU */
-		corrections: z.enum(['standard', 'always'], { error: 'must be standard or always' }).optional(),
-		rounding: roundingSchema.optional(),
-		moistureLimits: moistureLimitsSchema.optional()
-	})
-	.superRefine((e, ctx) => {
-		const well = e.layers.findIndex((l) => l.air === 'well-ventilated');
-		if (well === 0) {
-			ctx.addIssue({ code: 'custom', path: ['layers', 0, 'air'], message: 'the first layer cannot be well ventilated: no layer would remain inside it' });
+/** Standalone schemas (e.g. for a CSV row of layers or of climate months), with their rules. */
+const standalone = <T extends z.ZodType>(shape: T, rule: (v: Record<string, unknown>, add: Add) => void) =>
+	shape.superRefine((v, ctx) => {
+		if (isObject(v)) rule(v, fromCtx(ctx));
+	}, ALWAYS);
+
+export const bridgeSchema = standalone(bridgeShape, refineBridge);
+export const fastenersSchema = standalone(fastenersShape, refineFasteners);
+export const layerSchema = standalone(layerShape, refineLayer);
+export const climateMonthSchema = standalone(climateMonthShape, refineClimateMonth);
+export const internalSchema = standalone(internalShape, refineInternal);
+export const roundingSchema = standalone(roundingShape, refineRounding);
+export const moistureLimitsSchema = standalone(moistureLimitsShape, refineLimits);
+
+const elementShape = z.object({
+	heatFlow: heatFlowSchema,
+	/** m²·K/W; overrides the ISO 6946 value for U and profile (0–10) */
+	rsi: num().optional(),
+	/** m²·K/W; overrides the ISO 6946 value for U and profile (0–10) */
+	rse: num().optional(),
+	/** from inside to outside */
+	layers: z.array(layerShape, { error: 'must be a list of layers' }).min(1, 'at least one layer is required'),
+	/** °C, for the temperature profile */
+	designTemperatures: z.object({ internal: num(), external: num() }).optional(),
+	internal: internalShape.optional(),
+	/** twelve months, relative humidity in % */
+	climate: z.array(climateMonthShape, { error: 'must be a list of months' }).optional(),
+	/** internal surface resistance for the fRsi check, m²·K/W (ISO 13788: 0.25) */
+	surfaceRsi: num().optional(),
+	/** ISO 6946 rule (omit ΔU below 3 % of U) or always apply ΔU */
+	corrections: z.enum(['standard', 'always'], { error: 'must be standard or always' }).optional(),
+	rounding: roundingShape.optional(),
+	moistureLimits: moistureLimitsShape.optional()
+});
+
+function refineElement(e: Record<string, unknown>, add: Add): void {
+	checkRanges(e, add, [
+		['rsi', RESISTANCE_LIMIT],
+		['rse', RESISTANCE_LIMIT],
+		['surfaceRsi', [[(v) => v > 0 && v <= 10, 'must be over 0 and at most 10 m²·K/W']]]
+	]);
+	if (isObject(e.designTemperatures)) {
+		checkRanges(e.designTemperatures, prefixed(add, ['designTemperatures']), [
+			['internal', TEMPERATURE],
+			['external', TEMPERATURE]
+		]);
+	}
+	if (isObject(e.rounding)) refineRounding(e.rounding, prefixed(add, ['rounding']));
+	if (isObject(e.moistureLimits)) refineLimits(e.moistureLimits, prefixed(add, ['moistureLimits']));
+	const internal = isObject(e.internal) ? e.internal : undefined;
+	if (internal) {
+		refineInternal(internal, prefixed(add, ['internal']));
+		if (internal.relativeHumidity !== undefined && internal.humidityClass !== undefined) {
+			add(['internal', 'humidityClass'], 'give either relativeHumidity or humidityClass, not both');
 		}
-		const active = well < 0 ? e.layers.length : well;
-		let slightly = 0;
-		let bridged = 0;
-		for (let i = 0; i < active; i++) {
-			const l = e.layers[i];
-			if (l.air === 'slightly-ventilated' && ++slightly > 1) {
-				ctx.addIssue({ code: 'custom', path: ['layers', i, 'air'], message: 'only one slightly ventilated air layer is supported' });
-			}
-			if (l.bridge && ++bridged > MAX_BRIDGED_LAYERS) {
-				ctx.addIssue({ code: 'custom', path: ['layers', i, 'bridge'], message: `at most ${MAX_BRIDGED_LAYERS} bridged layers are supported` });
-			}
+	}
+
+	const layers = (Array.isArray(e.layers) ? e.layers : []).map((l) => (isObject(l) ? l : {}));
+	layers.forEach((l, i) => refineLayer(l, prefixed(add, ['layers', i])));
+	const well = layers.findIndex((l) => l.air === 'well-ventilated');
+	if (well === 0) add(['layers', 0, 'air'], 'the first layer cannot be well ventilated: no layer would remain inside it');
+	const active = well < 0 ? layers.length : well;
+	let slightly = 0;
+	let bridged = 0;
+	for (let i = 0; i < active; i++) {
+		const l = layers[i];
+		if (l.air === 'slightly-ventilated' && ++slightly > 1) add(['layers', i, 'air'], 'only one slightly ventilated air layer is supported');
+		if (l.bridge && ++bridged > MAX_BRIDGED_LAYERS) add(['layers', i, 'bridge'], `at most ${MAX_BRIDGED_LAYERS} bridged layers are supported`);
+	}
+
+	if (e.climate === undefined) return;
+	if (Array.isArray(e.climate)) {
+		const climate = e.climate;
+		climate.forEach((m, i) => {
+			if (isObject(m)) refineClimateMonth(m, prefixed(add, ['climate', i]));
+		});
+		if (climate.length !== 12) {
+			add(['climate'], `12 months are required, got ${climate.length}`);
+		} else {
+			const seen = new Map<unknown, number>();
+			climate.forEach((m, i) => {
+				const month = isObject(m) ? m.month : undefined;
+				if (typeof month !== 'number') return;
+				if (seen.has(month)) add(['climate', i, 'month'], `month ${month} is given twice (also at climate.${seen.get(month)})`);
+				else seen.set(month, i);
+			});
 		}
-		if (e.internal && e.internal.relativeHumidity !== undefined && e.internal.humidityClass !== undefined) {
-			ctx.addIssue({ code: 'custom', path: ['internal', 'humidityClass'], message: 'give either relativeHumidity or humidityClass, not both' });
+	}
+	if (!internal) {
+		add(['internal'], 'internal conditions are required with a climate');
+	} else if (internal.relativeHumidity === undefined && internal.humidityClass === undefined) {
+		add(['internal', 'relativeHumidity'], 'give relativeHumidity or humidityClass for the moisture checks');
+	}
+	let sdTotal = 0;
+	let allGiven = true;
+	for (let i = 0; i < active; i++) {
+		const l = layers[i];
+		if (l.mu === undefined && l.sd === undefined && l.air === undefined) {
+			add(['layers', i, 'mu'], 'give μ or sd for the condensation check');
+			allGiven = false;
 		}
-		if (e.climate !== undefined) {
-			if (e.climate.length !== 12) {
-				ctx.addIssue({ code: 'custom', path: ['climate'], message: `12 months are required, got ${e.climate.length}` });
-			} else {
-				const seen = new Map<number, number>();
-				e.climate.forEach((m, i) => {
-					if (seen.has(m.month)) {
-						ctx.addIssue({ code: 'custom', path: ['climate', i, 'month'], message: `month ${m.month} is given twice (also at climate.${seen.get(m.month)})` });
-					} else seen.set(m.month, i);
-				});
-			}
-			if (!e.internal) {
-				ctx.addIssue({ code: 'custom', path: ['internal'], message: 'internal conditions are required with a climate' });
-			} else if (e.internal.relativeHumidity === undefined && e.internal.humidityClass === undefined) {
-				ctx.addIssue({ code: 'custom', path: ['internal', 'relativeHumidity'], message: 'give relativeHumidity or humidityClass for the moisture checks' });
-			}
-			let sdTotal = 0;
-			for (let i = 0; i < active; i++) {
-				const l = e.layers[i];
-				if (l.mu === undefined && l.sd === undefined && l.air === undefined) {
-					ctx.addIssue({ code: 'custom', path: ['layers', i, 'mu'], message: 'give μ or sd for the condensation check' });
-				}
-				sdTotal += l.sd ?? ((l.mu ?? (l.air ? 1 : 0)) * l.thicknessMm) / 1000;
-			}
-			if (sdTotal <= 0 && e.layers.slice(0, active).every((l) => l.mu !== undefined || l.sd !== undefined || l.air)) {
-				ctx.addIssue({ code: 'custom', path: ['layers'], message: 'the total sd-value is zero: the condensation check needs some vapour resistance' });
-			}
-		}
-	});
+		const d = l.thicknessMm as number;
+		sdTotal += (l.sd as number | undefined) ?? (((l.mu as number | undefined) ?? (l.air ? 1 : 0)) * d) / 1000;
+	}
+	if (allGiven && sdTotal <= 0) add(['layers'], 'the total sd-value is zero: the condensation check needs some vapour resistance');
+}
+
+export const elementInputSchema = elementShape.superRefine((e, ctx) => {
+	if (isObject(e)) refineElement(e, fromCtx(ctx));
+}, ALWAYS);
 
 export type HeatFlowInput = z.infer<typeof heatFlowSchema>;
 export type BridgeInput = z.infer<typeof bridgeSchema>;

@@ -15,17 +15,18 @@
 /** Scratch space for {@link solveSeries}; reuse it across calls to avoid allocation. */
 export interface SeriesWork {
 	/** compacted conductances (zero-resistance elements removed) */
-	g: Float64Array;
+	g: { [index: number]: number; length: number };
 	/** Thomas algorithm modified super-diagonal */
-	c: Float64Array;
+	c: { [index: number]: number; length: number };
 	/** Thomas algorithm modified right-hand side, then the solved group values */
-	d: Float64Array;
+	d: { [index: number]: number; length: number };
 }
 
 /** Allocate scratch space for chains of up to `maxElements` elements. */
 export function createSeriesWork(maxElements: number): SeriesWork {
 	const n = Math.max(1, maxElements) + 1;
-	return { g: new Float64Array(n), c: new Float64Array(n), d: new Float64Array(n) };
+	// Plain arrays: much cheaper to allocate than small typed arrays.
+	return { g: new Array<number>(n).fill(0), c: new Array<number>(n).fill(0), d: new Array<number>(n).fill(0) };
 }
 
 /**
@@ -65,36 +66,40 @@ export function solveSeries(
 	}
 
 	// Unknowns are the merged nodes 1 … m − 1; merged node 0 is `left`, merged node m is `right`.
+	// Row i of the assembled matrix: −g[i−1]·T[i−1] + (g[i−1] + g[i])·T[i] − g[i]·T[i+1] = 0, with
+	// the fixed end values moved to the right-hand side of rows 1 and m − 1.
 	t[0] = left;
 	t[m] = right;
 	if (m >= 2) {
-		// Forward sweep. Row i: −g[i−1]·T[i−1] + (g[i−1] + g[i])·T[i] − g[i]·T[i+1] = 0,
-		// with the fixed end values moved to the right-hand side of rows 1 and m − 1.
-		let prevC = 0;
-		let prevD = 0;
+		// Forward sweep (one reciprocal per row on the critical path).
+		let gPrev = gc[0];
+		let c = 0; // modified super-diagonal of the previous row
+		let d = gPrev * left; // modified right-hand side of the previous row (row 1 before scaling)
 		for (let i = 1; i < m; i++) {
-			const a = -gc[i - 1];
-			const b = gc[i - 1] + gc[i];
-			let rhs = 0;
-			if (i === 1) rhs += gc[0] * left;
-			if (i === m - 1) rhs += gc[m - 1] * right;
-			const denom = i === 1 ? b : b - a * prevC;
-			prevC = -gc[i] / denom;
-			prevD = (i === 1 ? rhs : rhs - a * prevD) / denom;
-			cp[i] = prevC;
-			t[i] = prevD;
+			const gi = gc[i];
+			const inv = 1 / (gPrev + gi + gPrev * c); // b − a·c' with a = −g[i−1]
+			const rhs = i === 1 ? d : gPrev * d; // d_i − a·d'_{i−1}, d_i = 0 for interior rows
+			c = -gi * inv;
+			d = (i === m - 1 ? rhs + gi * right : rhs) * inv;
+			cp[i] = c;
+			t[i] = d;
+			gPrev = gi;
 		}
-		// Back substitution (t[i] holds d'[i] until overwritten).
-		for (let i = m - 2; i >= 1; i--) t[i] = t[i] - cp[i] * t[i + 1];
+		// Back substitution: T[i] = d'[i] − c'[i]·T[i+1] (the last row has no super-diagonal).
+		for (let i = m - 2; i >= 1; i--) t[i] -= cp[i] * t[i + 1];
 	}
 
 	// Map merged values back onto every node.
-	let k = 0;
-	out[from] = left;
-	for (let e = from; e < to; e++) {
-		if (g[e] !== Infinity) k++;
-		out[e + 1] = t[k];
+	if (m === to - from) {
+		for (let i = 1; i < m; i++) out[from + i] = t[i];
+	} else {
+		let k = 0;
+		for (let e = from; e < to; e++) {
+			if (g[e] !== Infinity) k++;
+			out[e + 1] = t[k];
+		}
 	}
+	out[from] = left;
 	out[to] = right;
 	return gc[0] * (t[0] - t[1]);
 }
