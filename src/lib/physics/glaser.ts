@@ -268,13 +268,27 @@ export function runGlaser(chain: GlaserChain, months: readonly GlaserMonth[]): G
 		}
 	};
 
-	// Dry-start check of every month: a touching node of the taut line is a convex corner of it,
-	// where more vapour arrives than leaves, so any touching node means condensation.
+	// Dry-start check of every month. For a dry construction the taut line touches some node exactly
+	// when a saturation pressure lies below the straight line from pi to pe (the lower hull of the
+	// points then has a corner), and a touching node is a convex corner where more vapour arrives
+	// than leaves: condensation. So one pass against the straight line decides it.
 	const dry: boolean[] = new Array(nm);
 	let anyDry = false;
 	let allDry = true;
+	const xEnd = gx[G - 1];
 	for (let m = 0; m < nm; m++) {
-		const c = hull(m, false) > 2;
+		const mo = months[m];
+		const ps = monthPs[m];
+		const pi = mo.internalVapourPressure;
+		const slope = (mo.externalVapourPressure - pi) / xEnd;
+		let c = false;
+		for (let g = 1; g < G - 1; g++) {
+			const line = pi + slope * gx[g];
+			if (ps[g] < line - 1e-9 * (Math.abs(ps[g]) + 1)) {
+				c = true;
+				break;
+			}
+		}
 		dry[m] = c;
 		anyDry ||= c;
 		allDry &&= c;
@@ -305,7 +319,16 @@ export function runGlaser(chain: GlaserChain, months: readonly GlaserMonth[]): G
 		const m = (start + c) % nm;
 		const mo = months[m];
 		const seconds = mo.days * SECONDS_PER_DAY;
-		pressures(hull(m, true));
+		// Nothing wet and nothing touching: the straight line, without building the hull.
+		let wetNow = false;
+		for (let g = 1; g < G - 1 && !wetNow; g++) wetNow = ma[g] > 0;
+		if (!wetNow && !dry[m]) {
+			vert[0] = 0;
+			vertP[0] = mo.internalVapourPressure;
+			vert[1] = G - 1;
+			vertP[1] = mo.externalVapourPressure;
+			pressures(2);
+		} else pressures(hull(m, true));
 		const vp: number[] = new Array(G);
 		const rt: number[] = new Array(G);
 		const acc: number[] = new Array(G);

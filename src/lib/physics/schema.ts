@@ -44,12 +44,14 @@ const isObject = (v: unknown): v is Record<string, unknown> => typeof v === 'obj
 
 /** Apply range rules to the numeric fields of `obj`, one issue per failing field (type errors are zod's). */
 function checkRanges(obj: Record<string, unknown>, add: Add, rules: readonly (readonly [string, readonly Rule[]])[]): void {
-	for (const [field, list] of rules) {
+	for (let r = 0; r < rules.length; r++) {
+		const field = rules[r][0];
 		const v = obj[field];
 		if (typeof v !== 'number' || !Number.isFinite(v)) continue;
-		for (const [test, message] of list) {
-			if (!test(v)) {
-				add([field], message);
+		const list = rules[r][1];
+		for (let k = 0; k < list.length; k++) {
+			if (!list[k][0](v)) {
+				add([field], list[k][1]);
 				break;
 			}
 		}
@@ -65,14 +67,16 @@ const ALWAYS = { when: () => true };
 
 /* ------------------------------------------------------------------ rules */
 
+const BRIDGE_RANGES: (readonly [string, readonly Rule[]])[] = [
+	['lambda', POSITIVE],
+	['fraction', [[(v) => v > 0 && v < 1, 'must be between 0 and 1 (exclusive)']]],
+	['widthMm', POSITIVE],
+	['centresMm', POSITIVE],
+	['mu', MU]
+];
+
 function refineBridge(b: Record<string, unknown>, add: Add): void {
-	checkRanges(b, add, [
-		['lambda', POSITIVE],
-		['fraction', [[(v) => v > 0 && v < 1, 'must be between 0 and 1 (exclusive)']]],
-		['widthMm', POSITIVE],
-		['centresMm', POSITIVE],
-		['mu', MU]
-	]);
+	checkRanges(b, add, BRIDGE_RANGES);
 	const byWidth = b.widthMm !== undefined || b.centresMm !== undefined;
 	if (b.fraction === undefined && !byWidth) add(['fraction'], 'give the bridging fraction, or widthMm and centresMm');
 	else if (b.fraction !== undefined && byWidth) add(['fraction'], 'give either fraction or widthMm and centresMm, not both');
@@ -83,13 +87,15 @@ function refineBridge(b: Record<string, unknown>, add: Add): void {
 	}
 }
 
+const FASTENER_RANGES: (readonly [string, readonly Rule[]])[] = [
+	['lambda', POSITIVE],
+	['areaMm2', POSITIVE],
+	['perM2', POSITIVE],
+	['penetrationMm', POSITIVE]
+];
+
 function refineFasteners(f: Record<string, unknown>, add: Add): void {
-	checkRanges(f, add, [
-		['lambda', POSITIVE],
-		['areaMm2', POSITIVE],
-		['perM2', POSITIVE],
-		['penetrationMm', POSITIVE]
-	]);
+	checkRanges(f, add, FASTENER_RANGES);
 }
 
 const LAYER_RANGES: (readonly [string, readonly Rule[]])[] = [
@@ -136,30 +142,44 @@ function refineLayer(l: Record<string, unknown>, add: Add): void {
 	}
 }
 
+const CLIMATE_RANGES: (readonly [string, readonly Rule[]])[] = [
+	['month', [[(v) => Number.isInteger(v) && v >= 1 && v <= 12, 'must be 1–12']]],
+	['temperature', TEMPERATURE],
+	['relativeHumidity', [[(v) => v >= 0 && v <= 100, 'must be 0–100 %']]]
+];
+const INTERNAL_RANGES: (readonly [string, readonly Rule[]])[] = [
+	['temperature', TEMPERATURE],
+	['relativeHumidity', [[(v) => v > 0 && v <= 100, 'must be over 0 and at most 100 %']]]
+];
+const ROUNDING_RANGES: (readonly [string, readonly Rule[]])[] = [['digits', [[(v) => Number.isInteger(v) && v >= 0 && v <= 6, 'must be a whole number 0–6']]]];
+const LIMIT_RANGES: (readonly [string, readonly Rule[]])[] = [
+	['maxAtInterfaceGm2', NON_NEGATIVE],
+	['maxTotalGm2', NON_NEGATIVE]
+];
+const ELEMENT_RANGES: (readonly [string, readonly Rule[]])[] = [
+	['rsi', RESISTANCE_LIMIT],
+	['rse', RESISTANCE_LIMIT],
+	['surfaceRsi', [[(v) => v > 0 && v <= 10, 'must be over 0 and at most 10 m²·K/W']]]
+];
+const DESIGN_RANGES: (readonly [string, readonly Rule[]])[] = [
+	['internal', TEMPERATURE],
+	['external', TEMPERATURE]
+];
+
 function refineClimateMonth(m: Record<string, unknown>, add: Add): void {
-	checkRanges(m, add, [
-		['month', [[(v) => Number.isInteger(v) && v >= 1 && v <= 12, 'must be 1–12']]],
-		['temperature', TEMPERATURE],
-		['relativeHumidity', [[(v) => v >= 0 && v <= 100, 'must be 0–100 %']]]
-	]);
+	checkRanges(m, add, CLIMATE_RANGES);
 }
 
 function refineInternal(i: Record<string, unknown>, add: Add): void {
-	checkRanges(i, add, [
-		['temperature', TEMPERATURE],
-		['relativeHumidity', [[(v) => v > 0 && v <= 100, 'must be over 0 and at most 100 %']]]
-	]);
+	checkRanges(i, add, INTERNAL_RANGES);
 }
 
 function refineRounding(r: Record<string, unknown>, add: Add): void {
-	checkRanges(r, add, [['digits', [[(v) => Number.isInteger(v) && v >= 0 && v <= 6, 'must be a whole number 0–6']]]]);
+	checkRanges(r, add, ROUNDING_RANGES);
 }
 
 function refineLimits(l: Record<string, unknown>, add: Add): void {
-	checkRanges(l, add, [
-		['maxAtInterfaceGm2', NON_NEGATIVE],
-		['maxTotalGm2', NON_NEGATIVE]
-	]);
+	checkRanges(l, add, LIMIT_RANGES);
 }
 
 /* ------------------------------------------------------------------ shapes */
@@ -285,17 +305,8 @@ const elementShape = z.object({
 });
 
 function refineElement(e: Record<string, unknown>, add: Add): void {
-	checkRanges(e, add, [
-		['rsi', RESISTANCE_LIMIT],
-		['rse', RESISTANCE_LIMIT],
-		['surfaceRsi', [[(v) => v > 0 && v <= 10, 'must be over 0 and at most 10 m²·K/W']]]
-	]);
-	if (isObject(e.designTemperatures)) {
-		checkRanges(e.designTemperatures, prefixed(add, ['designTemperatures']), [
-			['internal', TEMPERATURE],
-			['external', TEMPERATURE]
-		]);
-	}
+	checkRanges(e, add, ELEMENT_RANGES);
+	if (isObject(e.designTemperatures)) checkRanges(e.designTemperatures, prefixed(add, ['designTemperatures']), DESIGN_RANGES);
 	if (isObject(e.rounding)) refineRounding(e.rounding, prefixed(add, ['rounding']));
 	if (isObject(e.moistureLimits)) refineLimits(e.moistureLimits, prefixed(add, ['moistureLimits']));
 	const internal = isObject(e.internal) ? e.internal : undefined;
@@ -306,8 +317,9 @@ function refineElement(e: Record<string, unknown>, add: Add): void {
 		}
 	}
 
-	const layers = (Array.isArray(e.layers) ? e.layers : []).map((l) => (isObject(l) ? l : {}));
-	layers.forEach((l, i) => refineLayer(l, prefixed(add, ['layers', i])));
+	// Entries that are not objects are type errors zod reports; the rules see them as empty.
+	const layers: Record<string, unknown>[] = Array.isArray(e.layers) ? e.layers.map((l) => (isObject(l) ? l : {})) : [];
+	for (let i = 0; i < layers.length; i++) refineLayer(layers[i], prefixed(add, ['layers', i]));
 	const well = layers.findIndex((l) => l.air === 'well-ventilated');
 	if (well === 0) add(['layers', 0, 'air'], 'the first layer cannot be well ventilated: no layer would remain inside it');
 	const active = well < 0 ? layers.length : well;
@@ -322,9 +334,7 @@ function refineElement(e: Record<string, unknown>, add: Add): void {
 	if (e.climate === undefined) return;
 	if (Array.isArray(e.climate)) {
 		const climate = e.climate;
-		climate.forEach((m, i) => {
-			if (isObject(m)) refineClimateMonth(m, prefixed(add, ['climate', i]));
-		});
+		for (let i = 0; i < climate.length; i++) if (isObject(climate[i])) refineClimateMonth(climate[i], prefixed(add, ['climate', i]));
 		if (climate.length !== 12) {
 			add(['climate'], `12 months are required, got ${climate.length}`);
 		} else {
