@@ -18,6 +18,7 @@ import {
 	type MaterialValuesInput,
 	type FieldChange
 } from '../library/schema';
+import { parseNumber } from './csv/read';
 import { plausibilityWarnings, type Warning } from '../library/ranges';
 import {
 	applyRevisionUpdate,
@@ -634,4 +635,41 @@ export async function listAllCurrent(organisationId: string): Promise<MaterialVa
 		.orderBy('m.code')
 		.select('r.*', 'm.code');
 	return rows.map(valuesOfRow);
+}
+
+const FORM_NUMBERS = [
+	'lambda',
+	'resistance',
+	'muDry',
+	'muWet',
+	'sd',
+	'density',
+	'specificHeat',
+	'thicknessMinMm',
+	'thicknessMaxMm'
+];
+
+/** The values of the material form (numbers with a point or a comma), and issues for what is not a number. */
+export function valuesFromForm(fd: FormData): {
+	raw: Record<string, unknown>;
+	issues: { field: string; message: string }[];
+	confirmWarnings: boolean;
+} {
+	const raw: Record<string, unknown> = {};
+	const issues: { field: string; message: string }[] = [];
+	const text = (k: string) => {
+		const v = fd.get(k);
+		return typeof v === 'string' ? v.trim() : '';
+	};
+	for (const k of ['code', 'name', 'manufacturer', 'category']) raw[k] = text(k);
+	for (const k of ['lambdaKind', 'source', 'sourceIssued', 'sourceExpires', 'notes'])
+		raw[k] = text(k) || null;
+	if (!raw.manufacturer) raw.manufacturer = 'generic';
+	for (const k of FORM_NUMBERS) {
+		const n = parseNumber(text(k), ';');
+		if (n.ok) raw[k] = n.value;
+		else issues.push({ field: k, message: n.message });
+	}
+	raw.indicative = fd.get('indicative') !== null;
+	return { raw, issues, confirmWarnings: fd.get('confirmWarnings') === 'yes' };
 }

@@ -1,0 +1,29 @@
+import { fail, redirect } from '@sveltejs/kit';
+import { requireRole } from '$lib/server/guard';
+import { createMaterial, LibraryError, valuesFromForm } from '$lib/server/materials';
+
+export const load = (event) => {
+	requireRole(event, 'assessor', 'admin');
+	return {};
+};
+
+export const actions = {
+	default: async function create(event) {
+		const member = requireRole(event, 'assessor', 'admin');
+		const { raw, issues, confirmWarnings } = valuesFromForm(await event.request.formData());
+		if (issues.length) return fail(400, { values: raw, issues, warnings: [] });
+		let id: string;
+		try {
+			id = (
+				await createMaterial({ userId: member.user.id, organisationId: member.organisationId }, raw, {
+					confirmWarnings
+				})
+			).id;
+		} catch (e) {
+			if (e instanceof LibraryError)
+				return fail(e.status, { values: raw, issues: e.issues, warnings: e.warnings, error: e.message });
+			throw e;
+		}
+		redirect(303, `/library/${id}`);
+	}
+};
