@@ -19,7 +19,9 @@ test('an assessor builds a wall from the library and sees live results', async (
 	// Layer 1 from the library: plasterboard.
 	await page.getByRole('button', { name: 'Choose layer 1 from the library' }).click();
 	await page.getByLabel('Search the library').fill('plasterboard');
-	await expect(page.locator('#material-results').getByRole('option').first()).toContainText('plasterboard', { ignoreCase: true });
+	await expect(page.locator('#material-results').getByRole('option').first()).toContainText('plasterboard', {
+		ignoreCase: true
+	});
 	await page.getByLabel('Search the library').press('Enter');
 	await page.getByLabel('Layer 1 thickness in mm').fill('12.5');
 	// Layer 2: glass mineral wool from the library.
