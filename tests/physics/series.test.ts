@@ -71,6 +71,30 @@ describe('solveSeries (Thomas algorithm on the assembled tridiagonal system)', (
 		stiff.forEach((v, i) => expect(out[i]).toBeCloseTo(v, 6));
 	});
 
+	it('merges any pattern of zero-resistance elements exactly (random chains against a dense solve of the merged system)', () => {
+		const rnd = lcg(77);
+		for (let trial = 0; trial < 300; trial++) {
+			const n = 1 + Math.floor(rnd() * 14);
+			const g = Array.from({ length: n }, () => (rnd() < 0.3 ? Infinity : 10 ** (rnd() * 4 - 1)));
+			const finite = g.filter((x) => x !== Infinity);
+			const left = 20;
+			const right = finite.length ? -5 : 20; // an all-zero-resistance chain needs equal ends
+			const out = new Array<number>(n + 1).fill(0);
+			const q = solveSeries(g, 0, n, left, right, out);
+			// reference: dense solve of the chain without the zero-resistance elements, mapped back
+			const merged = finite.length ? denseSeries(finite, left, right) : [left];
+			let k = 0;
+			const expected = [left];
+			for (let e = 0; e < n; e++) {
+				if (g[e] !== Infinity) k++;
+				expected.push(merged[k]);
+			}
+			for (let i = 0; i <= n; i++) expect(Math.abs(out[i] - expected[i])).toBeLessThan(1e-9);
+			const total = finite.reduce((a, x) => a + 1 / x, 0);
+			expect(q).toBeCloseTo(finite.length ? (left - right) / total : 0, 8);
+		}
+	});
+
 	it('splitting an element into equal sub-elements interpolates linearly and keeps the flux', () => {
 		const whole = new Float64Array(3);
 		const q1 = solveSeries([1 / 0.13, 1 / 4], 0, 2, 20, 0, whole);

@@ -196,7 +196,7 @@ export function runGlaser(chain: GlaserChain, months: readonly GlaserMonth[]): G
 		monthPs[m] = pArr;
 	}
 
-	const work: SeriesWork = { g: zeros(nn), c: zeros(nn), d: zeros(nn) };
+	const work: SeriesWork = { c: zeros(nn) };
 	const pNode = zeros(nn);
 	const vert = zeros(G);
 	const vertP = zeros(G);

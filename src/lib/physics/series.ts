@@ -8,25 +8,22 @@
  *
  * Heat uses g = 1/R (W/(m²·K)) with temperatures; vapour diffusion uses g = δ0/sd
  * (kg/(m²·s·Pa)) with vapour pressures. A zero resistance (R = 0, or sd = 0) is passed as
- * g = Infinity: the two nodes of such an element are merged into one before assembly, so the
- * system stays finite and exact.
+ * g = Infinity: the two nodes of such an element are merged into one node during the sweep, so
+ * the system stays finite and exact.
  */
 
 /** Scratch space for {@link solveSeries}; reuse it across calls to avoid allocation. */
 export interface SeriesWork {
-	/** compacted conductances (zero-resistance elements removed) */
-	g: { [index: number]: number; length: number };
-	/** Thomas algorithm modified super-diagonal */
+	/** the forward sweep's coefficients c[i] of T[i] = d[i] − c[i]·T[i+1], by node index */
 	c: { [index: number]: number; length: number };
-	/** Thomas algorithm modified right-hand side, then the solved group values */
-	d: { [index: number]: number; length: number };
 }
 
-/** Allocate scratch space for chains of up to `maxElements` elements. */
-export function createSeriesWork(maxElements: number): SeriesWork {
-	const n = Math.max(1, maxElements) + 1;
-	// Plain arrays: much cheaper to allocate than small typed arrays.
-	return { g: new Array<number>(n).fill(0), c: new Array<number>(n).fill(0), d: new Array<number>(n).fill(0) };
+/** Allocate scratch space for chains whose last node index is at most `maxNodeIndex`. */
+export function createSeriesWork(maxNodeIndex: number): SeriesWork {
+	// A plain array: much cheaper to allocate than a small typed array.
+	const c = new Array<number>(Math.max(1, maxNodeIndex) + 1);
+	for (let i = 0; i < c.length; i++) c[i] = 0;
+	return { c };
 }
 
 /**
@@ -35,8 +32,14 @@ export function createSeriesWork(maxElements: number): SeriesWork {
  * the flux from the left end towards the right end, in units of g × value
  * (W/m² for heat with g in W/(m²·K); kg/(m²·s) for vapour with g in kg/(m²·s·Pa)).
  *
- * Conductances must be > 0; Infinity marks a zero-resistance element. Throws if the whole
- * chain has zero resistance while the two fixed values differ.
+ * Row i of the assembled matrix reads −g[i−1]·T[i−1] + (g[i−1] + g[i])·T[i] − g[i]·T[i+1] = 0.
+ * The forward sweep of the Thomas algorithm turns each row into T[i] = d[i] − c[i]·T[i+1]; back
+ * substitution then runs from the fixed right end. An element of g = Infinity joins its two nodes:
+ * its row becomes T[i] = T[i+1] (c = −1, d = 0) and the next row takes over the left-hand state,
+ * which is exactly the assembly of the merged node.
+ *
+ * Conductances must be > 0. Throws if the whole chain has zero resistance while the two fixed
+ * values differ.
  */
 export function solveSeries(
 	g: ArrayLike<number>,
@@ -47,59 +50,47 @@ export function solveSeries(
 	out: { [index: number]: number },
 	work?: SeriesWork
 ): number {
-	const w = work && work.g.length > to - from ? work : createSeriesWork(to - from);
-	const gc = w.g;
-	const cp = w.c;
-	const t = w.d;
-
-	// Merge nodes joined by zero-resistance elements: only finite conductances are assembled.
-	let m = 0;
+	const cs = (work && work.c.length > to ? work : createSeriesWork(to)).c;
+	let gl = g[from];
+	if (!(gl > 0)) throw new RangeError(`element ${from}: conductance must be > 0, got ${gl}`);
+	let c = 0;
+	let d = left;
+	out[from] = left;
+	for (let i = from + 1; i < to; i++) {
+		const gr = g[i];
+		if (!(gr > 0)) throw new RangeError(`element ${i}: conductance must be > 0, got ${gr}`);
+		if (gr !== Infinity && gl !== Infinity) {
+			const inv = 1 / (gl + gr + gl * c);
+			d = gl * d * inv;
+			c = -gr * inv;
+			cs[i] = c;
+			out[i] = d;
+			gl = gr;
+		} else if (gl === Infinity) {
+			// Still joined to the fixed left node: T[i] = left.
+			cs[i] = 0;
+			out[i] = left;
+			gl = gr;
+		} else {
+			// Node i + 1 joins node i; the merged row continues with the same left-hand state.
+			cs[i] = -1;
+			out[i] = 0;
+		}
+	}
+	if (gl === Infinity && to > from) {
+		// Every element so far joined the left node; the last element joins the right one too.
+		if (left !== right) throw new RangeError('series has zero total resistance between different end values');
+	}
+	out[to] = right;
+	let next = right;
+	for (let i = to - 1; i > from; i--) {
+		next = out[i] - cs[i] * next;
+		out[i] = next;
+	}
+	// Flux through the first element of finite conductance.
 	for (let e = from; e < to; e++) {
 		const ge = g[e];
-		if (!(ge > 0)) throw new RangeError(`element ${e}: conductance must be > 0, got ${ge}`);
-		if (ge !== Infinity) gc[m++] = ge;
+		if (ge !== Infinity) return ge * (out[e] - out[e + 1]);
 	}
-	if (m === 0) {
-		if (left !== right) throw new RangeError('series has zero total resistance between different end values');
-		for (let i = from; i <= to; i++) out[i] = left;
-		return 0;
-	}
-
-	// Unknowns are the merged nodes 1 … m − 1; merged node 0 is `left`, merged node m is `right`.
-	// Row i of the assembled matrix: −g[i−1]·T[i−1] + (g[i−1] + g[i])·T[i] − g[i]·T[i+1] = 0, with
-	// the fixed end values moved to the right-hand side of rows 1 and m − 1.
-	t[0] = left;
-	t[m] = right;
-	if (m >= 2) {
-		// Forward sweep (one reciprocal per row on the critical path).
-		let gPrev = gc[0];
-		let c = 0; // modified super-diagonal of the previous row
-		let d = gPrev * left; // modified right-hand side of the previous row (row 1 before scaling)
-		for (let i = 1; i < m; i++) {
-			const gi = gc[i];
-			const inv = 1 / (gPrev + gi + gPrev * c); // b − a·c' with a = −g[i−1]
-			const rhs = i === 1 ? d : gPrev * d; // d_i − a·d'_{i−1}, d_i = 0 for interior rows
-			c = -gi * inv;
-			d = (i === m - 1 ? rhs + gi * right : rhs) * inv;
-			cp[i] = c;
-			t[i] = d;
-			gPrev = gi;
-		}
-		// Back substitution: T[i] = d'[i] − c'[i]·T[i+1] (the last row has no super-diagonal).
-		for (let i = m - 2; i >= 1; i--) t[i] -= cp[i] * t[i + 1];
-	}
-
-	// Map merged values back onto every node.
-	if (m === to - from) {
-		for (let i = 1; i < m; i++) out[from + i] = t[i];
-	} else {
-		let k = 0;
-		for (let e = from; e < to; e++) {
-			if (g[e] !== Infinity) k++;
-			out[e + 1] = t[k];
-		}
-	}
-	out[from] = left;
-	out[to] = right;
-	return gc[0] * (t[0] - t[1]);
+	return 0;
 }
