@@ -38,7 +38,7 @@ export const actions = {
 		}
 		return { done: 'Limit table saved.' };
 	},
-	default: async function makeDefault(event) {
+	makeDefault: async function makeDefault(event) {
 		const member = requireRole(event, 'admin');
 		if (!(await setDefaultLimitTable(member, event.params.limitTableId))) error(404, NOT_FOUND);
 		return { done: "This is now the organisation's default limit table." };
