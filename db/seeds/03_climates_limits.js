@@ -92,12 +92,18 @@ export const DEMO_TEMPLATES = [
 	{
 		name: 'Masonry cavity wall, full-fill mineral wool',
 		kind: 'external-wall',
-		description: `Plaster on aircrete inner leaf, 100 mm full-fill mineral-wool cavity batts, clay-brick outer leaf. ${GENERIC}`,
+		description: `Plaster on aerated concrete inner leaf, 100 mm full-fill mineral-wool cavity batts, clay-brick outer leaf. ${GENERIC}`,
 		layers: [
-			{ code: 'PL-GYP-13', name: 'Gypsum plaster', thicknessMm: 13, lambda: 0.4, mu: 10 },
-			{ code: 'MS-AAC-100', name: 'Aircrete block inner leaf', thicknessMm: 100, lambda: 0.15, mu: 6 },
-			{ code: 'IN-MW-035', name: 'Mineral wool cavity batt', thicknessMm: 100, lambda: 0.035, mu: 1 },
-			{ code: 'MS-BRICK', name: 'Clay brick outer leaf', thicknessMm: 102.5, lambda: 0.77, mu: 10 }
+			{ code: 'G-PLA-GYP-1000', name: 'Gypsum plaster', thicknessMm: 13, lambda: 0.4, mu: 10 },
+			{
+				code: 'G-MAS-AAC-500',
+				name: 'Aerated concrete block inner leaf',
+				thicknessMm: 100,
+				lambda: 0.14,
+				mu: 10
+			},
+			{ code: 'G-INS-GLW-035', name: 'Mineral wool cavity batt', thicknessMm: 100, lambda: 0.035, mu: 1 },
+			{ code: 'G-MAS-BRICK-1800', name: 'Clay brick outer leaf', thicknessMm: 102.5, lambda: 0.77, mu: 10 }
 		]
 	},
 	{
@@ -105,39 +111,39 @@ export const DEMO_TEMPLATES = [
 		kind: 'external-wall',
 		description: `Plasterboard, vapour control layer, 140 mm studs filled with mineral wool (15 % timber fraction with noggings), OSB sheathing, 40 mm wood-fibre board, breather membrane, ventilated cavity and brick cladding. ${GENERIC}`,
 		layers: [
-			{ code: 'PL-PB-12.5', name: 'Gypsum plasterboard', thicknessMm: 12.5, lambda: 0.21, mu: 10 },
-			{ code: 'MB-VCL', name: 'Vapour control layer', thicknessMm: 0.2, resistance: 0, sd: 20 },
+			{ code: 'G-PLA-GYPBD-700', name: 'Gypsum plasterboard', thicknessMm: 12.5, lambda: 0.21, mu: 10 },
+			{ code: 'G-MEM-VCL-PE', name: 'Vapour control layer', thicknessMm: 0.2, resistance: 0, sd: 50 },
 			{
-				code: 'IN-MW-035',
+				code: 'G-INS-GLW-035',
 				name: 'Mineral wool between timber studs',
 				thicknessMm: 140,
 				lambda: 0.035,
 				mu: 1,
 				bridge: { lambda: 0.13, fraction: 0.15, mu: 50, name: 'Softwood studs and noggings' }
 			},
-			{ code: 'TB-OSB', name: 'OSB sheathing', thicknessMm: 9, lambda: 0.13, mu: 50 },
-			{ code: 'IN-WF-040', name: 'Wood-fibre sheathing board', thicknessMm: 40, lambda: 0.045, mu: 5 },
-			{ code: 'MB-BREATHER', name: 'Breather membrane', thicknessMm: 0.5, resistance: 0, sd: 0.05 },
+			{ code: 'G-TIM-OSB-650', name: 'OSB sheathing', thicknessMm: 9, lambda: 0.13, mu: 50 },
+			{ code: 'G-INS-WF-040', name: 'Wood-fibre sheathing board', thicknessMm: 40, lambda: 0.04, mu: 5 },
+			{ code: 'G-MEM-BREATH', name: 'Breather membrane', thicknessMm: 0.5, resistance: 0, sd: 0.02 },
 			{ code: null, name: 'Ventilated cavity', thicknessMm: 50, air: 'well-ventilated', sd: 0 },
-			{ code: 'MS-BRICK', name: 'Clay brick cladding', thicknessMm: 102.5, lambda: 0.77, mu: 10 }
+			{ code: 'G-MAS-BRICK-1800', name: 'Clay brick cladding', thicknessMm: 102.5, lambda: 0.77, mu: 10 }
 		]
 	},
 	{
-		name: 'Loft insulated at ceiling, 300 mm mineral wool',
+		name: 'Loft insulated at ceiling, 250 mm mineral wool',
 		kind: 'pitched-roof-ceiling',
-		description: `Plasterboard ceiling, 100 mm mineral wool between 47 mm joists at 600 mm centres, 200 mm across the joists, ventilated roof space above. ${GENERIC}`,
+		description: `Plasterboard ceiling, 100 mm mineral wool between 47 mm joists at 600 mm centres, 150 mm across the joists, ventilated roof space above. ${GENERIC}`,
 		layers: [
-			{ code: 'PL-PB-12.5', name: 'Gypsum plasterboard', thicknessMm: 12.5, lambda: 0.21, mu: 10 },
+			{ code: 'G-PLA-GYPBD-700', name: 'Gypsum plasterboard', thicknessMm: 12.5, lambda: 0.21, mu: 10 },
 			{
-				code: 'IN-MW-044',
+				code: 'G-INS-GLW-035',
 				name: 'Mineral wool between joists',
 				thicknessMm: 100,
-				lambda: 0.044,
+				lambda: 0.035,
 				mu: 1,
 				bridge: { lambda: 0.13, fraction: 47 / 600, mu: 50, name: 'Softwood ceiling joists' },
 				bridgeGeometry: { widthMm: 47, centresMm: 600 }
 			},
-			{ code: 'IN-MW-044', name: 'Mineral wool across joists', thicknessMm: 200, lambda: 0.044, mu: 1 },
+			{ code: 'G-INS-GLW-035', name: 'Mineral wool across joists', thicknessMm: 150, lambda: 0.035, mu: 1 },
 			{ code: null, name: 'Ventilated roof space', thicknessMm: 300, air: 'well-ventilated', sd: 0 }
 		]
 	}
@@ -242,7 +248,7 @@ async function linkToLibrary(trx, organisationId, code, layer) {
 	// for a thin membrane); a layer the library cannot describe keeps its own values.
 	if (layer.lambda !== undefined && m.lambda != null) linked.lambda = m.lambda;
 	if (layer.resistance !== undefined && m.resistance != null) linked.resistance = m.resistance;
-	if (layer.mu !== undefined && (m.mu_wet ?? m.mu_dry) != null) linked.mu = m.mu_wet ?? m.mu_dry;
+	if (layer.mu !== undefined && (m.mu_dry ?? m.mu_wet) != null) linked.mu = m.mu_dry ?? m.mu_wet;
 	if (layer.sd !== undefined && m.sd != null) linked.sd = m.sd;
 	return linked;
 }
