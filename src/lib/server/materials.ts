@@ -4,6 +4,7 @@
  * new revision and moves materials.current_revision_id, so a layer that points at a revision keeps
  * the values it was calculated with. Every query filters by the caller's organisation.
  */
+import { randomUUID } from 'node:crypto';
 import { db, type Db } from './db';
 import { logActivity } from './activity';
 import {
@@ -284,7 +285,35 @@ export async function currentByCodes(
 	return out;
 }
 
-const BATCH = 1000;
+const BATCH = 5000;
+
+const REVISION_INSERT_COLUMNS = [
+	'id',
+	'organisation_id',
+	'material_id',
+	'revision',
+	...Object.values(COLUMN),
+	'status',
+	'created_by'
+];
+
+/**
+ * Insert many rows in one statement: the rows travel as one JSON parameter and PostgreSQL spreads
+ * them into columns (json_populate_recordset), which is far quicker than thousands of bindings.
+ */
+async function insertJson(
+	trx: Db,
+	table: 'materials' | 'material_revisions',
+	columns: string[],
+	rows: Record<string, unknown>[]
+) {
+	if (rows.length === 0) return;
+	const cols = columns.map((c) => `"${c}"`).join(', ');
+	await trx.raw(
+		`INSERT INTO ${table} (${cols}) SELECT ${cols} FROM json_populate_recordset(NULL::${table}, ?::json)`,
+		[JSON.stringify(rows)]
+	);
+}
 
 /** Insert new materials with their first revision; returns the ids by code. Caller owns the transaction. */
 export async function insertNewMaterials(
@@ -295,26 +324,31 @@ export async function insertNewMaterials(
 	const out = new Map<string, { materialId: string; revisionId: string }>();
 	for (let i = 0; i < items.length; i += BATCH) {
 		const chunk = items.slice(i, i + BATCH);
-		const mats: { id: string; code: string }[] = await trx('materials')
-			.insert(chunk.map((v) => ({ organisation_id: actor.organisationId, code: v.code })))
-			.returning(['id', 'code']);
-		const idByCode = new Map(mats.map((m) => [m.code, m.id]));
-		const revs: { id: string; material_id: string }[] = await trx('material_revisions')
-			.insert(
-				chunk.map((v) => ({
-					...revisionColumns(v),
-					organisation_id: actor.organisationId,
-					material_id: idByCode.get(v.code),
-					revision: 1,
-					status: 'unverified',
-					created_by: actor.userId
-				}))
-			)
-			.returning(['id', 'material_id']);
-		await setCurrent(trx, revs);
-		const codeById = new Map(mats.map((m) => [m.id, m.code]));
-		for (const r of revs)
-			out.set(codeById.get(r.material_id)!, { materialId: r.material_id, revisionId: r.id });
+		const mats: Record<string, unknown>[] = [];
+		const revs: Record<string, unknown>[] = [];
+		for (const v of chunk) {
+			const materialId = randomUUID();
+			const revisionId = randomUUID();
+			// materials.current_revision_id is checked at commit (deferred), so both rows go in at once.
+			mats.push({
+				id: materialId,
+				organisation_id: actor.organisationId,
+				code: v.code,
+				current_revision_id: revisionId
+			});
+			revs.push({
+				...revisionColumns(v),
+				id: revisionId,
+				organisation_id: actor.organisationId,
+				material_id: materialId,
+				revision: 1,
+				status: 'unverified',
+				created_by: actor.userId
+			});
+			out.set(v.code, { materialId, revisionId });
+		}
+		await insertJson(trx, 'materials', ['id', 'organisation_id', 'code', 'current_revision_id'], mats);
+		await insertJson(trx, 'material_revisions', REVISION_INSERT_COLUMNS, revs);
 	}
 	return out;
 }
@@ -331,18 +365,16 @@ export async function insertNewRevisions(
 	const out: { materialId: string; revisionId: string }[] = [];
 	for (let i = 0; i < items.length; i += BATCH) {
 		const chunk = items.slice(i, i + BATCH);
-		const revs: { id: string; material_id: string }[] = await trx('material_revisions')
-			.insert(
-				chunk.map((it) => ({
-					...revisionColumns(it.values),
-					organisation_id: actor.organisationId,
-					material_id: it.materialId,
-					revision: it.revision + 1,
-					status: 'unverified',
-					created_by: actor.userId
-				}))
-			)
-			.returning(['id', 'material_id']);
+		const revs = chunk.map((it) => ({
+			...revisionColumns(it.values),
+			id: randomUUID(),
+			organisation_id: actor.organisationId,
+			material_id: it.materialId,
+			revision: it.revision + 1,
+			status: 'unverified',
+			created_by: actor.userId
+		}));
+		await insertJson(trx, 'material_revisions', REVISION_INSERT_COLUMNS, revs);
 		await trx('material_revisions')
 			.where('organisation_id', actor.organisationId)
 			.whereIn(
@@ -351,20 +383,18 @@ export async function insertNewRevisions(
 			)
 			.whereNot('status', 'superseded')
 			.update({ status: 'superseded' });
-		await setCurrent(trx, revs);
+		await trx.raw(
+			`UPDATE materials AS m SET current_revision_id = v.current_revision_id, updated_at = now()
+			 FROM json_populate_recordset(NULL::materials, ?::json) AS v
+			 WHERE m.id = v.id AND m.organisation_id = ?`,
+			[
+				JSON.stringify(revs.map((r) => ({ id: r.material_id, current_revision_id: r.id }))),
+				actor.organisationId
+			]
+		);
 		for (const r of revs) out.push({ materialId: r.material_id, revisionId: r.id });
 	}
 	return out;
-}
-
-async function setCurrent(trx: Db, revs: { id: string; material_id: string }[]) {
-	if (revs.length === 0) return;
-	const values = revs.map(() => '(?::uuid, ?::uuid)').join(',');
-	await trx.raw(
-		`UPDATE materials AS m SET current_revision_id = v.rev, updated_at = now()
-		 FROM (VALUES ${values}) AS v(mat, rev) WHERE m.id = v.mat`,
-		revs.flatMap((r) => [r.material_id, r.id])
-	);
 }
 
 /** Validate values for a form or the API: field issues refuse, warnings need confirming. */

@@ -232,7 +232,13 @@ export function parseCsv(
 
 	Papa.parse<string[]>(text, {
 		delimiter,
-		newline: undefined,
+		newline: text.includes('\r\n')
+			? '\r\n'
+			: text.includes('\n')
+				? '\n'
+				: text.includes('\r')
+					? '\r'
+					: undefined,
 		quoteChar: '"',
 		skipEmptyLines: true,
 		step: (res) => {
