@@ -8,7 +8,13 @@
 //   floor (b)      dense-matrix solve (ml-matrix LU) of the same assembled system
 import { cpus, loadavg } from 'node:os';
 import { Matrix, solve } from 'ml-matrix';
-import { analyseElement, buildThermalModel, createSeriesWork, solveSeries, type ElementInput } from '../src/lib/physics/index';
+import {
+	analyseElement,
+	buildThermalModel,
+	createSeriesWork,
+	solveSeries,
+	type ElementInput
+} from '../src/lib/physics/index';
 
 const TARGET_FULL_US = 50;
 const TARGET_KERNEL_RATIO = 3;
@@ -22,10 +28,22 @@ const input: ElementInput = {
 	layers: [
 		{ name: 'gypsum plaster', thicknessMm: 10, lambda: 0.4, mu: 10 },
 		{ name: 'plasterboard', thicknessMm: 12.5, lambda: 0.21, mu: 10 },
-		{ name: 'service void between battens', thicknessMm: 25, air: 'unventilated', bridge: { lambda: 0.13, widthMm: 38, centresMm: 600, mu: 50 } },
+		{
+			name: 'service void between battens',
+			thicknessMm: 25,
+			air: 'unventilated',
+			bridge: { lambda: 0.13, widthMm: 38, centresMm: 600, mu: 50 }
+		},
 		{ name: 'vapour control layer', thicknessMm: 0.2, resistance: 0, sd: 20 },
 		{ name: 'OSB', thicknessMm: 15, lambda: 0.13, mu: 150 },
-		{ name: 'mineral wool between studs', thicknessMm: 140, lambda: 0.035, mu: 1, bridge: { lambda: 0.13, fraction: 0.15, mu: 50 }, airGapLevel: 1 },
+		{
+			name: 'mineral wool between studs',
+			thicknessMm: 140,
+			lambda: 0.035,
+			mu: 1,
+			bridge: { lambda: 0.13, fraction: 0.15, mu: 50 },
+			airGapLevel: 1
+		},
 		{ name: 'wood fibre board', thicknessMm: 60, lambda: 0.045, mu: 5 },
 		{ name: 'breather membrane', thicknessMm: 0.5, resistance: 0, sd: 0.05 },
 		{ name: 'counter battens, still air', thicknessMm: 25, air: 'unventilated' },
@@ -133,19 +151,34 @@ const r = analyseElement(input);
 const f = (x: number, d = 2) => x.toFixed(d);
 const ns = (x: number) => `${f(x * 1000, 1)} ns`;
 const load = loadavg()[0];
-console.log(`Envelo physics benchmark — one core, Node ${process.version}, ${cpus().length} cores, load average ${f(load, 1)}`);
-console.log(`build-up: ${input.layers.length} layers, 2 bridged, 12 climate months; ${r.condensation!.nodes.length} Glaser nodes; U = ${f(r.uValue, 4)} W/(m²·K); outcome ${r.condensation!.outcome}`);
+console.log(
+	`Envelo physics benchmark — one core, Node ${process.version}, ${cpus().length} cores, load average ${f(load, 1)}`
+);
+console.log(
+	`build-up: ${input.layers.length} layers, 2 bridged, 12 climate months; ${r.condensation!.nodes.length} Glaser nodes; U = ${f(r.uValue, 4)} W/(m²·K); outcome ${r.condensation!.outcome}`
+);
 console.log(`kernel vs closed form, largest node difference: ${maxDiff.toExponential(2)} °C`);
 console.log('medians per call; CPU = time on the core (process.cpuUsage), wall = elapsed');
 console.log('');
-console.log(`full analysis (analyseElement)     CPU ${f(tFull.cpu)} µs   wall ${f(tFull.wall)} µs   ${f(1e6 / tFull.cpu, 0)} elements/s on one core`);
+console.log(
+	`full analysis (analyseElement)     CPU ${f(tFull.cpu)} µs   wall ${f(tFull.wall)} µs   ${f(1e6 / tFull.cpu, 0)} elements/s on one core`
+);
 console.log(`FE kernel (Thomas, ${n} elements)     CPU ${ns(tKernel.cpu)}   wall ${ns(tKernel.wall)}`);
 console.log(`floor (a) closed-form series sum     CPU ${ns(tClosed.cpu)}   wall ${ns(tClosed.wall)}`);
 console.log(`floor (b) dense solve (ml-matrix)    CPU ${ns(tDense.cpu)}   wall ${ns(tDense.wall)}`);
-console.log(`ratio FE kernel / closed form        ${f(tKernel.cpu / tClosed.cpu)}× (CPU)   ${f(tKernel.wall / tClosed.wall)}× (wall)`);
+console.log(
+	`ratio FE kernel / closed form        ${f(tKernel.cpu / tClosed.cpu)}× (CPU)   ${f(tKernel.wall / tClosed.wall)}× (wall)`
+);
 console.log(`ratio FE kernel / dense solve        ${f(tKernel.cpu / tDense.cpu, 4)}× (CPU)`);
 console.log('');
-console.log(`target: full analysis under ${TARGET_FULL_US} µs — ${tFull.cpu < TARGET_FULL_US ? 'met' : 'NOT met'} (CPU), ${tFull.wall < TARGET_FULL_US ? 'met' : 'NOT met'} (wall)`);
-console.log(`target: FE kernel within ${TARGET_KERNEL_RATIO}× of the closed form — ${tKernel.cpu / tClosed.cpu <= TARGET_KERNEL_RATIO ? 'met' : 'NOT met'} (CPU)`);
-if (load > cpus().length) console.log(`note: the machine is shared and loaded (load ${f(load, 1)} on ${cpus().length} cores); wall times include waiting for a core.`);
+console.log(
+	`target: full analysis under ${TARGET_FULL_US} µs — ${tFull.cpu < TARGET_FULL_US ? 'met' : 'NOT met'} (CPU), ${tFull.wall < TARGET_FULL_US ? 'met' : 'NOT met'} (wall)`
+);
+console.log(
+	`target: FE kernel within ${TARGET_KERNEL_RATIO}× of the closed form — ${tKernel.cpu / tClosed.cpu <= TARGET_KERNEL_RATIO ? 'met' : 'NOT met'} (CPU)`
+);
+if (load > cpus().length)
+	console.log(
+		`note: the machine is shared and loaded (load ${f(load, 1)} on ${cpus().length} cores); wall times include waiting for a core.`
+	);
 console.log(`(measured in ${f(elapsed, 1)} s)`);

@@ -17,7 +17,12 @@ const timberFrame = (): ElementInput => ({
 	heatFlow: 'horizontal',
 	layers: [
 		{ name: 'plasterboard', thicknessMm: 12.5, lambda: 0.21 },
-		{ name: 'mineral wool quilt between studs', thicknessMm: 140, lambda: 0.04, bridge: { lambda: 0.12, fraction: 0.15 } },
+		{
+			name: 'mineral wool quilt between studs',
+			thicknessMm: 140,
+			lambda: 0.04,
+			bridge: { lambda: 0.12, fraction: 0.15 }
+		},
 		{ name: 'timber-based sheathing', thicknessMm: 9, lambda: 0.13 },
 		{ name: 'cavity', thicknessMm: 50, air: 'unventilated' }, // 0.18 m²·K/W, as in the example
 		{ name: 'brick outer leaf', thicknessMm: 102, lambda: 0.77 }
@@ -41,8 +46,18 @@ describe('combined method against published worked examples', () => {
 			heatFlow: 'horizontal',
 			layers: [
 				{ name: 'plasterboard', thicknessMm: 12.5, lambda: 0.21 },
-				{ name: 'mineral wool between studs', thicknessMm: 89, lambda: 0.038, bridge: { lambda: 0.13, fraction: 0.118 } },
-				{ name: 'AAC blocks', thicknessMm: 125, lambda: 0.11, bridge: { lambda: 0.88, fraction: 0.067, name: 'mortar' } },
+				{
+					name: 'mineral wool between studs',
+					thicknessMm: 89,
+					lambda: 0.038,
+					bridge: { lambda: 0.13, fraction: 0.118 }
+				},
+				{
+					name: 'AAC blocks',
+					thicknessMm: 125,
+					lambda: 0.11,
+					bridge: { lambda: 0.88, fraction: 0.067, name: 'mortar' }
+				},
 				{ name: 'cavity', thicknessMm: 50, air: 'unventilated' },
 				{ name: 'brick outer leaf', thicknessMm: 102, lambda: 0.77 }
 			]
@@ -82,7 +97,12 @@ describe('combined method, hand calculation (ISO 6946:2017 6.7.2, from memory)',
 			heatFlow: 'horizontal',
 			layers: [
 				{ name: 'board', thicknessMm: 12.5, lambda: 0.21 },
-				{ name: 'insulation with steel studs', thicknessMm: 100, lambda: 0.035, bridge: { lambda: 50, fraction: 0.02 } }
+				{
+					name: 'insulation with steel studs',
+					thicknessMm: 100,
+					lambda: 0.035,
+					bridge: { lambda: 50, fraction: 0.02 }
+				}
 			]
 		});
 		expect(r.rUpper! / r.rLower!).toBeGreaterThan(1.5);
@@ -125,7 +145,10 @@ describe('ΔU corrections (ISO 6946:2017 Annex F, from memory)', () => {
 		const f = { lambda: 17, areaMm2: Math.PI * 4, perM2: 5 };
 		expect(fastenerCorrection(f, 100, 2.857143, 3.219134)).toBeCloseTo(0.0067314, 6);
 		// recessed, 80 mm of 100 mm: × 0.8 → 0.0053851
-		expect(fastenerCorrection({ ...f, penetrationMm: 80 }, 100, 2.857143, 3.219134)).toBeCloseTo(0.0053851, 6);
+		expect(fastenerCorrection({ ...f, penetrationMm: 80 }, 100, 2.857143, 3.219134)).toBeCloseTo(
+			0.0053851,
+			6
+		);
 		// plastic fixings (λ < 1 W/(m·K)) need no correction
 		expect(fastenerCorrection({ ...f, lambda: 0.3 }, 100, 2.857143, 3.219134)).toBe(0);
 	});
@@ -143,7 +166,9 @@ describe('ΔU corrections (ISO 6946:2017 Annex F, from memory)', () => {
 	});
 
 	it('corrections of 3 % or more are applied: air gaps level 1 plus fasteners', () => {
-		const r = analyseElement(wall({ airGapLevel: 1, fasteners: { lambda: 17, areaMm2: Math.PI * 4, perM2: 5 } }));
+		const r = analyseElement(
+			wall({ airGapLevel: 1, fasteners: { lambda: 17, areaMm2: Math.PI * 4, perM2: 5 } })
+		);
 		// ΔU = 0.007877 + 0.006731 = 0.014609 = 4.7 % of U → U = 0.325251
 		expect(r.deltaUAirGaps).toBeCloseTo(0.0078775, 6);
 		expect(r.deltaUFasteners).toBeCloseTo(0.0067314, 6);

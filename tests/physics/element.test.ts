@@ -17,7 +17,13 @@ const wall = (): ElementInput => ({
 	layers: [
 		{ name: 'plasterboard', thicknessMm: 12.5, lambda: 0.21, mu: 10 },
 		{ name: 'vapour control layer', thicknessMm: 0.2, resistance: 0, sd: 50 },
-		{ name: 'mineral wool between studs', thicknessMm: 140, lambda: 0.035, mu: 1, bridge: { lambda: 0.13, widthMm: 38, centresMm: 600, mu: 50 } },
+		{
+			name: 'mineral wool between studs',
+			thicknessMm: 140,
+			lambda: 0.035,
+			mu: 1,
+			bridge: { lambda: 0.13, widthMm: 38, centresMm: 600, mu: 50 }
+		},
 		{ name: 'OSB', thicknessMm: 12, lambda: 0.13, mu: 150, airGapLevel: 1 },
 		{ name: 'wood fibre board', thicknessMm: 60, lambda: 0.045, mu: 5 },
 		{ name: 'ventilated cavity', thicknessMm: 25, air: 'well-ventilated' },
@@ -39,7 +45,8 @@ describe('analyseElement: the contract', () => {
 	it('returns every field of the contract, all finite, and passes the result schema', () => {
 		expect(firstNonFinite(r)).toBeNull();
 		expect(elementResultSchema.safeParse(r).success).toBe(true);
-		for (const k of ['uValue', 'uValueRounded', 'rTotal', 'deltaU', 'heatFlux'] as const) expect(typeof r[k]).toBe('number');
+		for (const k of ['uValue', 'uValueRounded', 'rTotal', 'deltaU', 'heatFlux'] as const)
+			expect(typeof r[k]).toBe('number');
 		expect(r.rUpper).toBeGreaterThan(r.rLower!);
 		expect(r.interfaces).toHaveLength(wall().layers.length + 1);
 		expect(r.surface).toMatchObject({ pass: expect.any(Boolean), criticalMonth: expect.any(Number) });
@@ -73,7 +80,10 @@ describe('analyseElement: the contract', () => {
 	});
 
 	it('a build-up of one layer with only thermal data gives U and profile, no moisture checks', () => {
-		const one = analyseElement({ heatFlow: 'upward', layers: [{ name: 'slab', thicknessMm: 200, lambda: 2.0 }] });
+		const one = analyseElement({
+			heatFlow: 'upward',
+			layers: [{ name: 'slab', thicknessMm: 200, lambda: 2.0 }]
+		});
 		expect(one.uValue).toBeCloseTo(1 / (0.1 + 0.1 + 0.04), 12);
 		expect(one.surface).toBeUndefined();
 		expect(one.condensation).toBeUndefined();
@@ -83,7 +93,9 @@ describe('analyseElement: the contract', () => {
 
 describe('validation names the field and never yields NaN', () => {
 	it('no layers', () => {
-		expect(issuesOf({ heatFlow: 'horizontal', layers: [] })).toEqual([{ path: 'layers', message: 'at least one layer is required' }]);
+		expect(issuesOf({ heatFlow: 'horizontal', layers: [] })).toEqual([
+			{ path: 'layers', message: 'at least one layer is required' }
+		]);
 	});
 
 	it('thickness ≤ 0, λ ≤ 0, NaN', () => {
@@ -98,25 +110,47 @@ describe('validation names the field and never yields NaN', () => {
 		});
 		expect(issues).toContainEqual({ path: 'layers.1.thicknessMm', message: 'must be > 0' });
 		expect(issues).toContainEqual({ path: 'layers.2.lambda', message: 'must be > 0' });
-		expect(issues).toContainEqual({ path: 'layers.3.thicknessMm', message: 'must be a finite number, got NaN' });
+		expect(issues).toContainEqual({
+			path: 'layers.3.thicknessMm',
+			message: 'must be a finite number, got NaN'
+		});
 	});
 
 	it('a bridging fraction outside (0, 1)', () => {
 		for (const fraction of [0, 1, 1.5, -0.1]) {
-			const issues = issuesOf({ heatFlow: 'horizontal', layers: [{ name: 'a', thicknessMm: 100, lambda: 0.04, bridge: { lambda: 0.13, fraction } }] });
-			expect(issues).toEqual([{ path: 'layers.0.bridge.fraction', message: 'must be between 0 and 1 (exclusive)' }]);
+			const issues = issuesOf({
+				heatFlow: 'horizontal',
+				layers: [{ name: 'a', thicknessMm: 100, lambda: 0.04, bridge: { lambda: 0.13, fraction } }]
+			});
+			expect(issues).toEqual([
+				{ path: 'layers.0.bridge.fraction', message: 'must be between 0 and 1 (exclusive)' }
+			]);
 		}
-		expect(issuesOf({ heatFlow: 'horizontal', layers: [{ name: 'a', thicknessMm: 100, lambda: 0.04, bridge: { lambda: 0.13, widthMm: 600, centresMm: 600 } }] })).toEqual([
-			{ path: 'layers.0.bridge.widthMm', message: 'must be smaller than centresMm' }
-		]);
+		expect(
+			issuesOf({
+				heatFlow: 'horizontal',
+				layers: [
+					{
+						name: 'a',
+						thicknessMm: 100,
+						lambda: 0.04,
+						bridge: { lambda: 0.13, widthMm: 600, centresMm: 600 }
+					}
+				]
+			})
+		).toEqual([{ path: 'layers.0.bridge.widthMm', message: 'must be smaller than centresMm' }]);
 	});
 
 	it('11 climate months, a repeated month, a month out of range', () => {
 		const base = wall();
-		expect(issuesOf({ ...base, climate: base.climate!.slice(0, 11) })).toEqual([{ path: 'climate', message: '12 months are required, got 11' }]);
+		expect(issuesOf({ ...base, climate: base.climate!.slice(0, 11) })).toEqual([
+			{ path: 'climate', message: '12 months are required, got 11' }
+		]);
 		const twice = base.climate!.map((m) => ({ ...m }));
 		twice[4].month = 4;
-		expect(issuesOf({ ...base, climate: twice })).toEqual([{ path: 'climate.4.month', message: 'month 4 is given twice (also at climate.3)' }]);
+		expect(issuesOf({ ...base, climate: twice })).toEqual([
+			{ path: 'climate.4.month', message: 'month 4 is given twice (also at climate.3)' }
+		]);
 		const bad = base.climate!.map((m) => ({ ...m }));
 		bad[2].month = 13;
 		bad[5].relativeHumidity = 120;
@@ -131,21 +165,40 @@ describe('validation names the field and never yields NaN', () => {
 		]);
 		const noMu = wall();
 		delete noMu.layers[3].mu;
-		expect(issuesOf(noMu)).toEqual([{ path: 'layers.3.mu', message: 'give μ or sd for the condensation check' }]);
+		expect(issuesOf(noMu)).toEqual([
+			{ path: 'layers.3.mu', message: 'give μ or sd for the condensation check' }
+		]);
 		const noInternal = wall();
 		delete noInternal.internal;
-		expect(issuesOf(noInternal)).toEqual([{ path: 'internal', message: 'internal conditions are required with a climate' }]);
-		expect(issuesOf({ ...wall(), heatFlow: 'sideways' })).toEqual([{ path: 'heatFlow', message: 'must be upward, horizontal or downward' }]);
+		expect(issuesOf(noInternal)).toEqual([
+			{ path: 'internal', message: 'internal conditions are required with a climate' }
+		]);
+		expect(issuesOf({ ...wall(), heatFlow: 'sideways' })).toEqual([
+			{ path: 'heatFlow', message: 'must be upward, horizontal or downward' }
+		]);
 	});
 
 	it('air layers: thickness over the table, opening areas that contradict the kind', () => {
-		const layer = (l: object) => ({ heatFlow: 'horizontal', layers: [{ name: 'wall', thicknessMm: 100, lambda: 0.5 }, { name: 'air', ...l }] });
+		const layer = (l: object) => ({
+			heatFlow: 'horizontal',
+			layers: [
+				{ name: 'wall', thicknessMm: 100, lambda: 0.5 },
+				{ name: 'air', ...l }
+			]
+		});
 		expect(issuesOf(layer({ thicknessMm: 350, air: 'unventilated' }))[0].path).toBe('layers.1.thicknessMm');
 		expect(issuesOf(layer({ thicknessMm: 50, air: 'slightly-ventilated' }))).toEqual([
 			{ path: 'layers.1.openingAreaMm2', message: 'is required for a slightly ventilated air layer' }
 		]);
-		expect(issuesOf(layer({ thicknessMm: 50, air: 'unventilated', openingAreaMm2: 800 }))[0].path).toBe('layers.1.openingAreaMm2');
-		expect(issuesOf({ heatFlow: 'horizontal', layers: [{ name: 'air', thicknessMm: 50, air: 'well-ventilated' }] })[0].path).toBe('layers.0.air');
+		expect(issuesOf(layer({ thicknessMm: 50, air: 'unventilated', openingAreaMm2: 800 }))[0].path).toBe(
+			'layers.1.openingAreaMm2'
+		);
+		expect(
+			issuesOf({
+				heatFlow: 'horizontal',
+				layers: [{ name: 'air', thicknessMm: 50, air: 'well-ventilated' }]
+			})[0].path
+		).toBe('layers.0.air');
 	});
 
 	it('analyseElement throws ElementInputError with the same issues, and a readable message', () => {
@@ -156,7 +209,9 @@ describe('validation names the field and never yields NaN', () => {
 			caught = e;
 		}
 		expect(caught).toBeInstanceOf(ElementInputError);
-		expect((caught as ElementInputError).issues).toEqual([{ path: 'layers.0.thicknessMm', message: 'must be > 0' }]);
+		expect((caught as ElementInputError).issues).toEqual([
+			{ path: 'layers.0.thicknessMm', message: 'must be > 0' }
+		]);
 		expect((caught as Error).message).toBe('layers.0.thicknessMm: must be > 0');
 	});
 

@@ -5,7 +5,14 @@
 // mass-balance checks. Climates and build-ups here are constructed inputs, not real sites.
 import { describe, expect, it } from 'vitest';
 import { analyseElement, type ElementInput, type ElementResult } from '../../src/lib/physics/index';
-import { coldClimate, constantClimate, coolClimate, psatRef, referenceGlaser, type RefLayer } from './helpers';
+import {
+	coldClimate,
+	constantClimate,
+	coolClimate,
+	psatRef,
+	referenceGlaser,
+	type RefLayer
+} from './helpers';
 
 type C = NonNullable<ElementResult['condensation']>;
 
@@ -17,8 +24,12 @@ function refMonths(input: ElementInput) {
 	const internal = input.internal!;
 	return input.climate!.map((c) => {
 		const pe = (c.relativeHumidity / 100) * psatRef(c.temperature);
-		const dp = internal.humidityClass ? excess[internal.humidityClass] * Math.min(1, Math.max(0, 1 - c.temperature / 20)) : 0;
-		const pi = internal.humidityClass ? pe + 1.1 * dp : (internal.relativeHumidity! / 100) * psatRef(internal.temperature);
+		const dp = internal.humidityClass
+			? excess[internal.humidityClass] * Math.min(1, Math.max(0, 1 - c.temperature / 20))
+			: 0;
+		const pi = internal.humidityClass
+			? pe + 1.1 * dp
+			: (internal.relativeHumidity! / 100) * psatRef(internal.temperature);
 		return { month: c.month, te: c.temperature, pe, ti: internal.temperature, pi };
 	});
 }
@@ -40,7 +51,9 @@ function compareWithReference(input: ElementInput, c: C) {
 	for (let m = 0; m < 12; m++) {
 		const mine = c.months[m];
 		for (let g = 0; g < ref.x.length; g++) {
-			expect(Math.abs(mine.accumulatedAt[g] - ref.accumulated[m][g])).toBeLessThan(1e-6 * (1 + ref.accumulated[m][g]));
+			expect(Math.abs(mine.accumulatedAt[g] - ref.accumulated[m][g])).toBeLessThan(
+				1e-6 * (1 + ref.accumulated[m][g])
+			);
 			expect(Math.abs(mine.rate[g] - ref.rates[m][g])).toBeLessThan(1e-6 * (1 + Math.abs(ref.rates[m][g])));
 		}
 	}
@@ -52,11 +65,14 @@ function checkMassBalance(c: C) {
 	for (const m of c.months) {
 		const secs = m.days * 86400;
 		const fin = (2e-10 * (m.vapourPressure[0] - m.vapourPressure[1])) / (c.nodes[1].sdM - c.nodes[0].sdM);
-		const fout = (2e-10 * (m.vapourPressure[last - 1] - m.vapourPressure[last])) / (c.nodes[last].sdM - c.nodes[last - 1].sdM);
+		const fout =
+			(2e-10 * (m.vapourPressure[last - 1] - m.vapourPressure[last])) /
+			(c.nodes[last].sdM - c.nodes[last - 1].sdM);
 		const sumRates = m.rate.reduce((a, b) => a + b, 0);
 		expect(Math.abs((fin - fout) * secs * 1000 - sumRates)).toBeLessThan(1e-6 * (1 + Math.abs(sumRates)));
 		// vapour pressure never exceeds saturation inside the element
-		for (let g = 1; g < last; g++) expect(m.vapourPressure[g]).toBeLessThanOrEqual(m.saturationPressure[g] * (1 + 1e-9));
+		for (let g = 1; g < last; g++)
+			expect(m.vapourPressure[g]).toBeLessThanOrEqual(m.saturationPressure[g] * (1 + 1e-9));
 		for (const a of m.accumulatedAt) expect(a).toBeGreaterThanOrEqual(0);
 	}
 	// month to month: end = start + condensed − evaporated, in cycle order
@@ -224,7 +240,10 @@ describe('Glaser against the independent reference', () => {
 		const limited = analyseElement({ ...input, moistureLimits: { maxAtInterfaceGm2: 500 } }).condensation!;
 		expect(limited.acceptance.pass).toBe(false);
 		expect(limited.acceptance.reasons.join(' ')).toMatch(/exceeds the limit of 500/);
-		const lenient = analyseElement({ ...input, moistureLimits: { maxAtInterfaceGm2: 10000, maxTotalGm2: 10000 } }).condensation!;
+		const lenient = analyseElement({
+			...input,
+			moistureLimits: { maxAtInterfaceGm2: 10000, maxTotalGm2: 10000 }
+		}).condensation!;
 		expect(lenient.acceptance.pass).toBe(true);
 	});
 
@@ -237,7 +256,11 @@ describe('Glaser against the independent reference', () => {
 		const withVcl: ElementInput = {
 			...twoPlanes,
 			internal: { temperature: 20, relativeHumidity: 50 },
-			layers: [twoPlanes.layers[0], { name: 'vapour control layer', thicknessMm: 0.2, resistance: 0, sd: 100 }, ...twoPlanes.layers.slice(1)]
+			layers: [
+				twoPlanes.layers[0],
+				{ name: 'vapour control layer', thicknessMm: 0.2, resistance: 0, sd: 100 },
+				...twoPlanes.layers.slice(1)
+			]
 		};
 		const r = analyseElement(withVcl);
 		expect(r.condensation!.outcome).toBe('none');

@@ -5,7 +5,10 @@ import { Matrix, solve } from 'ml-matrix';
 import type { ElementInput } from '../../src/lib/physics/index';
 
 /** Twelve months of one constant condition (constructed input, not a real site). */
-export function constantClimate(temperature: number, relativeHumidity: number): NonNullable<ElementInput['climate']> {
+export function constantClimate(
+	temperature: number,
+	relativeHumidity: number
+): NonNullable<ElementInput['climate']> {
 	return Array.from({ length: 12 }, (_, i) => ({ month: i + 1, temperature, relativeHumidity }));
 }
 
@@ -23,7 +26,11 @@ export function coldClimate(): NonNullable<ElementInput['climate']> {
 }
 
 /** Closed-form series: node values of a chain of resistances between fixed end values. */
-export function closedFormSeries(r: number[], left: number, right: number): { values: number[]; flux: number } {
+export function closedFormSeries(
+	r: number[],
+	left: number,
+	right: number
+): { values: number[]; flux: number } {
 	const total = r.reduce((a, b) => a + b, 0);
 	const flux = (left - right) / total;
 	const values = [left];
@@ -116,7 +123,9 @@ export function referenceGlaser(
 	const G = groups.length;
 
 	const monthStep = (m: (typeof months)[number], wet: boolean[]) => {
-		const ps = groups.map((g) => Math.min(...g.map((j) => psatRef(m.ti - ((m.ti - m.te) * (rsi + rCum[j])) / rt))));
+		const ps = groups.map((g) =>
+			Math.min(...g.map((j) => psatRef(m.ti - ((m.ti - m.te) * (rsi + rCum[j])) / rt)))
+		);
 		const fixed = [0];
 		for (let g = 1; g < G - 1; g++) if (wet[g]) fixed.push(g);
 		fixed.push(G - 1);
@@ -151,14 +160,22 @@ export function referenceGlaser(
 	let start: number | null = null;
 	if (dry.some(Boolean)) {
 		start = 0;
-		if (!dry.every(Boolean)) for (let i = 0; i < 12; i++) if (dry[i] && !dry[(i + 11) % 12]) { start = i; break; }
+		if (!dry.every(Boolean))
+			for (let i = 0; i < 12; i++)
+				if (dry[i] && !dry[(i + 11) % 12]) {
+					start = i;
+					break;
+				}
 	}
 	const ma = new Array(G).fill(0);
 	const accumulated: number[][] = new Array(12);
 	const rates: number[][] = new Array(12);
 	for (let c = 0; c < 12; c++) {
 		const i = ((start ?? 0) + c) % 12;
-		const rate = monthStep(months[i], ma.map((v) => v > 0));
+		const rate = monthStep(
+			months[i],
+			ma.map((v) => v > 0)
+		);
 		const secs = DAYS[months[i].month - 1] * 86400;
 		rates[i] = rate.map((r) => r * secs * 1000);
 		for (let g = 0; g < G; g++) {

@@ -1,6 +1,12 @@
 // Thickness of one layer for a target U (the inverse of ISO 6946:2017 6.7.1 / 6.7.2, from memory).
 import { describe, expect, it } from 'vitest';
-import { analyseElement, ElementInputError, solveThickness, solveThicknessDetailed, type ElementInput } from '../../src/lib/physics/index';
+import {
+	analyseElement,
+	ElementInputError,
+	solveThickness,
+	solveThicknessDetailed,
+	type ElementInput
+} from '../../src/lib/physics/index';
 
 const cavityWall = (): ElementInput => ({
 	heatFlow: 'horizontal',
@@ -36,7 +42,13 @@ describe('solveThickness', () => {
 			heatFlow: 'horizontal',
 			layers: [
 				{ name: 'plasterboard', thicknessMm: 12.5, lambda: 0.21 },
-				{ name: 'mineral wool between studs', thicknessMm: 140, lambda: 0.04, bridge: { lambda: 0.12, fraction: 0.15 }, airGapLevel: 2 },
+				{
+					name: 'mineral wool between studs',
+					thicknessMm: 140,
+					lambda: 0.04,
+					bridge: { lambda: 0.12, fraction: 0.15 },
+					airGapLevel: 2
+				},
 				{ name: 'sheathing', thicknessMm: 9, lambda: 0.13 },
 				{ name: 'cavity', thicknessMm: 50, air: 'unventilated' },
 				{ name: 'brick', thicknessMm: 102, lambda: 0.77 }
@@ -57,10 +69,16 @@ describe('solveThickness', () => {
 	});
 
 	it('refuses layers whose thickness cannot be solved for, with the field named', () => {
-		const air: ElementInput = { ...cavityWall(), layers: [...cavityWall().layers, { name: 'air', thicknessMm: 50, air: 'unventilated' }] };
+		const air: ElementInput = {
+			...cavityWall(),
+			layers: [...cavityWall().layers, { name: 'air', thicknessMm: 50, air: 'unventilated' }]
+		};
 		expect(() => solveThickness(air, 3, 0.2)).toThrow(ElementInputError);
 		expect(() => solveThickness(air, 3, 0.2)).toThrow(/layers\.3\.air/);
-		const byR: ElementInput = { heatFlow: 'horizontal', layers: [{ name: 'panel', thicknessMm: 50, resistance: 2 }] };
+		const byR: ElementInput = {
+			heatFlow: 'horizontal',
+			layers: [{ name: 'panel', thicknessMm: 50, resistance: 2 }]
+		};
 		expect(() => solveThickness(byR, 0, 0.2)).toThrow(/layers\.0\.lambda/);
 		expect(() => solveThickness(cavityWall(), 7, 0.2)).toThrow(/layerIndex/);
 		expect(() => solveThickness(cavityWall(), 1, Number.NaN)).toThrow(/targetU/);

@@ -83,11 +83,17 @@ describe('unventilated air layers (ISO 6946:2017 Table 8, from memory)', () => {
 describe('ventilated air layers', () => {
 	const base = (air: ElementInput['layers'][number]): ElementInput => ({
 		heatFlow: 'horizontal',
-		layers: [{ name: 'block', thicknessMm: 100, lambda: 0.5 }, air, { name: 'brick', thicknessMm: 102, lambda: 0.77 }]
+		layers: [
+			{ name: 'block', thicknessMm: 100, lambda: 0.5 },
+			air,
+			{ name: 'brick', thicknessMm: 102, lambda: 0.77 }
+		]
 	});
 
 	it('slightly ventilated: RT = (1500 − Av)/1000·RT,u + (Av − 500)/1000·RT,v (ISO 6946:2017 6.9.3, from memory)', () => {
-		const r = analyseElement(base({ name: 'cavity', thicknessMm: 50, air: 'slightly-ventilated', openingAreaMm2: 1000 }));
+		const r = analyseElement(
+			base({ name: 'cavity', thicknessMm: 50, air: 'slightly-ventilated', openingAreaMm2: 1000 })
+		);
 		// RT,u = 0.13 + 0.2 + 0.18 + 0.132468 + 0.04 = 0.682468; RT,v = 0.13 + 0.2 + 0.13 = 0.46
 		// RT = 0.5·0.682468 + 0.5·0.46 = 0.571234 → U = 1.750597
 		expect(r.rTotal).toBeCloseTo(0.5712338, 6);
@@ -128,7 +134,10 @@ describe('ventilated air layers', () => {
 
 describe('homogeneous elements: U = 1/(Rsi + Σ d/λ + Rse) (ISO 6946:2017 6.7.1, from memory)', () => {
 	it('one layer: 220 mm brick, λ 0.77, horizontal', () => {
-		const r = analyseElement({ heatFlow: 'horizontal', layers: [{ name: 'brick', thicknessMm: 220, lambda: 0.77 }] });
+		const r = analyseElement({
+			heatFlow: 'horizontal',
+			layers: [{ name: 'brick', thicknessMm: 220, lambda: 0.77 }]
+		});
 		// RT = 0.13 + 0.22/0.77 + 0.04 = 0.455714 → U = 2.194357
 		expect(r.rTotal).toBeCloseTo(0.4557143, 6);
 		expect(r.uValue).toBeCloseTo(2.194357, 5);
@@ -177,12 +186,16 @@ describe('homogeneous elements: U = 1/(Rsi + Σ d/λ + Rse) (ISO 6946:2017 6.7.1
 		// the fine profile is monotone and starts/ends at the surfaces
 		expect(r.profile[0].temperature).toBeCloseTo(ref.values[1], 9);
 		expect(r.profile[r.profile.length - 1].temperature).toBeCloseTo(ref.values[6], 9);
-		for (let i = 1; i < r.profile.length; i++) expect(r.profile[i].temperature).toBeLessThanOrEqual(r.profile[i - 1].temperature + 1e-12);
+		for (let i = 1; i < r.profile.length; i++)
+			expect(r.profile[i].temperature).toBeLessThanOrEqual(r.profile[i - 1].temperature + 1e-12);
 	});
 });
 
 describe('rounding of the reported U-value', () => {
-	const wall = (lambda: number, thicknessMm: number): ElementInput => ({ heatFlow: 'horizontal', layers: [{ name: 'x', thicknessMm, lambda }] });
+	const wall = (lambda: number, thicknessMm: number): ElementInput => ({
+		heatFlow: 'horizontal',
+		layers: [{ name: 'x', thicknessMm, lambda }]
+	});
 
 	it('keeps U unrounded and reports it to 2 decimal places by default, stating the convention', () => {
 		const r = analyseElement(wall(0.035, 150));
@@ -195,7 +208,10 @@ describe('rounding of the reported U-value', () => {
 
 	it('rounds half away from zero even when binary round-off sits just below the half', () => {
 		// RT chosen so that U = 0.145 exactly in decimal: RT = 1/0.145 = 6.896552 → layer R = 6.726552
-		const r = analyseElement({ heatFlow: 'horizontal', layers: [{ name: 'x', thicknessMm: 100, resistance: 1 / 0.145 - 0.17 }] });
+		const r = analyseElement({
+			heatFlow: 'horizontal',
+			layers: [{ name: 'x', thicknessMm: 100, resistance: 1 / 0.145 - 0.17 }]
+		});
 		expect(r.uValueRounded).toBe(0.15);
 	});
 

@@ -47,7 +47,8 @@ describe('saturation vapour pressure (ISO 13788:2012 Annex E, from memory)', () 
 	});
 
 	it('inverts exactly: saturationTemperature(saturationPressure(θ)) = θ', () => {
-		for (const t of [-25, -10, -0.5, 0, 0.5, 12.6, 20, 35]) expect(saturationTemperature(saturationPressure(t))).toBeCloseTo(t, 10);
+		for (const t of [-25, -10, -0.5, 0, 0.5, 12.6, 20, 35])
+			expect(saturationTemperature(saturationPressure(t))).toBeCloseTo(t, 10);
 	});
 });
 

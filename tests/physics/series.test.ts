@@ -101,7 +101,8 @@ describe('solveSeries (Thomas algorithm on the assembled tridiagonal system)', (
 		const split = new Float64Array(6);
 		const q2 = solveSeries([1 / 0.13, 1, 1, 1, 1], 0, 5, 20, 0, split); // 4 × R 1.0
 		expect(q2).toBeCloseTo(q1, 12);
-		for (let k = 0; k <= 4; k++) expect(split[1 + k]).toBeCloseTo(whole[1] + ((whole[2] - whole[1]) * k) / 4, 12);
+		for (let k = 0; k <= 4; k++)
+			expect(split[1 + k]).toBeCloseTo(whole[1] + ((whole[2] - whole[1]) * k) / 4, 12);
 	});
 
 	it('vapour: g = δ0/sd gives flux δ0·Δp/Σsd (ISO 13788:2012 clause 6, δ0 = 2e-10 from memory)', () => {

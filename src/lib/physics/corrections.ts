@@ -41,7 +41,12 @@ export interface Fasteners {
  * R1 the resistance of the insulation layer and RT,h the element total ignoring thermal bridges (m²·K/W).
  * Zero when λf < 1 W/(m·K) (F.3.1).
  */
-export function fastenerCorrection(f: Fasteners, d0Mm: number, r1: number, rTotalHomogeneous: number): number {
+export function fastenerCorrection(
+	f: Fasteners,
+	d0Mm: number,
+	r1: number,
+	rTotalHomogeneous: number
+): number {
 	if (f.lambda < FASTENER_LAMBDA_EXEMPT || d0Mm <= 0) return 0;
 	const d1 = Math.min(f.penetrationMm ?? d0Mm, d0Mm);
 	const alpha = FASTENER_ALPHA * (d1 / d0Mm);
@@ -54,7 +59,11 @@ export function fastenerCorrection(f: Fasteners, d0Mm: number, r1: number, rTota
  * the corrections need not be applied. `mode` 'always' applies them regardless.
  * Returns whether ΔU is applied and the resulting U, W/(m²·K).
  */
-export function applyCorrections(u: number, deltaU: number, mode: 'standard' | 'always' = 'standard'): { applied: boolean; u: number } {
+export function applyCorrections(
+	u: number,
+	deltaU: number,
+	mode: 'standard' | 'always' = 'standard'
+): { applied: boolean; u: number } {
 	if (deltaU <= 0) return { applied: false, u };
 	if (mode === 'standard' && deltaU < CORRECTION_OMIT_FRACTION * u) return { applied: false, u };
 	return { applied: true, u: u + deltaU };

@@ -3,7 +3,13 @@
  * solve, the surface-humidity check by fRsi and the monthly Glaser cycle (ISO 13788), composed
  * into one result.
  */
-import { assertElementInput, type ElementInput, type ElementResult, type Layer, type LayerResult } from './schema';
+import {
+	assertElementInput,
+	type ElementInput,
+	type ElementResult,
+	type Layer,
+	type LayerResult
+} from './schema';
 import {
 	RSE,
 	RSI,
@@ -12,7 +18,13 @@ import {
 	slightlyVentilatedTotal,
 	unventilatedAirLayerResistance
 } from './resistances';
-import { COMBINED_METHOD_MAX_RATIO, bridgeFraction, combinedMethod, type CombinedResult, type SeriesLayerR } from './bridging';
+import {
+	COMBINED_METHOD_MAX_RATIO,
+	bridgeFraction,
+	combinedMethod,
+	type CombinedResult,
+	type SeriesLayerR
+} from './bridging';
 import { airGapCorrection, applyCorrections, fastenerCorrection } from './corrections';
 import {
 	MONTH_DAYS,
@@ -87,7 +99,10 @@ const fmt = (v: number, d = 3) => {
  * corrections with their omission rule (Annex F, clause 7). `override` replaces the thickness of
  * one layer (used by the inverse solve). Resistances m²·K/W, U W/(m²·K).
  */
-export function buildThermalModel(input: ElementInput, override?: { index: number; thicknessMm: number }): ThermalModel {
+export function buildThermalModel(
+	input: ElementInput,
+	override?: { index: number; thicknessMm: number }
+): ThermalModel {
 	const notes: string[] = [];
 	const warnings: string[] = [];
 	const dir = input.heatFlow;
@@ -106,10 +121,16 @@ export function buildThermalModel(input: ElementInput, override?: { index: numbe
 		rse = input.rse ?? rsi;
 		notes.push(
 			`Layer ${well + 1} is a well-ventilated air layer: it and the ${input.layers.length - well - 1} layer(s) outside it are disregarded and ` +
-				(input.rse === undefined ? `Rse takes the value of Rsi, ${rse} m²·K/W (ISO 6946:2017, 6.9.4).` : `Rse = ${rse} m²·K/W as given.`)
+				(input.rse === undefined
+					? `Rse takes the value of Rsi, ${rse} m²·K/W (ISO 6946:2017, 6.9.4).`
+					: `Rse = ${rse} m²·K/W as given.`)
 		);
 	} else {
-		notes.push(input.rse === undefined ? `Rse = ${rse} m²·K/W (ISO 6946:2017, Table 7).` : `Rse = ${rse} m²·K/W as given (overrides ISO 6946).`);
+		notes.push(
+			input.rse === undefined
+				? `Rse = ${rse} m²·K/W (ISO 6946:2017, Table 7).`
+				: `Rse = ${rse} m²·K/W as given (overrides ISO 6946).`
+		);
 	}
 
 	const layers: LayerModel[] = new Array(input.layers.length);
@@ -125,7 +146,10 @@ export function buildThermalModel(input: ElementInput, override?: { index: numbe
 		} else if (l.air) {
 			kind = l.air === 'unventilated' ? 'air-unventilated' : 'air-slightly-ventilated';
 			r = l.resistance ?? unventilatedAirLayerResistance(d, dir);
-			if (l.lambda !== undefined) warnings.push(`Layer ${i + 1} (${l.name}): λ is ignored for an air layer; its resistance comes from ISO 6946.`);
+			if (l.lambda !== undefined)
+				warnings.push(
+					`Layer ${i + 1} (${l.name}): λ is ignored for an air layer; its resistance comes from ISO 6946.`
+				);
 		} else if (l.resistance !== undefined) {
 			kind = 'resistance';
 			r = l.resistance;
@@ -137,7 +161,8 @@ export function buildThermalModel(input: ElementInput, override?: { index: numbe
 		let fraction: number | undefined;
 		if (l.bridge && i < active) {
 			rBridge = layerResistance(d, l.bridge.lambda);
-			fraction = l.bridge.fraction ?? bridgeFraction(l.bridge.widthMm as number, l.bridge.centresMm as number);
+			fraction =
+				l.bridge.fraction ?? bridgeFraction(l.bridge.widthMm as number, l.bridge.centresMm as number);
 			if (l.bridge.lambda >= METAL_LAMBDA) {
 				warnings.push(
 					`Layer ${i + 1} (${l.name}) is bridged by a material of λ = ${l.bridge.lambda} W/(m·K) (metal): the ISO 6946 combined method is not meant for insulation bridged by metal; use a numerical calculation (ISO 10211).`
@@ -145,8 +170,10 @@ export function buildThermalModel(input: ElementInput, override?: { index: numbe
 			}
 		}
 		// sd of the layer; a bridged layer takes the parallel vapour paths through main and bridge.
-		let sd: number | null = l.sd ?? (l.mu !== undefined ? vapourThickness(l.mu, d) : l.air ? vapourThickness(1, d) : null);
-		if (sd !== null && l.sd !== undefined && override && override.index === i) sd = (l.sd * d) / l.thicknessMm;
+		let sd: number | null =
+			l.sd ?? (l.mu !== undefined ? vapourThickness(l.mu, d) : l.air ? vapourThickness(1, d) : null);
+		if (sd !== null && l.sd !== undefined && override && override.index === i)
+			sd = (l.sd * d) / l.thicknessMm;
 		if (sd !== null && fraction !== undefined && l.bridge?.mu !== undefined) {
 			const sdB = vapourThickness(l.bridge.mu, d);
 			sd = sd === 0 || sdB === 0 ? 0 : 1 / ((1 - fraction) / sd + fraction / sdB);
@@ -172,7 +199,11 @@ export function buildThermalModel(input: ElementInput, override?: { index: numbe
 		const out: SeriesLayerR[] = [];
 		for (let i = from; i < to; i++) {
 			const m = layers[i];
-			out.push(m.fraction !== undefined ? { r: m.r * scale, rBridge: (m.rBridge as number) * scale, fraction: m.fraction } : { r: m.r * scale });
+			out.push(
+				m.fraction !== undefined
+					? { r: m.r * scale, rBridge: (m.rBridge as number) * scale, fraction: m.fraction }
+					: { r: m.r * scale }
+			);
 		}
 		return out;
 	};
@@ -191,7 +222,10 @@ export function buildThermalModel(input: ElementInput, override?: { index: numbe
 		const av = layers[slightly].layer.openingAreaMm2 as number;
 		const outer = combinedMethod(0, 0, series(slightly + 1, active)).rLower;
 		const scale = outer > SLIGHTLY_VENTILATED_OUTER_CAP ? SLIGHTLY_VENTILATED_OUTER_CAP / outer : 1;
-		const unvent = combinedMethod(rsi, rse, [...series(0, slightly + 1), ...series(slightly + 1, active, scale)]);
+		const unvent = combinedMethod(rsi, rse, [
+			...series(0, slightly + 1),
+			...series(slightly + 1, active, scale)
+		]);
 		const vent = combinedMethod(rsi, input.rse ?? rsi, series(0, slightly));
 		const w = (a: number, b: number) => slightlyVentilatedTotal(av, a, b);
 		combined = unvent;
@@ -201,7 +235,9 @@ export function buildThermalModel(input: ElementInput, override?: { index: numbe
 		rClear = w(unvent.rClear, vent.rClear);
 		notes.push(
 			`Layer ${slightly + 1} is slightly ventilated (${av} mm²): RT = (1500 − Av)/1000·RT,u + (Av − 500)/1000·RT,v (ISO 6946:2017, 6.9.3)` +
-				(scale < 1 ? `, with the ${fmt(outer)} m²·K/W outside it limited to ${SLIGHTLY_VENTILATED_OUTER_CAP} m²·K/W in RT,u.` : '.')
+				(scale < 1
+					? `, with the ${fmt(outer)} m²·K/W outside it limited to ${SLIGHTLY_VENTILATED_OUTER_CAP} m²·K/W in RT,u.`
+					: '.')
 		);
 		// Along the profile path the air layer carries whatever makes the series total equal RT (clear field).
 		let others = rsi + rse;
@@ -244,7 +280,8 @@ export function buildThermalModel(input: ElementInput, override?: { index: numbe
 			const d0 = m.endMm - m.startMm;
 			const f = m.layer.fasteners;
 			deltaUFasteners += fastenerCorrection(f, d0, m.r, rClear);
-			if (f.lambda < 1) notes.push(`Layer ${i + 1}: fasteners of λ < 1 W/(m·K) need no correction (ISO 6946:2017, F.3).`);
+			if (f.lambda < 1)
+				notes.push(`Layer ${i + 1}: fasteners of λ < 1 W/(m·K) need no correction (ISO 6946:2017, F.3).`);
 		}
 	}
 	const deltaU = deltaUAirGaps + deltaUFasteners;
@@ -253,7 +290,9 @@ export function buildThermalModel(input: ElementInput, override?: { index: numbe
 		notes.push(
 			applied.applied
 				? `ΔU = ${fmt(deltaU, 4)} W/(m²·K) (air gaps ${fmt(deltaUAirGaps, 4)}, fasteners ${fmt(deltaUFasteners, 4)}; ISO 6946:2017 Annex F) is applied` +
-						(input.corrections === 'always' ? ' as asked.' : `: it is ${fmt((deltaU / uUncorrected) * 100, 1)} % of U, not below 3 %.`)
+						(input.corrections === 'always'
+							? ' as asked.'
+							: `: it is ${fmt((deltaU / uUncorrected) * 100, 1)} % of U, not below 3 %.`)
 				: `ΔU = ${fmt(deltaU, 4)} W/(m²·K) is ${fmt((deltaU / uUncorrected) * 100, 1)} % of U, below 3 %, and is omitted (ISO 6946:2017, clause 7).`
 		);
 	}
@@ -388,7 +427,8 @@ export function analyseElement(raw: ElementInput): ElementResult {
 	}
 	const profile: { positionMm: number; temperature: number }[] = [];
 	for (let n = 1; n < nElem; n++) profile.push({ positionMm: posNode[n], temperature: tAt(n) });
-	for (let i = active; i < layers.length; i++) profile.push({ positionMm: layers[i].endMm, temperature: design.external });
+	for (let i = active; i < layers.length; i++)
+		profile.push({ positionMm: layers[i].endMm, temperature: design.external });
 
 	const rounding = input.rounding ?? DEFAULT_U_ROUNDING;
 	const result: ElementResult = {
@@ -418,7 +458,9 @@ export function analyseElement(raw: ElementInput): ElementResult {
 
 	if (moistureReady) {
 		const internal = input.internal!;
-		const climate = [...input.climate!].sort((a, b) => a.month - b.month);
+		// Calendar order; validation guarantees each month 1–12 exactly once.
+		const climate: NonNullable<ElementInput['climate']> = new Array(12);
+		for (const c of input.climate!) climate[c.month - 1] = c;
 		const months: GlaserMonth[] = climate.map((c) => {
 			const pe = (c.relativeHumidity / 100) * saturationPressure(c.temperature);
 			return {
@@ -432,7 +474,10 @@ export function analyseElement(raw: ElementInput): ElementResult {
 		});
 		const piSat = saturationPressure(internal.temperature);
 		const humid = months.filter((m) => m.internalVapourPressure > piSat).map((m) => m.month);
-		if (humid.length) warnings.push(`The internal vapour pressure exceeds saturation at ${internal.temperature} °C in month(s) ${humid.join(', ')}.`);
+		if (humid.length)
+			warnings.push(
+				`The internal vapour pressure exceeds saturation at ${internal.temperature} °C in month(s) ${humid.join(', ')}.`
+			);
 		notes.push(
 			internal.humidityClass !== undefined
 				? `Internal humidity: class ${internal.humidityClass}, pi = pe + 1.1·Δp(θe) (ISO 13788:2012, Annex A).`
@@ -445,7 +490,11 @@ export function analyseElement(raw: ElementInput): ElementResult {
 		let fRsiMin = -Infinity;
 		let critical = 0;
 		const surfaceMonths = months.map((m) => {
-			const r = minimumTemperatureFactor(m.internalTemperature, m.externalTemperature, m.internalVapourPressure);
+			const r = minimumTemperatureFactor(
+				m.internalTemperature,
+				m.externalTemperature,
+				m.internalVapourPressure
+			);
 			if (r.fRsiMin !== null && r.fRsiMin > fRsiMin) {
 				fRsiMin = r.fRsiMin;
 				critical = m.month;
@@ -481,7 +530,9 @@ export function analyseElement(raw: ElementInput): ElementResult {
 				...(fRsiLowestSection !== undefined ? { fRsiLowestSection } : {}),
 				months: surfaceMonths
 			};
-			notes.push(`fRsi with Rsi = ${rsiCheck} m²·K/W against fRsi,min from the 80 % surface-humidity criterion (ISO 13788:2012, clause 5).`);
+			notes.push(
+				`fRsi with Rsi = ${rsiCheck} m²·K/W against fRsi,min from the 80 % surface-humidity criterion (ISO 13788:2012, clause 5).`
+			);
 		}
 
 		// Interstitial condensation, ISO 13788:2012 clause 6: nodes from internal to external surface.
@@ -499,12 +550,17 @@ export function analyseElement(raw: ElementInput): ElementResult {
 		);
 		const limits = input.moistureLimits ?? {};
 		const reasons: string[] = [];
-		if ((limits.requireEvaporation ?? true) && !glaser.evaporatesFully) reasons.push('condensate does not evaporate fully within the year');
+		if ((limits.requireEvaporation ?? true) && !glaser.evaporatesFully)
+			reasons.push('condensate does not evaporate fully within the year');
 		if (limits.maxAtInterfaceGm2 !== undefined && glaser.maxAtInterface > limits.maxAtInterfaceGm2) {
-			reasons.push(`${fmt(glaser.maxAtInterface, 1)} g/m² at one interface exceeds the limit of ${limits.maxAtInterfaceGm2} g/m²`);
+			reasons.push(
+				`${fmt(glaser.maxAtInterface, 1)} g/m² at one interface exceeds the limit of ${limits.maxAtInterfaceGm2} g/m²`
+			);
 		}
 		if (limits.maxTotalGm2 !== undefined && glaser.maxAccumulation > limits.maxTotalGm2) {
-			reasons.push(`${fmt(glaser.maxAccumulation, 1)} g/m² in total exceeds the limit of ${limits.maxTotalGm2} g/m²`);
+			reasons.push(
+				`${fmt(glaser.maxAccumulation, 1)} g/m² in total exceeds the limit of ${limits.maxTotalGm2} g/m²`
+			);
 		}
 		if (glaser.surfaceCondensationMonths.length) {
 			warnings.push(
@@ -512,9 +568,13 @@ export function analyseElement(raw: ElementInput): ElementResult {
 			);
 		}
 		if (glaser.condensesEveryMonth) {
-			notes.push('Condensation is predicted in every month; the Glaser cycle starts in the first month of the climate.');
+			notes.push(
+				'Condensation is predicted in every month; the Glaser cycle starts in the first month of the climate.'
+			);
 		} else if (glaser.startMonth !== null) {
-			notes.push(`The Glaser cycle starts in month ${glaser.startMonth}, the first month with condensation after one without (ISO 13788:2012, clause 6).`);
+			notes.push(
+				`The Glaser cycle starts in month ${glaser.startMonth}, the first month with condensation after one without (ISO 13788:2012, clause 6).`
+			);
 		}
 		result.condensation = {
 			months: glaser.months,

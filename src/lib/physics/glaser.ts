@@ -255,7 +255,7 @@ export function runGlaser(chain: GlaserChain, months: readonly GlaserMonth[]): G
 
 	/** Pressures at every node and rates (kg/(m²·s)) at the vertices, from the kernel between vertices. */
 	const pressures = (nv: number): void => {
-		rate.fill(0);
+		for (let g = 0; g < G; g++) rate[g] = 0;
 		for (let j = gStart[0]; j <= gEnd[0]; j++) pNode[j] = vertP[0];
 		let fluxIn = 0;
 		for (let q = 0; q + 1 < nv; q++) {
@@ -314,15 +314,14 @@ export function runGlaser(chain: GlaserChain, months: readonly GlaserMonth[]): G
 	let profileCondensed = 0;
 	let profileP: number[] | null = null;
 	let total = 0;
+	let wetCount = 0;
 
 	for (let c = 0; c < nm; c++) {
 		const m = (start + c) % nm;
 		const mo = months[m];
 		const seconds = mo.days * SECONDS_PER_DAY;
 		// Nothing wet and nothing touching: the straight line, without building the hull.
-		let wetNow = false;
-		for (let g = 1; g < G - 1 && !wetNow; g++) wetNow = ma[g] > 0;
-		if (!wetNow && !dry[m]) {
+		if (wetCount === 0 && !dry[m]) {
 			vert[0] = 0;
 			vertP[0] = mo.internalVapourPressure;
 			vert[1] = G - 1;
@@ -336,6 +335,7 @@ export function runGlaser(chain: GlaserChain, months: readonly GlaserMonth[]): G
 		let evaporated = 0;
 		let formed = false;
 		total = 0;
+		wetCount = 0;
 		for (let g = 0; g < G; g++) {
 			const r = rate[g];
 			const amount = r * seconds;
@@ -350,6 +350,7 @@ export function runGlaser(chain: GlaserChain, months: readonly GlaserMonth[]): G
 				evaporated += before - after;
 			}
 			total += after;
+			if (after > 0) wetCount++;
 			vp[g] = pNode[gStart[g]];
 			rt[g] = amount * 1000;
 			acc[g] = after * 1000;
@@ -392,7 +393,8 @@ export function runGlaser(chain: GlaserChain, months: readonly GlaserMonth[]): G
 	// Vapour profile for charting: the month with the most condensation formed, else the coldest month.
 	if (profileP === null) {
 		profileMonth = 0;
-		for (let m = 1; m < nm; m++) if (months[m].externalTemperature < months[profileMonth].externalTemperature) profileMonth = m;
+		for (let m = 1; m < nm; m++)
+			if (months[m].externalTemperature < months[profileMonth].externalTemperature) profileMonth = m;
 		pressures(hull(profileMonth, false));
 		profileP = pNode;
 	}

@@ -36,7 +36,13 @@ export {
 export type { HeatFlow } from './resistances';
 export { combinedMethod, bridgeFraction, COMBINED_METHOD_MAX_RATIO } from './bridging';
 export type { CombinedResult, SeriesLayerR } from './bridging';
-export { airGapCorrection, fastenerCorrection, applyCorrections, AIR_GAP_DELTA_U2, CORRECTION_OMIT_FRACTION } from './corrections';
+export {
+	airGapCorrection,
+	fastenerCorrection,
+	applyCorrections,
+	AIR_GAP_DELTA_U2,
+	CORRECTION_OMIT_FRACTION
+} from './corrections';
 export { solveSeries, createSeriesWork } from './series';
 export type { SeriesWork } from './series';
 export { runGlaser } from './glaser';

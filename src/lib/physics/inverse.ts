@@ -48,20 +48,28 @@ export function solveThicknessDetailed(
 	if (!Number.isInteger(layerIndex) || layerIndex < 0 || layerIndex >= input.layers.length) {
 		fail('layerIndex', `must be a layer index from 0 to ${input.layers.length - 1}, got ${layerIndex}`);
 	}
-	if (!(Number.isFinite(targetU) && targetU > 0)) fail('targetU', `must be a finite number > 0, got ${targetU}`);
+	if (!(Number.isFinite(targetU) && targetU > 0))
+		fail('targetU', `must be a finite number > 0, got ${targetU}`);
 	const layer = input.layers[layerIndex];
 	const path = `layers.${layerIndex}`;
-	if (layer.air) fail(`${path}.air`, 'the thickness of an air layer cannot be solved for (its resistance comes from a table)');
-	if (layer.lambda === undefined) fail(`${path}.lambda`, 'the layer needs λ for its thickness to be solved for');
+	if (layer.air)
+		fail(
+			`${path}.air`,
+			'the thickness of an air layer cannot be solved for (its resistance comes from a table)'
+		);
+	if (layer.lambda === undefined)
+		fail(`${path}.lambda`, 'the layer needs λ for its thickness to be solved for');
 	if (productThicknessesMm) {
 		productThicknessesMm.forEach((t, i) => {
-			if (!(Number.isFinite(t) && t > 0)) fail(`productThicknessesMm.${i}`, `must be a finite number > 0, got ${t}`);
+			if (!(Number.isFinite(t) && t > 0))
+				fail(`productThicknessesMm.${i}`, `must be a finite number > 0, got ${t}`);
 		});
 	}
 
 	const uAt = (d: number) => buildThermalModel(input, { index: layerIndex, thicknessMm: d }).u;
 	const base = buildThermalModel(input);
-	if (layerIndex >= base.active) fail(`${path}.thicknessMm`, 'the layer lies outside a well-ventilated air layer and does not count in U');
+	if (layerIndex >= base.active)
+		fail(`${path}.thicknessMm`, 'the layer lies outside a well-ventilated air layer and does not count in U');
 
 	const notes: string[] = [];
 	let exact: number;
@@ -76,7 +84,8 @@ export function solveThicknessDetailed(
 		const rRest = base.rTotal - base.layers[layerIndex].r;
 		const rNeeded = 1 / targetU - rRest;
 		exact = rNeeded <= 0 ? 0 : rNeeded * (layer.lambda as number) * 1000;
-		if (exact > MAX_THICKNESS_MM) fail('targetU', `needs ${exact.toFixed(0)} mm, more than ${MAX_THICKNESS_MM} mm`);
+		if (exact > MAX_THICKNESS_MM)
+			fail('targetU', `needs ${exact.toFixed(0)} mm, more than ${MAX_THICKNESS_MM} mm`);
 	} else {
 		method = 'bisection';
 		if (uAt(0) <= targetU) {
@@ -85,7 +94,11 @@ export function solveThicknessDetailed(
 			let hi = Math.max(layer.thicknessMm, 1);
 			while (uAt(hi) > targetU) {
 				hi *= 2;
-				if (hi > MAX_THICKNESS_MM) fail('targetU', `is not reached by thickening layer ${layerIndex + 1} up to ${MAX_THICKNESS_MM} mm`);
+				if (hi > MAX_THICKNESS_MM)
+					fail(
+						'targetU',
+						`is not reached by thickening layer ${layerIndex + 1} up to ${MAX_THICKNESS_MM} mm`
+					);
 			}
 			let lo = 0;
 			for (let it = 0; it < 200 && hi - lo > 1e-9; it++) {
@@ -103,7 +116,10 @@ export function solveThicknessDetailed(
 	if (productThicknessesMm && productThicknessesMm.length) {
 		const sizes = [...productThicknessesMm].sort((a, b) => a - b);
 		const next = sizes.find((t) => t >= exact - 1e-9);
-		if (next === undefined) notes.push(`No product thickness reaches ${exact.toFixed(1)} mm; the largest is ${sizes[sizes.length - 1]} mm.`);
+		if (next === undefined)
+			notes.push(
+				`No product thickness reaches ${exact.toFixed(1)} mm; the largest is ${sizes[sizes.length - 1]} mm.`
+			);
 		else {
 			roundedMm = next;
 			uAtRounded = uAt(next);

@@ -79,9 +79,16 @@ export interface InternalCondition {
  * relative humidity (%), pi = φi·psat(θi); or from a humidity class, pi = pe + 1.1·Δp(θe),
  * with pe the external vapour pressure in Pa.
  */
-export function internalVapourPressure(internal: InternalCondition, externalTemperatureC: number, externalVapourPressurePa: number): number {
+export function internalVapourPressure(
+	internal: InternalCondition,
+	externalTemperatureC: number,
+	externalVapourPressurePa: number
+): number {
 	if (internal.humidityClass !== undefined) {
-		return externalVapourPressurePa + HUMIDITY_CLASS_SAFETY_FACTOR * humidityClassExcess(internal.humidityClass, externalTemperatureC);
+		return (
+			externalVapourPressurePa +
+			HUMIDITY_CLASS_SAFETY_FACTOR * humidityClassExcess(internal.humidityClass, externalTemperatureC)
+		);
 	}
 	return ((internal.relativeHumidity as number) / 100) * saturationPressure(internal.temperature);
 }
@@ -96,7 +103,11 @@ export function vapourThickness(mu: number, thicknessMm: number): number {
  * = 1 − Rsi/RT (ISO 13788:2012, 3.1 and 5.4), with the surface-check Rsi (0.25 m²·K/W) in place
  * of the conventional one: RT is the element total in m²·K/W computed with `rsiUsed`.
  */
-export function temperatureFactor(rTotal: number, rsiUsed: number, rsiCheck: number = RSI_SURFACE_CHECK): number {
+export function temperatureFactor(
+	rTotal: number,
+	rsiUsed: number,
+	rsiCheck: number = RSI_SURFACE_CHECK
+): number {
 	const rt = rTotal - rsiUsed + rsiCheck;
 	return 1 - rsiCheck / rt;
 }

@@ -62,11 +62,17 @@ export function unventilatedAirLayerResistance(thicknessMm: number, heatFlow: He
  * the opening area in mm² (per m length or per m²), R_T,u the total with the layer taken as
  * unventilated and R_T,v the total with it taken as well ventilated.
  */
-export function slightlyVentilatedTotal(openingAreaMm2: number, rTotalUnventilated: number, rTotalVentilated: number): number {
+export function slightlyVentilatedTotal(
+	openingAreaMm2: number,
+	rTotalUnventilated: number,
+	rTotalVentilated: number
+): number {
 	if (!(openingAreaMm2 > AIR_OPENING_UNVENTILATED_MAX && openingAreaMm2 <= AIR_OPENING_SLIGHTLY_MAX)) {
 		throw new RangeError(`opening area ${openingAreaMm2} mm² is not in (500, 1500] mm²`);
 	}
-	return ((1500 - openingAreaMm2) / 1000) * rTotalUnventilated + ((openingAreaMm2 - 500) / 1000) * rTotalVentilated;
+	return (
+		((1500 - openingAreaMm2) / 1000) * rTotalUnventilated + ((openingAreaMm2 - 500) / 1000) * rTotalVentilated
+	);
 }
 
 /** Thermal resistance of a homogeneous layer, m²·K/W: R = d/λ with d in mm (ISO 6946:2017, 6.7.1). */

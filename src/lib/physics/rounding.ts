@@ -21,10 +21,12 @@ export function roundValue(value: number, rule: RoundingRule = DEFAULT_U_ROUNDIN
 		// Fast path: away from a half the plain scaled rounding is exact (n / 10^k is correctly rounded).
 		const p = 10 ** rule.digits;
 		const scaled = Math.abs(value) * p;
-		if (Math.abs(scaled - Math.floor(scaled) - 0.5) > 1e-6) return (value < 0 ? -1 : 1) * (Math.round(scaled) / p);
+		if (Math.abs(scaled - Math.floor(scaled) - 0.5) > 1e-6)
+			return (value < 0 ? -1 : 1) * (Math.round(scaled) / p);
 	}
 	const v = Number(value.toPrecision(12));
-	const places = rule.mode === 'decimals' ? rule.digits : rule.digits - 1 - Math.floor(Math.log10(Math.abs(v)));
+	const places =
+		rule.mode === 'decimals' ? rule.digits : rule.digits - 1 - Math.floor(Math.log10(Math.abs(v)));
 	const sign = v < 0 ? -1 : 1;
 	const shifted = Math.round(Number(`${Math.abs(v)}e${places}`));
 	return sign * Number(`${shifted}e${-places}`);
@@ -32,7 +34,10 @@ export function roundValue(value: number, rule: RoundingRule = DEFAULT_U_ROUNDIN
 
 /** Plain statement of the rounding used, stored with every result. */
 export function describeRounding(rule: RoundingRule): string {
-	const form = rule.mode === 'decimals' ? `${rule.digits} decimal place${rule.digits === 1 ? '' : 's'}` : `${rule.digits} significant figure${rule.digits === 1 ? '' : 's'}`;
+	const form =
+		rule.mode === 'decimals'
+			? `${rule.digits} decimal place${rule.digits === 1 ? '' : 's'}`
+			: `${rule.digits} significant figure${rule.digits === 1 ? '' : 's'}`;
 	return (
 		`U-value rounded half away from zero to ${form} for reporting; the unrounded value is used in every further calculation. ` +
 		'ISO 6946 states final U-values to two significant figures, which gives the same digits as two decimal places for 0.10 ≤ U < 1.0 W/(m²·K).'

@@ -22,7 +22,8 @@ const describe = (v: unknown): string => {
 /** A finite number with plain-English messages (ranges are checked by the refinements below). */
 const num = () =>
 	z.number({
-		error: (iss) => (iss.input === undefined ? 'is required' : `must be a finite number, got ${describe(iss.input)}`)
+		error: (iss) =>
+			iss.input === undefined ? 'is required' : `must be a finite number, got ${describe(iss.input)}`
 	});
 
 /** Adds an issue at a path relative to the object being checked. */
@@ -43,7 +44,11 @@ const RESISTANCE_LIMIT: Rule[] = [
 const isObject = (v: unknown): v is Record<string, unknown> => typeof v === 'object' && v !== null;
 
 /** Apply range rules to the numeric fields of `obj`, one issue per failing field (type errors are zod's). */
-function checkRanges(obj: Record<string, unknown>, add: Add, rules: readonly (readonly [string, readonly Rule[]])[]): void {
+function checkRanges(
+	obj: Record<string, unknown>,
+	add: Add,
+	rules: readonly (readonly [string, readonly Rule[]])[]
+): void {
 	for (let r = 0; r < rules.length; r++) {
 		const field = rules[r][0];
 		const v = obj[field];
@@ -58,7 +63,10 @@ function checkRanges(obj: Record<string, unknown>, add: Add, rules: readonly (re
 	}
 }
 
-const prefixed = (add: Add, prefix: readonly (string | number)[]): Add => (path, message) => add([...prefix, ...path], message);
+const prefixed =
+	(add: Add, prefix: readonly (string | number)[]): Add =>
+	(path, message) =>
+		add([...prefix, ...path], message);
 const fromCtx =
 	(ctx: z.RefinementCtx): Add =>
 	(path, message) =>
@@ -78,12 +86,15 @@ const BRIDGE_RANGES: (readonly [string, readonly Rule[]])[] = [
 function refineBridge(b: Record<string, unknown>, add: Add): void {
 	checkRanges(b, add, BRIDGE_RANGES);
 	const byWidth = b.widthMm !== undefined || b.centresMm !== undefined;
-	if (b.fraction === undefined && !byWidth) add(['fraction'], 'give the bridging fraction, or widthMm and centresMm');
-	else if (b.fraction !== undefined && byWidth) add(['fraction'], 'give either fraction or widthMm and centresMm, not both');
+	if (b.fraction === undefined && !byWidth)
+		add(['fraction'], 'give the bridging fraction, or widthMm and centresMm');
+	else if (b.fraction !== undefined && byWidth)
+		add(['fraction'], 'give either fraction or widthMm and centresMm, not both');
 	else if (byWidth) {
 		if (b.widthMm === undefined) add(['widthMm'], 'is required with centresMm');
 		else if (b.centresMm === undefined) add(['centresMm'], 'is required with widthMm');
-		else if ((b.widthMm as number) > 0 && (b.widthMm as number) >= (b.centresMm as number)) add(['widthMm'], 'must be smaller than centresMm');
+		else if ((b.widthMm as number) > 0 && (b.widthMm as number) >= (b.centresMm as number))
+			add(['widthMm'], 'must be smaller than centresMm');
 	}
 }
 
@@ -111,12 +122,17 @@ function refineLayer(l: Record<string, unknown>, add: Add): void {
 	checkRanges(l, add, LAYER_RANGES);
 	const thickness = l.thicknessMm as number;
 	if (l.air === undefined) {
-		if (l.lambda === undefined && l.resistance === undefined) add(['lambda'], 'give λ or the thermal resistance');
-		else if (l.lambda !== undefined && l.resistance !== undefined) add(['resistance'], 'give either λ or the thermal resistance, not both');
+		if (l.lambda === undefined && l.resistance === undefined)
+			add(['lambda'], 'give λ or the thermal resistance');
+		else if (l.lambda !== undefined && l.resistance !== undefined)
+			add(['resistance'], 'give either λ or the thermal resistance, not both');
 		if (l.openingAreaMm2 !== undefined) add(['openingAreaMm2'], 'applies to air layers only');
 	} else {
 		if (l.air !== 'well-ventilated' && l.resistance === undefined && thickness > AIR_LAYER_MAX_MM) {
-			add(['thicknessMm'], `an air layer over ${AIR_LAYER_MAX_MM} mm is outside the ISO 6946 table; give its resistance directly`);
+			add(
+				['thicknessMm'],
+				`an air layer over ${AIR_LAYER_MAX_MM} mm is outside the ISO 6946 table; give its resistance directly`
+			);
 		}
 		const a = l.openingAreaMm2 as number | undefined;
 		if (l.air === 'unventilated' && a !== undefined && a > AIR_OPENING_UNVENTILATED_MAX) {
@@ -129,7 +145,8 @@ function refineLayer(l: Record<string, unknown>, add: Add): void {
 			}
 		}
 		if (l.air === 'well-ventilated') {
-			if (a !== undefined && a <= AIR_OPENING_SLIGHTLY_MAX) add(['openingAreaMm2'], 'must be over 1500 mm² for a well-ventilated air layer');
+			if (a !== undefined && a <= AIR_OPENING_SLIGHTLY_MAX)
+				add(['openingAreaMm2'], 'must be over 1500 mm² for a well-ventilated air layer');
 			if (l.bridge) add(['bridge'], 'a well-ventilated air layer cannot be bridged');
 		}
 	}
@@ -138,7 +155,8 @@ function refineLayer(l: Record<string, unknown>, add: Add): void {
 	if (isObject(l.fasteners)) {
 		refineFasteners(l.fasteners, prefixed(add, ['fasteners']));
 		const pen = l.fasteners.penetrationMm;
-		if (typeof pen === 'number' && pen > thickness) add(['fasteners', 'penetrationMm'], 'must not exceed the layer thickness');
+		if (typeof pen === 'number' && pen > thickness)
+			add(['fasteners', 'penetrationMm'], 'must not exceed the layer thickness');
 	}
 }
 
@@ -151,7 +169,9 @@ const INTERNAL_RANGES: (readonly [string, readonly Rule[]])[] = [
 	['temperature', TEMPERATURE],
 	['relativeHumidity', [[(v) => v > 0 && v <= 100, 'must be over 0 and at most 100 %']]]
 ];
-const ROUNDING_RANGES: (readonly [string, readonly Rule[]])[] = [['digits', [[(v) => Number.isInteger(v) && v >= 0 && v <= 6, 'must be a whole number 0–6']]]];
+const ROUNDING_RANGES: (readonly [string, readonly Rule[]])[] = [
+	['digits', [[(v) => Number.isInteger(v) && v >= 0 && v <= 6, 'must be a whole number 0–6']]]
+];
 const LIMIT_RANGES: (readonly [string, readonly Rule[]])[] = [
 	['maxAtInterfaceGm2', NON_NEGATIVE],
 	['maxTotalGm2', NON_NEGATIVE]
@@ -233,7 +253,7 @@ const layerShape = z.object({
 	/** vapour diffusion-equivalent air layer thickness, m; ≥ 0 */
 	sd: num().optional(),
 	/** ISO 6946 air-gap correction level */
-	airGapLevel: z.union([z.literal(0), z.literal(1), z.literal(2)], { error: 'must be 0, 1 or 2' }).optional(),
+	airGapLevel: z.literal([0, 1, 2], { error: 'must be 0, 1 or 2' }).optional(),
 	bridge: bridgeShape.optional(),
 	fasteners: fastenersShape.optional()
 });
@@ -252,7 +272,7 @@ const internalShape = z.object({
 	temperature: num(),
 	/** %, over 0 and at most 100 */
 	relativeHumidity: num().optional(),
-	humidityClass: z.union([z.literal(1), z.literal(2), z.literal(3), z.literal(4), z.literal(5)], { error: 'must be 1, 2, 3, 4 or 5' }).optional()
+	humidityClass: z.literal([1, 2, 3, 4, 5], { error: 'must be 1, 2, 3, 4 or 5' }).optional()
 });
 
 const roundingShape = z.object({
@@ -306,7 +326,8 @@ const elementShape = z.object({
 
 function refineElement(e: Record<string, unknown>, add: Add): void {
 	checkRanges(e, add, ELEMENT_RANGES);
-	if (isObject(e.designTemperatures)) checkRanges(e.designTemperatures, prefixed(add, ['designTemperatures']), DESIGN_RANGES);
+	if (isObject(e.designTemperatures))
+		checkRanges(e.designTemperatures, prefixed(add, ['designTemperatures']), DESIGN_RANGES);
 	if (isObject(e.rounding)) refineRounding(e.rounding, prefixed(add, ['rounding']));
 	if (isObject(e.moistureLimits)) refineLimits(e.moistureLimits, prefixed(add, ['moistureLimits']));
 	const internal = isObject(e.internal) ? e.internal : undefined;
@@ -318,23 +339,29 @@ function refineElement(e: Record<string, unknown>, add: Add): void {
 	}
 
 	// Entries that are not objects are type errors zod reports; the rules see them as empty.
-	const layers: Record<string, unknown>[] = Array.isArray(e.layers) ? e.layers.map((l) => (isObject(l) ? l : {})) : [];
+	const layers: Record<string, unknown>[] = Array.isArray(e.layers)
+		? e.layers.map((l) => (isObject(l) ? l : {}))
+		: [];
 	for (let i = 0; i < layers.length; i++) refineLayer(layers[i], prefixed(add, ['layers', i]));
 	const well = layers.findIndex((l) => l.air === 'well-ventilated');
-	if (well === 0) add(['layers', 0, 'air'], 'the first layer cannot be well ventilated: no layer would remain inside it');
+	if (well === 0)
+		add(['layers', 0, 'air'], 'the first layer cannot be well ventilated: no layer would remain inside it');
 	const active = well < 0 ? layers.length : well;
 	let slightly = 0;
 	let bridged = 0;
 	for (let i = 0; i < active; i++) {
 		const l = layers[i];
-		if (l.air === 'slightly-ventilated' && ++slightly > 1) add(['layers', i, 'air'], 'only one slightly ventilated air layer is supported');
-		if (l.bridge && ++bridged > MAX_BRIDGED_LAYERS) add(['layers', i, 'bridge'], `at most ${MAX_BRIDGED_LAYERS} bridged layers are supported`);
+		if (l.air === 'slightly-ventilated' && ++slightly > 1)
+			add(['layers', i, 'air'], 'only one slightly ventilated air layer is supported');
+		if (l.bridge && ++bridged > MAX_BRIDGED_LAYERS)
+			add(['layers', i, 'bridge'], `at most ${MAX_BRIDGED_LAYERS} bridged layers are supported`);
 	}
 
 	if (e.climate === undefined) return;
 	if (Array.isArray(e.climate)) {
 		const climate = e.climate;
-		for (let i = 0; i < climate.length; i++) if (isObject(climate[i])) refineClimateMonth(climate[i], prefixed(add, ['climate', i]));
+		for (let i = 0; i < climate.length; i++)
+			if (isObject(climate[i])) refineClimateMonth(climate[i], prefixed(add, ['climate', i]));
 		if (climate.length !== 12) {
 			add(['climate'], `12 months are required, got ${climate.length}`);
 		} else {
@@ -342,7 +369,8 @@ function refineElement(e: Record<string, unknown>, add: Add): void {
 			climate.forEach((m, i) => {
 				const month = isObject(m) ? m.month : undefined;
 				if (typeof month !== 'number') return;
-				if (seen.has(month)) add(['climate', i, 'month'], `month ${month} is given twice (also at climate.${seen.get(month)})`);
+				if (seen.has(month))
+					add(['climate', i, 'month'], `month ${month} is given twice (also at climate.${seen.get(month)})`);
 				else seen.set(month, i);
 			});
 		}
@@ -363,7 +391,8 @@ function refineElement(e: Record<string, unknown>, add: Add): void {
 		const d = l.thicknessMm as number;
 		sdTotal += (l.sd as number | undefined) ?? (((l.mu as number | undefined) ?? (l.air ? 1 : 0)) * d) / 1000;
 	}
-	if (allGiven && sdTotal <= 0) add(['layers'], 'the total sd-value is zero: the condensation check needs some vapour resistance');
+	if (allGiven && sdTotal <= 0)
+		add(['layers'], 'the total sd-value is zero: the condensation check needs some vapour resistance');
 }
 
 export const elementInputSchema = elementShape.superRefine((e, ctx) => {
@@ -390,7 +419,13 @@ export const layerResultSchema = z.object({
 	thicknessMm: z.number(),
 	positionStartMm: z.number(),
 	positionEndMm: z.number(),
-	kind: z.enum(['material', 'resistance', 'air-unventilated', 'air-slightly-ventilated', 'air-well-ventilated']),
+	kind: z.enum([
+		'material',
+		'resistance',
+		'air-unventilated',
+		'air-slightly-ventilated',
+		'air-well-ventilated'
+	]),
 	/** resistance used along the calculation path (main material of a bridged layer), m²·K/W */
 	r: z.number(),
 	rBridge: z.number().optional(),
@@ -467,7 +502,13 @@ export const condensationResultSchema = z.object({
 	vapourProfile: z.object({
 		month: z.number(),
 		points: z.array(
-			z.object({ positionMm: z.number(), sdM: z.number(), temperature: z.number(), saturationPressure: z.number(), vapourPressure: z.number() })
+			z.object({
+				positionMm: z.number(),
+				sdM: z.number(),
+				temperature: z.number(),
+				saturationPressure: z.number(),
+				vapourPressure: z.number()
+			})
 		)
 	}),
 	acceptance: z.object({ pass: z.boolean(), reasons: z.array(z.string()) })
@@ -532,7 +573,9 @@ export class ElementInputError extends Error {
 }
 
 /** Validate raw input (form, JSON, CSV row) without throwing. */
-export function parseElementInput(raw: unknown): { ok: true; data: ElementInput } | { ok: false; issues: FieldIssue[] } {
+export function parseElementInput(
+	raw: unknown
+): { ok: true; data: ElementInput } | { ok: false; issues: FieldIssue[] } {
 	const r = elementInputSchema.safeParse(raw);
 	return r.success ? { ok: true, data: r.data } : { ok: false, issues: formatIssues(r.error) };
 }
