@@ -53,7 +53,7 @@ const server = spawn('node', [BUILD], {
 		ORIGIN: origin,
 		AUTH_SECRET: process.env.AUTH_SECRET ?? 'bench-secret'
 	},
-	stdio: ['ignore', 'ignore', 'inherit']
+	stdio: ['ignore', 'ignore', 'ignore']
 });
 const stop = () => server.kill('SIGTERM');
 process.on('exit', stop);
@@ -104,8 +104,12 @@ const page = await fetch(`${origin}/dwellings/${dwelling.id}`, { headers: { cook
 if (page.status !== 200) throw new Error(`dwelling page answered ${page.status}`);
 
 type Run = { name: string; rps: number; p50: number; p99: number; non2xx: number };
-async function run(name: string, opts: Partial<autocannon.Options>): Promise<Run> {
-	const r = await autocannon({ url: origin, connections: CONNECTIONS, duration: DURATION, ...opts });
+async function run(
+	name: string,
+	opts: { path: string; method?: 'GET' | 'POST'; headers?: Record<string, string>; body?: string }
+): Promise<Run> {
+	const { path, ...rest } = opts;
+	const r = await autocannon({ url: origin + path, connections: CONNECTIONS, duration: DURATION, ...rest });
 	return {
 		name,
 		rps: r.requests.average,
@@ -141,5 +145,9 @@ console.log(`dwelling page / trivial throughput ratio ${(dw.rps / trivial.rps).t
 
 await db('sessions').where({ sessionToken: token }).delete();
 await db.destroy();
-stop();
+// Wait for the server to go before the database does.
+await new Promise<void>((resolve) => {
+	server.once('exit', () => resolve());
+	stop();
+});
 process.exit(0);
