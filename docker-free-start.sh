@@ -141,7 +141,7 @@ run_test() {
 		log "end-to-end tests (Playwright, Debian's Chromium)"
 		DATABASE_URL="$E2E_DATABASE_URL" node_modules/.bin/knex --knexfile knexfile.js migrate:latest >/dev/null
 		DATABASE_URL="$E2E_DATABASE_URL" node_modules/.bin/knex --knexfile knexfile.js seed:run >/dev/null
-		export APP_PORT; APP_PORT=$(free_port)
+		export APP_PORT PW_OUTPUT_DIR="$TEST_BUILD/test-results"; APP_PORT=$(free_port)
 		# shellcheck disable=SC2086
 		DATABASE_URL="$E2E_DATABASE_URL" node_modules/.bin/playwright test $only_e2e || failed=1
 	fi

@@ -14,7 +14,7 @@ export default defineConfig({
 	timeout: 60_000,
 	expect: { timeout: 10_000 },
 	reporter: [['list']],
-	outputDir: 'test-results',
+	outputDir: process.env.PW_OUTPUT_DIR ?? 'test-results',
 	use: {
 		baseURL: origin,
 		trace: 'retain-on-failure',
