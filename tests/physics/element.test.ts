@@ -10,7 +10,7 @@ import {
 	parseElementInput,
 	type ElementInput
 } from '../../src/lib/physics/index';
-import { coolClimate, firstNonFinite } from './helpers';
+import { coolClimate, firstNonFinite, lcg } from './helpers';
 
 const wall = (): ElementInput => ({
 	heatFlow: 'horizontal',
@@ -221,5 +221,76 @@ describe('validation names the field and never yields NaN', () => {
 		expect(r.ok).toBe(true);
 		if (r.ok) expect(r.data).toEqual(input);
 		expect(elementInputSchema.safeParse(input).success).toBe(true);
+	});
+});
+
+describe('no NaN or Infinity in any result (randomised valid inputs)', () => {
+	it('400 random build-ups, climates and internal conditions', () => {
+		const rnd = lcg(4242);
+		const pick = <T>(xs: readonly T[]) => xs[Math.floor(rnd() * xs.length)];
+		let analysed = 0;
+		for (let trial = 0; trial < 400; trial++) {
+			const n = 1 + Math.floor(rnd() * 8);
+			const layers: ElementInput['layers'] = [];
+			for (let i = 0; i < n; i++) {
+				const kind = rnd();
+				const thicknessMm = pick([0.2, 5, 12.5, 25, 50, 100, 140, 300]);
+				const vapour = rnd() < 0.5 ? { mu: 1 + rnd() * 200 } : { sd: pick([0, 0.01, 0.5, 20, 1500]) };
+				if (kind < 0.15 && thicknessMm <= 300)
+					layers.push({ name: `air ${i}`, thicknessMm, air: 'unventilated' });
+				else if (kind < 0.25) layers.push({ name: `membrane ${i}`, thicknessMm, resistance: 0, ...vapour });
+				else if (kind < 0.4)
+					layers.push({
+						name: `bridged ${i}`,
+						thicknessMm,
+						lambda: 0.02 + rnd() * 0.2,
+						bridge: { lambda: pick([0.13, 0.5, 50]), fraction: 0.01 + rnd() * 0.5 },
+						...vapour
+					});
+				else
+					layers.push({
+						name: `layer ${i}`,
+						thicknessMm,
+						lambda: 0.02 + rnd() * 2,
+						airGapLevel: pick([0, 1, 2] as const),
+						...vapour
+					});
+			}
+			if (n > 2 && rnd() < 0.2)
+				layers.splice(n - 1, 0, { name: 'vent', thicknessMm: 25, air: 'well-ventilated' });
+			const climate = Array.from({ length: 12 }, (_, i) => ({
+				month: i + 1,
+				temperature: -25 + rnd() * 55,
+				relativeHumidity: pick([0, 40, 80, 95, 100])
+			}));
+			const internal =
+				rnd() < 0.5
+					? { temperature: 10 + rnd() * 15, humidityClass: pick([1, 2, 3, 4, 5] as const) }
+					: { temperature: 10 + rnd() * 15, relativeHumidity: pick([1, 30, 60, 100]) };
+			const input: ElementInput = {
+				heatFlow: pick(['upward', 'horizontal', 'downward'] as const),
+				layers,
+				internal,
+				climate
+			};
+			const parsed = parseElementInput(input);
+			if (!parsed.ok) continue; // e.g. a zero total sd: rejected with a message, which is also fine
+			const r = analyseElement(input);
+			analysed++;
+			expect(firstNonFinite(r), JSON.stringify(input)).toBeNull();
+			expect(elementResultSchema.safeParse(r).success).toBe(true);
+		}
+		expect(analysed).toBeGreaterThan(300);
+	});
+
+	it('a build-up of zero total resistance is refused with a message, not a division by zero', () => {
+		expect(() =>
+			analyseElement({
+				heatFlow: 'horizontal',
+				rsi: 0,
+				rse: 0,
+				layers: [{ name: 'foil', thicknessMm: 0.1, resistance: 0 }]
+			})
+		).toThrow(/total thermal resistance is zero/);
 	});
 });

@@ -5,6 +5,7 @@
  */
 import {
 	assertElementInput,
+	ElementInputError,
 	type ElementInput,
 	type ElementResult,
 	type Layer,
@@ -253,6 +254,14 @@ export function buildThermalModel(
 	for (let i = 0; i < active; i++) layers[i].rEquivalent = combined.rEquivalent[i];
 	if (slightly >= 0) layers[slightly].rEquivalent = layers[slightly].rPath;
 
+	if (!(rTotal > 0)) {
+		throw new ElementInputError([
+			{
+				path: 'layers',
+				message: 'the total thermal resistance is zero: give Rsi, Rse or a layer with resistance'
+			}
+		]);
+	}
 	const bridged = combined.bridged;
 	const relativeError = (rUpper - rLower) / (2 * rTotal);
 	if (bridged) {

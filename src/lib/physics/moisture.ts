@@ -115,15 +115,17 @@ export function temperatureFactor(
 /**
  * Minimum temperature factor for one month from the 80 % surface-humidity criterion
  * (ISO 13788:2012, 5.2): psat,min = pi/0.8, θsi,min = θ(psat,min), fRsi,min = (θsi,min − θe)/(θi − θe).
- * Returns null when θe ≥ θi (no heat flows out; the factor is undefined). Temperatures °C, pi Pa.
+ * fRsi,min is null when θe ≥ θi (no heat flows out; the factor is undefined) and, with
+ * θsi,min, when there is no vapour inside (pi = 0). Temperatures °C, pi Pa.
  */
 export function minimumTemperatureFactor(
 	internalTemperatureC: number,
 	externalTemperatureC: number,
 	internalVapourPressurePa: number,
 	criticalRh: number = SURFACE_RH_CRITICAL
-): { fRsiMin: number | null; minSurfaceTemperature: number; minSaturationPressure: number } {
+): { fRsiMin: number | null; minSurfaceTemperature: number | null; minSaturationPressure: number } {
 	const psatMin = internalVapourPressurePa / criticalRh;
+	if (!(psatMin > 0)) return { fRsiMin: null, minSurfaceTemperature: null, minSaturationPressure: 0 };
 	const thetaSiMin = saturationTemperature(psatMin);
 	const dT = internalTemperatureC - externalTemperatureC;
 	return {

@@ -445,7 +445,7 @@ export const surfaceMonthSchema = z.object({
 	externalTemperature: z.number(),
 	internalVapourPressure: z.number(),
 	minSaturationPressure: z.number(),
-	minSurfaceTemperature: z.number(),
+	minSurfaceTemperature: z.number().nullable(),
 	fRsiMin: z.number().nullable()
 });
 
