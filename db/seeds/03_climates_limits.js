@@ -85,7 +85,8 @@ export const DEMO_LIMIT_TABLE = {
 	}
 };
 
-const GENERIC = 'Generic layer values (common practice, no source); check them against the products used.';
+const GENERIC =
+	'Generic, indicative layer values as in the demo library (common practice, no source); check them against the products used.';
 
 /** Layers inside → outside; `code` is the demo library's material code tried for a link. */
 export const DEMO_TEMPLATES = [

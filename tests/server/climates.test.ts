@@ -349,3 +349,28 @@ describe.skipIf(!hasDatabase)('climates', async () => {
 		});
 	});
 });
+
+// The OpenAPI fragment is generated from the same zod schemas the endpoints use (no database needed).
+describe('OpenAPI paths', async () => {
+	const { paths } = await import('../../src/lib/server/openapi/climates');
+	it('describes every climates, limit-tables and templates endpoint with JSON schemas from zod', () => {
+		expect(Object.keys(paths).sort()).toEqual([
+			'/api/v1/climates',
+			'/api/v1/climates/{climateId}',
+			'/api/v1/limit-tables',
+			'/api/v1/limit-tables/{limitTableId}',
+			'/api/v1/limit-tables/{limitTableId}/default',
+			'/api/v1/templates',
+			'/api/v1/templates/{templateId}'
+		]);
+		const put = (paths['/api/v1/climates/{climateId}'] as any).put;
+		const body = put.requestBody.content['application/json'].schema;
+		expect(body.required).toEqual(expect.arrayContaining(['name', 'source', 'months']));
+		expect(body.properties.months.items.properties.relativeHumidity).toMatchObject({ type: 'number' });
+		const lt = (paths['/api/v1/limit-tables'] as any).post.requestBody.content['application/json'].schema;
+		expect(
+			lt.properties.limits.propertyNames?.enum ?? Object.keys(lt.properties.limits.properties ?? {})
+		).toContain('external-wall');
+		expect(JSON.stringify(paths)).not.toMatch(/undefined/);
+	});
+});
