@@ -784,7 +784,7 @@ export function dwellingSummary(s: ReportSnapshot): Content[] {
 		''
 	]);
 	out.push({
-		table: { headerRows: 1, dontBreakRows: true, widths: [12, '*', 90, 40, 46, 32, 44, 40, 78], body },
+		table: { headerRows: 1, dontBreakRows: true, widths: [12, '*', 80, 40, 46, 32, 44, 40, 88], body },
 		layout: rules,
 		fontSize: 8
 	} as Content);
@@ -808,7 +808,7 @@ export function dwellingSummary(s: ReportSnapshot): Content[] {
 					},
 					{
 						stack: [
-							{ text: 'Elements against their limits', fontSize: 7.5, color: SOFT },
+							{ text: 'U-values against their limits', fontSize: 7.5, color: SOFT },
 							{
 								text: failing ? `${failing} exceed${failing === 1 ? 's' : ''}` : 'All meet or have no limit',
 								fontSize: 14,
@@ -822,6 +822,33 @@ export function dwellingSummary(s: ReportSnapshot): Content[] {
 		},
 		layout: panel,
 		margin: [0, 8, 0, 4]
+	} as Content);
+	const accumulating = s.elements
+		.filter((e) => e.result?.condensation?.outcome === 'accumulates')
+		.map((e) => e.name);
+	const mould = s.elements.filter((e) => e.result?.surface && !e.result.surface.pass).map((e) => e.name);
+	out.push({
+		text: [
+			{ text: 'Moisture: ', bold: true },
+			accumulating.length || mould.length
+				? {
+						text: [
+							accumulating.length
+								? `interstitial condensation accumulates in ${accumulating.join(', ')}`
+								: '',
+							accumulating.length && mould.length ? '; ' : '',
+							mould.length ? `the surface-humidity check fails for ${mould.join(', ')}` : '',
+							'. See the element pages.'
+						].join(''),
+						color: FAIL
+					}
+				: {
+						text: 'no element accumulates interstitial condensation, and every surface-humidity check that was run passes.',
+						color: PASS
+					}
+		],
+		fontSize: 8.5,
+		margin: [0, 0, 0, 4]
 	} as Content);
 	out.push({
 		text: `ΣU·A and the mean use the unrounded U-values over the areas given (ΣA = ${fx(area, 2)} m²); the table shows U to the reporting precision. Limits: ${s.limitTable ? `${s.limitTable.name}, ${s.limitTable.edition}` : 'no limit table applies'}. Each element follows on its own pages with its layers, method, charts and moisture checks.`,
