@@ -60,7 +60,7 @@ run_start() {
 	export AUTH_SECRET="$(cat "$ROOT/.data/auth-secret")"
 	export ORIGIN="http://127.0.0.1:$app_port" AUTH_TRUST_HOST=true
 	export SMTP_HOST=127.0.0.1 SMTP_PORT="$smtp_port" MAIL_FROM="Envelo <no-reply@envelo.example.test>"
-	export HOST=127.0.0.1 PORT="$app_port"
+	export HOST=127.0.0.1 PORT="$app_port" BODY_SIZE_LIMIT="${BODY_SIZE_LIMIT:-25M}"
 
 	log "migrating and seeding the demo data"
 	node_modules/.bin/knex --knexfile knexfile.js migrate:latest >/dev/null
