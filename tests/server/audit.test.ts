@@ -454,6 +454,10 @@ describe.skipIf(!hasDatabase)('audit batches (PostgreSQL)', async () => {
 			comment: 'Check the brick λ against the product sheet.'
 		});
 		expect((await tdb()('dwellings').where({ id: d.id }).first()).status).toBe('returned');
+		// the assessor's e-mail is queued in the same transaction (the outbox worker sends it)
+		const mail = await tdb()('mail_outbox').where({ dwelling_id: d.id, purpose: 'audit-return' }).first();
+		expect(mail.to_address).toBe(p.assessor.email);
+		expect(mail.body_text).toContain('Check the brick λ against the product sheet.');
 		// resubmitting before re-issuing is refused
 		await expect(
 			audits.resubmitItem(memberOf(p.assessor), item.id, { comment: 'done' })

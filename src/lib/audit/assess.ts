@@ -208,7 +208,8 @@ export function canonical(v: unknown): string {
 
 const INSULATION_WORDS =
 	/insulation|wool|fibre|fiber|quilt|batt|\bpir\b|\bpur\b|\beps\b|\bxps\b|phenolic|cellulose|foam/i;
-const FRAMED_WORDS = /between|stud|joist|rafter|frame|framing|batten/i;
+const FRAMED_WORDS = /between|\bin(?: the)? (?:studs?|joists?|rafters?|frame)|stud (?:cavity|void)|infill/i;
+const OVER_FRAME_WORDS = /across|over|above|under|below|outside/i;
 
 function looksLikeInsulation(layer: StoredLayer, rev: RevisionInfo | undefined): boolean {
 	if (rev) return rev.category === 'insulation';
@@ -223,7 +224,8 @@ function different(a: number | null | undefined, b: number | null | undefined): 
 type Memo = Map<string, Outcome | Error>;
 
 function analyse(input: ElementInput, memo: Memo): Outcome {
-	const key = canonical(input);
+	// native JSON is fast; a different key order only costs a second calculation, never a wrong one
+	const key = JSON.stringify(input);
 	const hit = memo.get(key);
 	if (hit instanceof Error) throw hit;
 	if (hit) return hit;
@@ -243,8 +245,13 @@ function failure(e: unknown): string {
 	return e instanceof Error ? e.message : String(e);
 }
 
-/** Recompute and flag one dwelling. */
-export function auditDwelling(b: DwellingBundle): DwellingAudit {
+export type AnalysisCache = Map<string, Outcome | Error>;
+
+/**
+ * Recompute and flag one dwelling. `cache` may be shared across the dwellings of a batch: the engine is a
+ * pure function, so an identical input (a build-up repeated from a template) is calculated once.
+ */
+export function auditDwelling(b: DwellingBundle, cache: AnalysisCache = new Map()): DwellingAudit {
 	const flags: Flag[] = [];
 	const report = b.report;
 	const snapshotElements = new Map((report?.snapshot.elements ?? []).map((e) => [e.id, e]));
@@ -259,8 +266,17 @@ export function auditDwelling(b: DwellingBundle): DwellingAudit {
 	}
 
 	const elements: ElementRecompute[] = [];
+	// one flag per library revision and dwelling, naming every layer that uses it
+	type Uses = Map<string, { rev: RevisionInfo; elementId: string; places: string[] }>;
+	const unverified: Uses = new Map();
+	const generic: Uses = new Map();
+	const note = (m: Uses, rev: RevisionInfo, elementId: string, place: string) => {
+		const e = m.get(rev.id) ?? { rev, elementId, places: [] };
+		e.places.push(place);
+		m.set(rev.id, e);
+	};
 	for (const el of b.elements) {
-		const memo: Memo = new Map();
+		const memo: Memo = cache;
 		const snap = snapshotElements.get(el.id);
 		const limit = typeof limits[el.kind] === 'number' ? limits[el.kind]! : null;
 		const rec: ElementRecompute = {
@@ -370,13 +386,17 @@ export function auditDwelling(b: DwellingBundle): DwellingAudit {
 				reason: `${at} could not be recomputed: ${rec.error}`
 			});
 		}
-		try {
-			rec.current = analyse(
-				withRevisions(base, (i) => currentRev(i) ?? usedRev(i)),
-				memo
-			);
-		} catch {
-			rec.current = null;
+		const libraryMoved = layers.some((_, i) => (currentRev(i)?.id ?? usedRev(i)?.id) !== usedRev(i)?.id);
+		if (!libraryMoved) rec.current = rec.used;
+		else {
+			try {
+				rec.current = analyse(
+					withRevisions(base, (i) => currentRev(i) ?? usedRev(i)),
+					memo
+				);
+			} catch {
+				rec.current = null;
+			}
 		}
 
 		// ---- the issued numbers, reproduced with the revisions the report used
@@ -453,7 +473,7 @@ export function auditDwelling(b: DwellingBundle): DwellingAudit {
 					code: 'u-over-limit',
 					severity: 'high',
 					elementId: el.id,
-					reason: `${at}: U = ${rec.used.uRounded} W/(m²·K) is over the limit of ${limit} W/(m²·K)${tableName ? ` (${tableName})` : ''}.`
+					reason: `${at}: U = ${rec.used.uRounded.toFixed(2)} W/(m²·K) is over the limit of ${limit} W/(m²·K)${tableName ? ` (${tableName})` : ''}.`
 				});
 			}
 			if (rec.used.condensation === 'accumulates') {
@@ -494,15 +514,7 @@ export function auditDwelling(b: DwellingBundle): DwellingAudit {
 			}
 			if (rev) {
 				const code = rev.code ? `${rev.code} ` : '';
-				if (rev.status === 'unverified') {
-					flags.push({
-						code: 'material-unverified',
-						severity: 'medium',
-						elementId: el.id,
-						layerIndex: i,
-						reason: `${lname} uses ${code}revision ${rev.revision}, which nobody has verified against its source.`
-					});
-				}
+				if (rev.status === 'unverified') note(unverified, rev, el.id, `${el.name} layer ${i + 1}`);
 				const cur = currentRev(i);
 				if (rev.status === 'superseded' || (cur && cur.id !== rev.id)) {
 					const now =
@@ -517,15 +529,8 @@ export function auditDwelling(b: DwellingBundle): DwellingAudit {
 						reason: `${lname} uses ${code}revision ${rev.revision}${rev.lambda !== null ? ` (λ ${rev.lambda})` : ''}, which has been superseded${now}.`
 					});
 				}
-				if (rev.category === 'insulation' && rev.lambdaKind === 'table') {
-					flags.push({
-						code: 'generic-lambda',
-						severity: 'low',
-						elementId: el.id,
-						layerIndex: i,
-						reason: `${lname} uses a generic table λ for an insulation product; a declared value from the product's documentation is expected.`
-					});
-				}
+				if (rev.category === 'insulation' && rev.lambdaKind === 'table')
+					note(generic, rev, el.id, `${el.name} layer ${i + 1}`);
 				const diffs: string[] = [];
 				if (!layer.air && rev.lambda !== null && different(layer.lambda, rev.lambda))
 					diffs.push(`λ ${layer.lambda} instead of ${rev.lambda}`);
@@ -588,7 +593,11 @@ export function auditDwelling(b: DwellingBundle): DwellingAudit {
 						reason: `${lname} is ${layer.thicknessMm} mm of insulation, more than the ${MAX_INSULATION_LAYER_MM} mm that is plausible in one layer (common practice, no source).`
 					});
 				}
-				if (!layer.bridge && FRAMED_WORDS.test(layer.name ?? '')) {
+				if (
+					!layer.bridge &&
+					FRAMED_WORDS.test(layer.name ?? '') &&
+					!OVER_FRAME_WORDS.test(layer.name ?? '')
+				) {
 					flags.push({
 						code: 'framed-without-bridging',
 						severity: 'high',
@@ -625,6 +634,24 @@ export function auditDwelling(b: DwellingBundle): DwellingAudit {
 		elements.push(rec);
 	}
 
+	const where = (p: string[]) =>
+		p.length === 1 ? p[0] : `${p.slice(0, -1).join(', ')} and ${p[p.length - 1]}`;
+	for (const { rev, elementId, places } of unverified.values()) {
+		flags.push({
+			code: 'material-unverified',
+			severity: 'medium',
+			elementId,
+			reason: `${rev.code ? `${rev.code} ` : ''}"${rev.name}" revision ${rev.revision}, used in ${where(places)}, has not been verified against its source.`
+		});
+	}
+	for (const { rev, elementId, places } of generic.values()) {
+		flags.push({
+			code: 'generic-lambda',
+			severity: 'low',
+			elementId,
+			reason: `${rev.code ? `${rev.code} ` : ''}"${rev.name}", used in ${where(places)}, carries a generic table λ (${rev.lambda} W/(m·K)) for an insulation product; a declared value from the product's documentation is expected.`
+		});
+	}
 	const current = new Set(b.elements.map((e) => e.id));
 	const removedElements = [...snapshotElements.values()]
 		.filter((s) => !current.has(s.id))

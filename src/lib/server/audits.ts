@@ -4,7 +4,7 @@
  */
 import { db, type Db } from './db';
 import { logActivity } from './activity';
-import { sendMail } from './mail';
+import { enqueueMail } from './outbox';
 import { setting } from './config';
 import type { Member } from './guard';
 import type { DwellingAudit } from '$lib/audit/assess';
@@ -429,7 +429,7 @@ export async function decideItem(member: Member, itemId: string, input: Decision
 	if (!DECIDERS.includes(member.role))
 		throw new AuditError(403, 'Only supervisors and admins decide on audited dwellings.');
 	const orgId = member.organisationId;
-	const result = await db.transaction(async (trx) => {
+	await db.transaction(async (trx) => {
 		const item = await trx('audit_items as i')
 			.join('audit_batches as b', 'b.id', 'i.batch_id')
 			.where({ 'i.organisation_id': orgId, 'i.id': itemId })
@@ -477,23 +477,25 @@ export async function decideItem(member: Member, itemId: string, input: Decision
 			},
 			trx
 		);
+		if (input.decision === 'returned' && dwelling?.assessor_id) {
+			await notifyReturn(trx, member, itemId, item, dwelling, input.comment);
+		}
 		return { item, dwelling };
 	});
-	if (input.decision === 'returned' && result.dwelling?.assessor_id) {
-		await notifyReturn(member, itemId, result.item, result.dwelling, input.comment);
-	}
 	const rows = await itemQuery(orgId).andWhere('i.id', itemId);
 	return mapItem(rows[0]);
 }
 
+/** Queue the e-mail to the assessor in the decision's transaction (the outbox worker sends and retries). */
 async function notifyReturn(
+	trx: Db,
 	member: Member,
 	itemId: string,
 	item: Record<string, any>,
 	dwelling: Record<string, any>,
 	comment: string
 ) {
-	const assessor = await db('users').where({ id: dwelling.assessor_id }).first('email', 'name');
+	const assessor = await trx('users').where({ id: dwelling.assessor_id }).first('email', 'name');
 	if (!assessor?.email) return;
 	const flags: Flag[] = item.flags ?? [];
 	const lines = [
@@ -512,30 +514,29 @@ async function notifyReturn(
 		'',
 		'Envelo supports, and does not replace, professional judgement.'
 	];
-	try {
-		await sendMail({
+	const mailId = await enqueueMail(
+		{
+			organisationId: member.organisationId,
+			dwellingId: dwelling.id,
+			purpose: 'audit-return',
 			to: assessor.email,
 			subject: `Returned for correction: ${dwelling.reference}`,
-			text: lines.join('\n')
-		});
-		await logActivity({
+			text: lines.join('\n'),
+			createdBy: member.user.id
+		},
+		trx
+	);
+	await logActivity(
+		{
 			organisationId: member.organisationId,
 			userId: member.user.id,
 			action: 'audit-return-mailed',
 			entity: 'audit_item',
 			entityId: itemId,
-			details: { to: assessor.email }
-		});
-	} catch (e) {
-		await logActivity({
-			organisationId: member.organisationId,
-			userId: member.user.id,
-			action: 'audit-return-mail-failed',
-			entity: 'audit_item',
-			entityId: itemId,
-			details: { to: assessor.email, error: e instanceof Error ? e.message : String(e) }
-		});
-	}
+			details: { to: assessor.email, mailId }
+		},
+		trx
+	);
 }
 
 /* ------------------------------------------------------------------ the assessor's side */

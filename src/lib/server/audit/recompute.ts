@@ -7,6 +7,7 @@ import {
 	auditDwelling,
 	type AuditElement,
 	type AuditReport,
+	type AnalysisCache,
 	type DwellingAudit,
 	type LimitTableInfo,
 	type RevisionInfo
@@ -18,6 +19,23 @@ import type { ClimateMonthValues } from '../../element-input';
 import type { ElementKind } from '../../element-kinds';
 
 type Db = Knex | Knex.Transaction;
+
+/**
+ * The parts of a report snapshot the audit compares, cut out in the database: per element its inputs
+ * and the headline figures of its result (not the per-month Glaser detail or the temperature profile).
+ */
+const SNAPSHOT_FIGURES = `jsonb_build_object('elements', coalesce((
+	select jsonb_agg((e - 'result') || jsonb_build_object('result', case when e->'result' is null or e->'result' = 'null'::jsonb then null else jsonb_build_object(
+		'uValue', e->'result'->'uValue',
+		'uValueRounded', e->'result'->'uValueRounded',
+		'condensation', case when e->'result'->'condensation' is null then null else jsonb_build_object(
+			'outcome', e->'result'->'condensation'->'outcome',
+			'maxAccumulation', e->'result'->'condensation'->'maxAccumulation') end,
+		'surface', case when e->'result'->'surface' is null then null else jsonb_build_object(
+			'pass', e->'result'->'surface'->'pass',
+			'fRsi', e->'result'->'surface'->'fRsi',
+			'fRsiMin', e->'result'->'surface'->'fRsiMin') end) end))
+	from jsonb_array_elements(snapshot->'elements') e), '[]'::jsonb))`;
 const iso = (d: Date | string | null | undefined) => (d ? new Date(d).toISOString() : null);
 
 export type BatchProgress = {
@@ -132,7 +150,14 @@ export async function loadDwellingRows(trx: Db, orgId: string, ids: string[]) {
 					{ column: 'issued_at', order: 'desc' },
 					{ column: 'revision', order: 'desc' }
 				])
-				.select('id', 'dwelling_id', 'number', 'revision', 'issued_at', 'snapshot')
+				.select(
+					'id',
+					'dwelling_id',
+					'number',
+					'revision',
+					'issued_at',
+					trx.raw(`${SNAPSHOT_FIGURES} as snapshot`)
+				)
 				.as('latest')
 		)
 	]);
@@ -215,7 +240,13 @@ export async function auditDwellingsWith(
 	ctx?: Context
 ): Promise<Map<string, DwellingAudit>> {
 	const c = ctx ?? (await loadContext(trx, orgId));
-	const rows = await loadDwellingRows(trx, orgId, ids);
+	return auditRows(await loadDwellingRows(trx, orgId, ids), c);
+}
+
+type DwellingRows = Awaited<ReturnType<typeof loadDwellingRows>>;
+
+/** The CPU part: recompute and flag loaded rows (no I/O). */
+function auditRows(rows: DwellingRows, c: Context): Map<string, DwellingAudit> {
 	const revisions = new Map<string, RevisionInfo>();
 	const currentRevisions = new Map<string, RevisionInfo>();
 	for (const r of rows.revisions) revisions.set(r.id, mapRevision(r));
@@ -251,20 +282,24 @@ export async function auditDwellingsWith(
 		])
 	);
 	const out = new Map<string, DwellingAudit>();
+	const cache: AnalysisCache = new Map();
 	for (const d of rows.dwellings) {
 		const limitTable = (d.limit_table_id ? c.limitTables.get(d.limit_table_id) : null) ?? c.defaultLimitTable;
 		out.set(
 			d.id,
-			auditDwelling({
-				dwellingId: d.id,
-				climateId: d.climate_id,
-				elements: elementsBy.get(d.id) ?? [],
-				report: reportBy.get(d.id) ?? null,
-				limitTable,
-				climates: c.climates,
-				revisions,
-				currentRevisions
-			})
+			auditDwelling(
+				{
+					dwellingId: d.id,
+					climateId: d.climate_id,
+					elements: elementsBy.get(d.id) ?? [],
+					report: reportBy.get(d.id) ?? null,
+					limitTable,
+					climates: c.climates,
+					revisions,
+					currentRevisions
+				},
+				cache
+			)
 		);
 	}
 	return out;
@@ -314,9 +349,19 @@ export async function recomputeBatchWith(
 			.where({ organisation_id: organisationId, batch_id: batchId })
 			.select('id', 'dwelling_id');
 		const itemBy = new Map(items.map((i) => [i.dwelling_id as string, i.id as string]));
+		// Read the next chunk while this one is computed: PostgreSQL works in its own process meanwhile.
+		const load = (at: number) => {
+			if (at >= total) return null;
+			const p = loadDwellingRows(db, organisationId, population.slice(at, at + chunkSize));
+			p.catch(() => {}); // awaited below; this only keeps an early failure from being "unhandled"
+			return p;
+		};
+		let pending = load(0);
 		for (let i = 0; i < total; i += chunkSize) {
 			const ids = population.slice(i, i + chunkSize);
-			const audits = await auditDwellingsWith(db, organisationId, ids, ctx);
+			const rows = await pending!;
+			pending = load(i + chunkSize);
+			const audits = auditRows(rows, ctx);
 			await db.transaction(async (trx) => {
 				const updates: { id: string; flags: Flag[]; recompute: DwellingAudit }[] = [];
 				const toAdd: { id: string; reason: string }[] = [];
