@@ -62,6 +62,12 @@ describe.skipIf(!hasDatabase)('material library', async () => {
 			(await lib.listMaterials(t.org.id, { q: '', status: 'verified', page: 1, pageSize: 50, sort: 'code' }))
 				.total
 		).toBe(0);
+		await lib.createMaterial(actor(t.assessor), boardValues({ lambda: 0.022 }));
+		await lib.createMaterial(actor(t.assessor), boardValues({ lambda: 0.045 }));
+		const byLambda = await lib.listMaterials(t.org.id, { q: '', page: 1, pageSize: 2, sort: '-lambda' });
+		expect([byLambda.total, byLambda.items.map((i) => i.lambda)]).toEqual([3, [0.045, 0.035]]);
+		const page2 = await lib.listMaterials(t.org.id, { q: '', page: 2, pageSize: 2, sort: '-lambda' });
+		expect(page2.items.map((i) => i.lambda)).toEqual([0.022]);
 		// A percent sign is searched for literally, not as a wildcard.
 		expect((await lib.listMaterials(t.org.id, { q: '%', page: 1, pageSize: 50, sort: 'code' })).total).toBe(
 			0
