@@ -13,7 +13,7 @@ test.describe('sign-in by e-mail link', () => {
 			await expect(page).toHaveURL(/\/dwellings/);
 			await expect(page.getByTestId('whoami')).toContainText(new RegExp(role, 'i'));
 			await expect(page.getByTestId('whoami')).toContainText('Northfield Retrofit Partnership');
-			for (const section of ['Dwellings', 'Library', 'Climates', 'Audit', 'Organisation']) {
+			for (const section of ['Dwellings', 'Library', 'Templates', 'Climates', 'Audit', 'Organisation']) {
 				await expect(
 					page.getByRole('navigation', { name: 'Sections' }).getByRole('link', { name: section })
 				).toBeVisible();

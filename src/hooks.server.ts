@@ -2,21 +2,39 @@ import type { Handle, HandleServerError, ServerInit } from '@sveltejs/kit';
 import { sequence } from '@sveltejs/kit/hooks';
 import { randomUUID } from 'node:crypto';
 import { authHandle } from '$lib/server/auth';
-import { getMembershipForUser } from '$lib/server/members';
+import { getSignedInMember } from '$lib/server/members';
 import { startWorkers } from '$lib/server/workers';
 // Background workers register themselves when their module is imported (one line each, below).
 import '$lib/server/audit/worker';
 import '$lib/server/outbox';
 
-/** Who is asking: the signed-in user and their organisation and role, on every request. */
+/** Auth.js's database-session cookie (the __Secure- form is used behind HTTPS). */
+const SESSION_COOKIES = ['__Secure-authjs.session-token', 'authjs.session-token'];
+
+/**
+ * Who is asking: the signed-in user and their organisation and role, on every request, read in one query
+ * from the session row Auth.js wrote (Auth.js itself still handles sign-in, the link and sign-out).
+ */
 const identify: Handle = async ({ event, resolve }) => {
 	event.locals.user = null;
 	event.locals.membership = null;
-	const session = await event.locals.auth();
-	const user = session?.user as { id?: string; email?: string; name?: string | null } | undefined;
-	if (user?.id && user.email) {
-		event.locals.user = { id: user.id, email: user.email, name: user.name ?? null };
-		event.locals.membership = await getMembershipForUser(user.id);
+	const name = SESSION_COOKIES.find((n) => event.cookies.get(n));
+	const token = name ? event.cookies.get(name) : undefined;
+	if (name && token) {
+		const found = await getSignedInMember(token);
+		if (found) {
+			event.locals.user = found.user;
+			event.locals.membership = found.membership;
+			if (found.renewedUntil) {
+				event.cookies.set(name, token, {
+					path: '/',
+					httpOnly: true,
+					sameSite: 'lax',
+					secure: name.startsWith('__Secure-'),
+					expires: found.renewedUntil
+				});
+			}
+		}
 	}
 	return resolve(event);
 };

@@ -76,4 +76,33 @@ describe.skipIf(!hasDatabase)('members', async () => {
 		}
 		expect(requireRole(fakeEvent(assessor) as never, 'assessor').organisationId).toBe(org.id);
 	});
+	it('reads the signed-in member from the session token, refuses expired sessions and renews old ones', async () => {
+		const t = await makeTeam();
+		const fresh = `fresh-${t.assessor.id}`;
+		const old = `old-${t.assessor.id}`;
+		const expired = `expired-${t.assessor.id}`;
+		await tdb()('sessions').insert([
+			{
+				userId: t.assessor.id,
+				sessionToken: fresh,
+				expires: new Date(Date.now() + members.SESSION_MAX_AGE_S * 1000)
+			},
+			{ userId: t.assessor.id, sessionToken: old, expires: new Date(Date.now() + 60_000) },
+			{ userId: t.assessor.id, sessionToken: expired, expires: new Date(Date.now() - 1000) }
+		]);
+		const a = await members.getSignedInMember(fresh);
+		expect(a?.user.id).toBe(t.assessor.id);
+		expect(a?.membership).toEqual({
+			organisationId: t.org.id,
+			organisationName: t.org.name,
+			role: 'assessor'
+		});
+		expect(a?.renewedUntil).toBeNull();
+		const b = await members.getSignedInMember(old);
+		expect(b?.renewedUntil).toBeInstanceOf(Date);
+		const row = await tdb()('sessions').where({ sessionToken: old }).first();
+		expect(new Date(row.expires).getTime()).toBeGreaterThan(Date.now() + 3600_000);
+		expect(await members.getSignedInMember(expired)).toBeNull();
+		expect(await members.getSignedInMember('no-such-token')).toBeNull();
+	});
 });

@@ -4,6 +4,7 @@ import PostgresAdapter from '@auth/pg-adapter';
 import { setting } from './config';
 import { authPool } from './db';
 import { createTransport, mailFrom, smtpSettings } from './mail';
+import { SESSION_MAX_AGE_S, SESSION_UPDATE_AGE_S } from './members';
 
 /** How long a sign-in link stays valid. */
 export const SIGN_IN_LINK_MINUTES = 15;
@@ -45,7 +46,7 @@ export const {
 			sendVerificationRequest: sendSignInLink
 		})
 	],
-	session: { strategy: 'database', maxAge: 12 * 60 * 60, updateAge: 60 * 60 },
+	session: { strategy: 'database', maxAge: SESSION_MAX_AGE_S, updateAge: SESSION_UPDATE_AGE_S },
 	pages: { signIn: '/signin', verifyRequest: '/signin/check-email', error: '/signin/problem' },
 	callbacks: {
 		// Return an explicit object: the callback's input carries the session token and the whole user row.

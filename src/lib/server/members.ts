@@ -171,3 +171,47 @@ export async function removeMember(actor: { userId: string; organisationId: stri
 		);
 	});
 }
+
+/** Session lifetime and how often its expiry is pushed forward; the same values are given to Auth.js. */
+export const SESSION_MAX_AGE_S = 12 * 60 * 60;
+export const SESSION_UPDATE_AGE_S = 60 * 60;
+
+/**
+ * Who holds a session token, with their organisation and role, in one query (every request asks this).
+ * Pushes the session's expiry forward at most once per SESSION_UPDATE_AGE_S; returns the new expiry then.
+ */
+export async function getSignedInMember(sessionToken: string): Promise<{
+	user: { id: string; email: string; name: string | null };
+	membership: MembershipRow | null;
+	renewedUntil: Date | null;
+} | null> {
+	const row = await db('sessions as s')
+		.join('users as u', 'u.id', 's.userId')
+		.leftJoin('memberships as m', 'm.user_id', 'u.id')
+		.leftJoin('organisations as o', 'o.id', 'm.organisation_id')
+		.where('s.sessionToken', sessionToken)
+		.andWhere('s.expires', '>', db.fn.now())
+		.first(
+			'u.id',
+			'u.email',
+			'u.name',
+			's.expires',
+			'm.organisation_id',
+			'm.role',
+			'o.name as organisation_name'
+		);
+	if (!row) return null;
+	let renewedUntil: Date | null = null;
+	const expires = new Date(row.expires).getTime();
+	if (expires - Date.now() < (SESSION_MAX_AGE_S - SESSION_UPDATE_AGE_S) * 1000) {
+		renewedUntil = new Date(Date.now() + SESSION_MAX_AGE_S * 1000);
+		await db('sessions').where({ sessionToken }).update({ expires: renewedUntil });
+	}
+	return {
+		user: { id: row.id, email: row.email, name: row.name ?? null },
+		membership: row.organisation_id
+			? { organisationId: row.organisation_id, organisationName: row.organisation_name, role: row.role }
+			: null,
+		renewedUntil
+	};
+}
