@@ -90,12 +90,13 @@ try {
 	console.log(
 		`import peak RSS: ${mb(rssImport)} MB  target < 300 MB  ${rssImport / 1024 < 300 ? 'ok' : 'MISSED'}`
 	);
-	// The floor is papaparse reading the text once; a preview reads it once, the import (preview + commit) twice.
-	const ratio = previewMs / parseMs;
-	console.log(`preview / parse-only: ${ratio.toFixed(1)}×  target ≤ 5×  ${ratio <= 5 ? 'ok' : 'MISSED'}`);
+	const ratio = importMs / parseMs;
 	console.log(
-		`import total / (2 × parse-only): ${(importMs / (2 * parseMs)).toFixed(1)}× (each of preview and commit reads the file once)`
+		`import total / parse-only: ${ratio.toFixed(1)}×  target ≤ 5×  ${ratio <= 5 ? 'ok' : 'MISSED'}`
 	);
+	// For reading the figure: the preview reads the file once and validates every row; the commit reads it
+	// again (the server keeps no state between the two) and writes 20,000 rows.
+	console.log(`preview alone / parse-only: ${(previewMs / parseMs).toFixed(1)}×`);
 	await k('organisations').where({ id: org }).delete();
 } finally {
 	await k.destroy();

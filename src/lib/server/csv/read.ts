@@ -243,14 +243,13 @@ export function parseCsv(
 		skipEmptyLines: true,
 		step: (res) => {
 			const cursor = res.meta.cursor;
-			const slice = text.slice(prev, cursor);
-			let lead = 0;
-			while (lead < slice.length && (slice[lead] === '\n' || slice[lead] === '\r')) {
-				if (slice[lead] === '\n') linesBefore++;
-				lead++;
+			let i = prev;
+			while (i < cursor && (text.charCodeAt(i) === 10 || text.charCodeAt(i) === 13)) {
+				if (text.charCodeAt(i) === 10) linesBefore++;
+				i++;
 			}
 			const startLine = linesBefore;
-			for (let i = lead; i < slice.length; i++) if (slice.charCodeAt(i) === 10) linesBefore++;
+			for (; i < cursor; i++) if (text.charCodeAt(i) === 10) linesBefore++;
 			prev = cursor;
 			for (const e of res.errors) {
 				if (e.type === 'Quotes' && !quoteError) {
