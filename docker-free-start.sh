@@ -78,6 +78,8 @@ run_start() {
 		node -e "fetch('http://127.0.0.1:$app_port/healthz').then(r=>process.exit(r.ok?0:1),()=>process.exit(1))" && break
 		sleep 0.3
 	done
+	log "issuing the demo reports (once; dwellings that have a report are left alone)"
+	node scripts/demo-reports.js "http://127.0.0.1:$app_port" || log "some demo reports were not issued (see above)"
 	cat <<TXT
 
   Envelo        http://127.0.0.1:$app_port
