@@ -18,9 +18,10 @@ import {
 	type FieldIssue
 } from '$lib/dwellings/errors';
 import type { DwellingStatus } from '$lib/element-kinds';
-import type { ElementKind } from '$lib/element-kinds';
 import { summariseElements, type ElementSummaryRow } from '$lib/dwellings/summary';
 import { listElementSummaries } from './elements';
+import { getClimate } from './climates';
+import { getDefaultLimitTable, getLimitTable } from './limit-tables';
 
 /** Roles that create and change dwellings and elements; supervisors read only. */
 export const WRITE_ROLES = ['assessor', 'admin'] as const;
@@ -122,37 +123,22 @@ export async function listAssessors(organisationId: string) {
 	}));
 }
 
-/**
- * The limit table that applies: the dwelling's choice, else the organisation's default.
- * (Minimal read; the limit-tables module owns the table's full life cycle.)
- */
+/** The limit table that applies: the dwelling's choice, else the organisation's default. */
 export async function getLimitTableFor(organisationId: string, limitTableId: string | null, trx: Db = db) {
-	const q = trx('limit_tables').where('organisation_id', organisationId);
-	const row = limitTableId
-		? await q.andWhere('id', limitTableId).first()
-		: await q.andWhere('is_default', true).first();
-	if (!row) return null;
-	return {
-		id: row.id as string,
-		name: row.name as string,
-		edition: row.edition as string,
-		source: (row.source ?? null) as string | null,
-		isDefault: Boolean(row.is_default),
-		chosen: Boolean(limitTableId),
-		limits: (row.limits ?? {}) as Partial<Record<ElementKind, number>>
-	};
+	const table = limitTableId
+		? await getLimitTable(organisationId, limitTableId, trx)
+		: await getDefaultLimitTable(organisationId, trx);
+	if (!table) return null;
+	const { id, name, edition, source, isDefault, limits } = table;
+	return { id, name, edition, source, isDefault: Boolean(isDefault), chosen: Boolean(limitTableId), limits };
 }
 
+/** The climate's name, source and months (the brief the dwelling and element pages show). */
 export async function getClimateBrief(organisationId: string, climateId: string, trx: Db = db) {
-	const row = await trx('climates').where({ organisation_id: organisationId, id: climateId }).first();
-	if (!row) return null;
-	return {
-		id: row.id as string,
-		name: row.name as string,
-		source: row.source as string,
-		illustrative: Boolean(row.illustrative),
-		months: row.months as { month: number; temperature: number; relativeHumidity: number }[]
-	};
+	const climate = await getClimate(organisationId, climateId, trx);
+	if (!climate) return null;
+	const { id, name, source, illustrative, months } = climate;
+	return { id, name, source, illustrative: Boolean(illustrative), months };
 }
 
 /** Options for the dwelling form: climates and limit tables of the organisation. */

@@ -27,6 +27,7 @@ import {
 	zodIssues,
 	type ClimateBrief
 } from './dwellings';
+import { limitFor } from './limit-tables';
 
 /* ------------------------------------------------------------ reads */
 
@@ -370,7 +371,7 @@ export function withVerdict(
 	element: Element,
 	limitTable: { limits: Partial<Record<ElementKind, number>> } | null
 ): ElementWithVerdict {
-	const limit = limitTable?.limits?.[element.kind] ?? null;
+	const limit = limitFor(limitTable, element.kind);
 	const u = element.givenU ?? element.lastResult?.uValueRounded ?? null;
 	return { ...element, limit, pass: passesLimit(u, limit) };
 }
