@@ -77,7 +77,11 @@ export async function seed(knex) {
 				.onConflict('id')
 				.ignore();
 			await trx('memberships')
-				.insert({ organisation_id: p.org === 'northfield' ? DEMO.northfield.id : DEMO.harbourline.id, user_id: p.id, role: p.role })
+				.insert({
+					organisation_id: p.org === 'northfield' ? DEMO.northfield.id : DEMO.harbourline.id,
+					user_id: p.id,
+					role: p.role
+				})
 				.onConflict(['user_id'])
 				.ignore();
 		}
