@@ -1,3 +1,4 @@
+import { z } from 'zod';
 import { db, type Db } from './db';
 import { logActivity } from './activity';
 import type { Member } from './guard';
@@ -345,6 +346,84 @@ export async function deleteElement(member: Member, id: string, version: number)
 			},
 			t
 		);
+	});
+}
+
+/** The body of a reorder: every element id of the dwelling once, in the new order, and the dwelling's version. */
+export const elementOrderSchema = z.object({
+	ids: z
+		.array(z.uuid({ error: 'must be the id of an element of this dwelling' }), {
+			error: 'is required: every element id of the dwelling, in the new order'
+		})
+		.max(500, 'must list at most 500 elements'),
+	version: versionSchema
+});
+export type ElementOrder = z.output<typeof elementOrderSchema>;
+
+/**
+ * Put the dwelling's elements in the given order (positions 0, 1, 2 …). `ids` must name each of the
+ * dwelling's elements exactly once; `version` is the dwelling's, checked and raised by one, in one
+ * transaction, so two people reordering at once cannot interleave.
+ */
+export async function reorderElements(
+	member: Member,
+	dwellingId: string,
+	raw: unknown
+): Promise<{ version: number; ids: string[] }> {
+	const parsed = elementOrderSchema.safeParse(raw);
+	if (!parsed.success) throw new ValidationError(zodIssues(parsed.error.issues));
+	const { ids, version } = parsed.data;
+	return db.transaction(async (t) => {
+		const dwelling = await lockDwelling(t, member.organisationId, dwellingId);
+		assertWritable(dwelling.status);
+		if (dwelling.version !== version) throw new ConflictError(STALE_MESSAGE, dwelling.version);
+		const rows: { id: string; position: number }[] = await t('elements')
+			.where({ organisation_id: member.organisationId, dwelling_id: dwellingId })
+			.orderBy([{ column: 'position' }, { column: 'created_at' }])
+			.select('id', 'position');
+		const known = new Set(rows.map((r) => r.id));
+		const issues: FieldIssue[] = [];
+		const seen = new Set<string>();
+		ids.forEach((id, i) => {
+			if (seen.has(id)) issues.push({ path: `ids.${i}`, message: 'is listed twice' });
+			else if (!known.has(id))
+				issues.push({ path: `ids.${i}`, message: 'is not an element of this dwelling' });
+			seen.add(id);
+		});
+		const missing = rows.filter((r) => !seen.has(r.id)).length;
+		if (missing) {
+			issues.push({
+				path: 'ids',
+				message: `leaves out ${missing} of the dwelling’s ${rows.length} element(s): list every one once`
+			});
+		}
+		if (issues.length) throw new ValidationError(issues);
+		const before = rows.map((r) => r.id);
+		if (ids.every((id, k) => rows[k].id === id && rows[k].position === k)) {
+			return { version: dwelling.version, ids }; // already in this order: nothing to write
+		}
+		// One statement: each element's position is the index of its id in the new order.
+		await t.raw(
+			`UPDATE elements AS e SET position = o.ord - 1
+			   FROM unnest(?::uuid[]) WITH ORDINALITY AS o(id, ord)
+			  WHERE e.id = o.id AND e.organisation_id = ? AND e.dwelling_id = ?`,
+			[ids, member.organisationId, dwellingId]
+		);
+		await t('dwellings')
+			.where({ organisation_id: member.organisationId, id: dwellingId })
+			.update({ version: dwelling.version + 1, updated_at: t.fn.now() });
+		await logActivity(
+			{
+				organisationId: member.organisationId,
+				userId: member.user.id,
+				action: 'reorder',
+				entity: 'dwelling',
+				entityId: dwellingId,
+				details: { before, after: ids }
+			},
+			t
+		);
+		return { version: dwelling.version + 1, ids };
 	});
 }
 

@@ -10,7 +10,7 @@ import {
 	updateDwelling,
 	WRITE_ROLES
 } from '$lib/server/dwellings';
-import { deleteElement, duplicateElement } from '$lib/server/elements';
+import { deleteElement, duplicateElement, listElementSummaries, reorderElements } from '$lib/server/elements';
 import { copyFormSchema, dwellingFormSchema } from '$lib/dwellings/forms';
 import { ConflictError, NotFoundError, ValidationError } from '$lib/dwellings/errors';
 
@@ -103,6 +103,31 @@ export const actions = {
 		const r = await expected(() => duplicateElement(member, String(data.get('elementId'))));
 		if (!r.ok) return fail(r.status, { actionError: r.message });
 		return { done: `Added “${r.value.name}”.` };
+	},
+	/** Move one element a place up or down (a reorder of the whole list, checked against the dwelling's version). */
+	moveElement: async function move(event) {
+		const member = requireRole(event, ...WRITE_ROLES);
+		const data = await event.request.formData();
+		const id = String(data.get('elementId') ?? '');
+		const direction = data.get('direction');
+		if (direction !== 'up' && direction !== 'down')
+			return fail(400, { actionError: 'direction: must be up or down.' });
+		const elements = await listElementSummaries(member.organisationId, event.params.dwellingId);
+		const ids = elements.map((e) => e.id);
+		const from = ids.indexOf(id);
+		if (from < 0) return fail(400, { actionError: 'elementId: is not an element of this dwelling.' });
+		const to = direction === 'up' ? from - 1 : from + 1;
+		if (to < 0 || to >= ids.length)
+			return fail(400, { actionError: `This element is already ${direction === 'up' ? 'first' : 'last'}.` });
+		[ids[from], ids[to]] = [ids[to], ids[from]];
+		const r = await expected(() =>
+			reorderElements(member, event.params.dwellingId, { ids, version: Number(data.get('version')) })
+		);
+		if (!r.ok) return fail(r.status, { actionError: r.message });
+		return {
+			done: `Moved “${elements[from].name}” ${direction} to place ${to + 1} of ${ids.length}.`,
+			moved: { id, direction, version: r.value.version }
+		};
 	},
 	deleteElement: async function remove(event) {
 		const member = requireRole(event, ...WRITE_ROLES);
