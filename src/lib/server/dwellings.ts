@@ -108,6 +108,34 @@ export async function getDwellingOverview(
 	return { dwelling, elements: rows, totals, limitTable, climate };
 }
 
+/** The supervisor's latest return of the dwelling for correction (comment, who, when, which batch), or null. */
+export async function getReturnNote(organisationId: string, dwellingId: string, trx: Db = db) {
+	const row = await trx('audit_items as i')
+		.join('audit_batches as b', 'b.id', 'i.batch_id')
+		.leftJoin('users as u', 'u.id', 'i.decided_by')
+		.where({ 'i.organisation_id': organisationId, 'i.dwelling_id': dwellingId, 'i.decision': 'returned' })
+		.orderBy('i.decided_at', 'desc')
+		.first(
+			'i.id',
+			'i.batch_id',
+			'i.comment',
+			'i.decided_at',
+			'b.name as batch_name',
+			'u.name as decided_by_name',
+			'u.email as decided_by_email'
+		);
+	if (!row) return null;
+	return {
+		itemId: row.id as string,
+		batchId: row.batch_id as string,
+		batchName: row.batch_name as string,
+		comment: (row.comment ?? '') as string,
+		decidedByName: ((row.decided_by_name ?? row.decided_by_email) as string | null) ?? null,
+		decidedAt: row.decided_at ? new Date(row.decided_at).toISOString() : null
+	};
+}
+export type ReturnNote = NonNullable<Awaited<ReturnType<typeof getReturnNote>>>;
+
 /** Members of the organisation who can be named as the dwelling's assessor. */
 export async function listAssessors(organisationId: string) {
 	const rows = await db('memberships as m')

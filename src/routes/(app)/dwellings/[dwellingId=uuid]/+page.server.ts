@@ -5,6 +5,7 @@ import { requireMember, requireRole } from '$lib/server/guard';
 import {
 	copyDwelling,
 	getDwellingOverview,
+	getReturnNote,
 	listDwellingOptions,
 	setDwellingArchived,
 	updateDwelling,
@@ -19,8 +20,9 @@ export const load = async (event) => {
 	const overview = await getDwellingOverview(member.organisationId, event.params.dwellingId);
 	if (!overview) error(404, 'No such dwelling.');
 	const d = overview.dwelling;
-	const [options, form] = await Promise.all([
+	const [options, returned, form] = await Promise.all([
 		listDwellingOptions(member.organisationId),
+		d.status === 'returned' ? getReturnNote(member.organisationId, d.id) : null,
 		superValidate(zod4(dwellingFormSchema), {
 			defaults: {
 				reference: d.reference,
@@ -36,7 +38,7 @@ export const load = async (event) => {
 			}
 		})
 	]);
-	return { ...overview, options, form };
+	return { ...overview, options, returned, form };
 };
 
 async function expected<T>(fn: () => Promise<T>) {
