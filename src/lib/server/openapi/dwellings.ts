@@ -1,6 +1,7 @@
 /** OpenAPI path items of dwellings, elements and the stateless calculation, from the same zod schemas the API validates with. */
 import { z } from 'zod';
 import { elementInputSchema, elementResultSchema } from '$lib/physics';
+import { elementOrderSchema } from '$lib/server/elements';
 import {
 	archiveSchema,
 	dwellingCopySchema,
@@ -155,6 +156,15 @@ export const paths: Record<string, unknown> = {
 			summary: 'Add an element; the server computes its result',
 			requestBody: body(elementFieldsSchema),
 			responses: { '201': ok('Created', element), ...errors }
+		}
+	},
+	'/api/v1/dwellings/{dwellingId}/elements/order': {
+		parameters: [idParam('dwellingId')],
+		post: {
+			tags: ['elements'],
+			summary: "Set the order of the dwelling's elements (every id once; send the dwelling's version)",
+			requestBody: body(elementOrderSchema),
+			responses: { '200': ok('{ version, ids }'), ...errors, ...conflict }
 		}
 	},
 	'/api/v1/elements/{elementId}': {
