@@ -573,11 +573,22 @@ export class ElementInputError extends Error {
 }
 
 /** Validate raw input (form, JSON, CSV row) without throwing. */
+/**
+ * Inputs this module has validated and returned (zod's output is a fresh object each time). The
+ * calculation trusts them without a second validation, which would cost a third of the calculation
+ * itself; an input changed after parsing must be parsed again. Weak: nothing is kept alive.
+ */
+const validated = new WeakSet<object>();
+
 export function parseElementInput(
 	raw: unknown
 ): { ok: true; data: ElementInput } | { ok: false; issues: FieldIssue[] } {
+	if (typeof raw === 'object' && raw !== null && validated.has(raw))
+		return { ok: true, data: raw as ElementInput };
 	const r = elementInputSchema.safeParse(raw);
-	return r.success ? { ok: true, data: r.data } : { ok: false, issues: formatIssues(r.error) };
+	if (!r.success) return { ok: false, issues: formatIssues(r.error) };
+	validated.add(r.data);
+	return { ok: true, data: r.data };
 }
 
 /** Validate raw input; throws {@link ElementInputError} naming every bad field. */
