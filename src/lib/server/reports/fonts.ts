@@ -25,6 +25,66 @@ function fontDir(): string {
 	return dir;
 }
 
+/** What this module uses of a fontkit font, of fontkit and of pdfkit's document (they ship no types). */
+type FontkitFont = { postscriptName: string };
+type Fontkit = {
+	create(buffer: Uint8Array, postscriptName?: string): FontkitFont;
+	registerFormat(format: unknown): void;
+};
+type PdfkitDocument = {
+	_registeredFonts: Record<string, unknown>;
+	registerFont(name: string, src: Uint8Array): unknown;
+	font(src: unknown, family?: unknown, size?: unknown): unknown;
+};
+
+/**
+ * Parsed fonts, shared by every document of the process. pdfkit reads a font file and hands its bytes to
+ * fontkit.create for each document, and each document then decodes the font's layout and glyph tables
+ * anew: most of the time of a short report. So each TTF file is parsed once, here, and stands in each
+ * document as a small marker buffer, registered under the file's path with pdfkit's own registerFont; a
+ * fontkit format added through fontkit's own registerFormat recognises a marker and returns the parsed
+ * font. The document asks for fonts by path exactly as before (pdfmake's text and the chart SVGs alike),
+ * so it names and subsets them as before and its bytes are the same; each document still builds its own
+ * subset (pdfkit's EmbeddedFont). Safe to share because fontkit is synchronous: no two documents use a
+ * font at the same instant.
+ */
+const parsed = new Map<Uint8Array, FontkitFont>();
+/** font file path → its marker */
+const markers = new Map<string, Buffer>();
+let pending: FontkitFont | undefined;
+
+class ParsedFontFormat {
+	static probe(buffer: Uint8Array): boolean {
+		pending = parsed.get(buffer);
+		return pending !== undefined;
+	}
+	constructor() {
+		const font = pending;
+		pending = undefined;
+		if (!font) throw new Error('parsed-font marker without a font');
+		// A constructor may return another object: fontkit's `new format(stream)` yields the parsed font.
+		return font as unknown as ParsedFontFormat;
+	}
+}
+
+/** fontkit and the pdfkit document class that pdfmake uses, resolved from their own folders. */
+function pdfkitModules(): { fontkit: Fontkit; PDFKit: { prototype: PdfkitDocument } } {
+	const pdfmakeMain = createRequire(import.meta.url).resolve('pdfmake');
+	const pdfkitMain = createRequire(pdfmakeMain).resolve('pdfkit');
+	const fromPdfkit = createRequire(pdfkitMain);
+	return { fontkit: fromPdfkit('fontkit') as Fontkit, PDFKit: fromPdfkit(pdfkitMain) };
+}
+
+/** Parse one TTF file once and keep its marker. */
+function parseOnce(fontkit: Fontkit, file: string): string {
+	const font = fontkit.create(fs.readFileSync(file));
+	// Recognised by no built-in fontkit format (TrueType, OpenType, WOFF, WOFF2, collections, dfont).
+	const marker = Buffer.from(`envelo-parsed-font ${path.basename(file)}`, 'latin1');
+	parsed.set(marker, font);
+	markers.set(file, marker);
+	return file;
+}
+
 let configured = false;
 
 /** Fonts and access policies are process-wide settings of pdfmake; they never change after start. */
@@ -32,12 +92,23 @@ function configure() {
 	if (configured) return;
 	const dir = fontDir();
 	const file = (name: string) => path.join(dir, name);
+	const { fontkit, PDFKit } = pdfkitModules();
+	fontkit.registerFormat(ParsedFontFormat);
+	// A document registers a parsed font (path → marker) the first time it asks for that path.
+	const font = PDFKit.prototype.font;
+	PDFKit.prototype.font = function (this: PdfkitDocument, src: unknown, family?: unknown, size?: unknown) {
+		if (typeof src === 'string' && !(src in this._registeredFonts)) {
+			const marker = markers.get(src);
+			if (marker) this.registerFont(src, marker);
+		}
+		return font.call(this, src, family, size);
+	};
 	pdfmake.setFonts({
 		[FONT]: {
-			normal: file('SourceSans3-Regular.ttf'),
-			bold: file('SourceSans3-Semibold.ttf'),
-			italics: file('SourceSans3-It.ttf'),
-			bolditalics: file('SourceSans3-SemiboldIt.ttf')
+			normal: parseOnce(fontkit, file('SourceSans3-Regular.ttf')),
+			bold: parseOnce(fontkit, file('SourceSans3-Semibold.ttf')),
+			italics: parseOnce(fontkit, file('SourceSans3-It.ttf')),
+			bolditalics: parseOnce(fontkit, file('SourceSans3-SemiboldIt.ttf'))
 		}
 	});
 	// No URL is ever fetched, and only the font folder is read from disk.
