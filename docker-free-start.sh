@@ -12,8 +12,16 @@ ROOT=$(pwd)
 PIDS=()
 PG_DATA_RUNNING=""
 cleanup() {
-	local pid
+	local pid left _
 	for pid in "${PIDS[@]:-}"; do [ -n "$pid" ] && kill "$pid" 2>/dev/null || true; done
+	# Give them ten seconds to finish their work, then stop them hard.
+	for _ in $(seq 1 50); do
+		left=0
+		for pid in "${PIDS[@]:-}"; do [ -n "$pid" ] && kill -0 "$pid" 2>/dev/null && left=1; done
+		[ "$left" -eq 0 ] && break
+		sleep 0.2
+	done
+	for pid in "${PIDS[@]:-}"; do [ -n "$pid" ] && kill -9 "$pid" 2>/dev/null || true; done
 	for pid in "${PIDS[@]:-}"; do [ -n "$pid" ] && wait "$pid" 2>/dev/null || true; done
 	[ -n "$PG_DATA_RUNNING" ] && pg_stop "$PG_DATA_RUNNING"
 	[ -n "${TEST_TMP:-}" ] && rm -rf "$TEST_TMP"
