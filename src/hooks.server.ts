@@ -11,6 +11,41 @@ import '$lib/server/outbox';
 /** Auth.js's database-session cookie (the __Secure- form is used behind HTTPS). */
 const SESSION_COOKIES = ['__Secure-authjs.session-token', 'authjs.session-token'];
 
+type SignedIn = NonNullable<Awaited<ReturnType<typeof getSignedInMember>>>;
+
+/**
+ * The answer to "who holds this token" for a few seconds, so that a burst of requests from one person
+ * (a page and its data, a client calling the API) asks PostgreSQL once. Any request that may change
+ * data (every method but GET, HEAD and OPTIONS, bar the stateless calculations) bumps `generation` when
+ * it finishes, and an answer read under an older generation is not used again: a sign-out, a role change
+ * or a removal made through this server applies to the very next request. A change made behind the
+ * server's back (another process, SQL by hand) applies within IDENTITY_TTL_MS.
+ */
+const IDENTITY_TTL_MS = 5000;
+const IDENTITY_MAX = 10_000;
+const identities = new Map<string, { found: SignedIn; at: number; generation: number }>();
+let generation = 0;
+
+const READ_METHODS = new Set(['GET', 'HEAD', 'OPTIONS']);
+/** POST routes that change nothing. */
+const PURE_POSTS = new Set(['/api/v1/calculate', '/api/v1/calculate/thickness']);
+
+async function signedIn(token: string): Promise<SignedIn | null> {
+	const now = Date.now();
+	const hit = identities.get(token);
+	if (hit && hit.generation === generation && now - hit.at < IDENTITY_TTL_MS) return hit.found;
+	const seen = generation;
+	const found = await getSignedInMember(token);
+	if (!found) {
+		identities.delete(token);
+		return null;
+	}
+	if (identities.size >= IDENTITY_MAX) identities.clear();
+	// Cached without the renewal: the cookie is renewed once, on the request that renewed the row.
+	identities.set(token, { found: { ...found, renewedUntil: null }, at: now, generation: seen });
+	return found;
+}
+
 /**
  * Who is asking: the signed-in user and their organisation and role, on every request, read in one query
  * from the session row Auth.js wrote (Auth.js itself still handles sign-in, the link and sign-out).
@@ -21,7 +56,7 @@ const identify: Handle = async ({ event, resolve }) => {
 	const name = SESSION_COOKIES.find((n) => event.cookies.get(n));
 	const token = name ? event.cookies.get(name) : undefined;
 	if (name && token) {
-		const found = await getSignedInMember(token);
+		const found = await signedIn(token);
 		if (found) {
 			event.locals.user = found.user;
 			event.locals.membership = found.membership;
@@ -36,7 +71,12 @@ const identify: Handle = async ({ event, resolve }) => {
 			}
 		}
 	}
-	return resolve(event);
+	if (READ_METHODS.has(event.request.method) || PURE_POSTS.has(event.url.pathname)) return resolve(event);
+	try {
+		return await resolve(event);
+	} finally {
+		generation++;
+	}
 };
 
 const PUBLIC_PREFIXES = [
@@ -84,7 +124,15 @@ function json(body: unknown, status: number) {
 	return new Response(JSON.stringify(body), { status, headers: { 'content-type': 'application/json' } });
 }
 
-export const handle = sequence(authHandle, identify, guard);
+/**
+ * Auth.js only answers its own routes (/auth/…: the sign-in link, the callback, sign-out); elsewhere its
+ * handle would only build its configuration again for each request. Nothing reads `locals.auth`: who is
+ * asking comes from `identify`, and the sign-in and sign-out forms call Auth.js's signIn and signOut.
+ */
+const auth: Handle = (input) =>
+	input.event.url.pathname.startsWith('/auth/') ? authHandle(input) : input.resolve(input.event);
+
+export const handle = sequence(auth, identify, guard);
 
 export const handleError: HandleServerError = ({ error, event, status, message }) => {
 	if (status === 404) return { message };

@@ -17,9 +17,9 @@ import {
 	pgCode,
 	type FieldIssue
 } from '$lib/dwellings/errors';
-import type { DwellingStatus } from '$lib/element-kinds';
+import type { DwellingStatus, ElementKind } from '$lib/element-kinds';
 import { summariseElements, type ElementSummaryRow } from '$lib/dwellings/summary';
-import { listElementSummaries } from './elements';
+import { listElementSummaries, toElementBrief } from './elements';
 import { getClimate } from './climates';
 import { getDefaultLimitTable, getLimitTable } from './limit-tables';
 
@@ -135,6 +135,100 @@ export async function getReturnNote(organisationId: string, dwellingId: string, 
 	};
 }
 export type ReturnNote = NonNullable<Awaited<ReturnType<typeof getReturnNote>>>;
+
+/**
+ * Everything the dwelling page shows, in one round trip to PostgreSQL: the same answer as
+ * {@link getDwellingOverview} plus {@link listDwellingOptions}, read by one statement of sub-selects
+ * (the page is opened often; eight queries cost more than the page itself). Null when the dwelling is
+ * not the organisation's.
+ */
+export async function getDwellingPage(
+	organisationId: string,
+	id: string
+): Promise<(DwellingOverview & { options: Awaited<ReturnType<typeof listDwellingOptions>> }) | null> {
+	const { rows } = await db.raw(
+		`WITH d AS (
+			SELECT d.*, u.name AS assessor_name, u.email AS assessor_email
+			FROM dwellings d LEFT JOIN users u ON u.id = d.assessor_id
+			WHERE d.organisation_id = :org AND d.id = :id
+		)
+		SELECT
+			(SELECT to_jsonb(d) FROM d) AS dwelling,
+			(SELECT coalesce(jsonb_agg(e ORDER BY e.position, e.created_at), '[]'::jsonb) FROM (
+				SELECT x.id, x.position, x.name, x.kind, x.area, x.heat_flow, x.given_u, x.engine_version,
+					x.version, x.updated_at, x.created_at,
+					x.last_result->'uValue' AS u_value,
+					x.last_result->'uValueRounded' AS u_value_rounded,
+					x.last_result->'condensation'->'outcome' AS moisture,
+					x.last_result->'surface'->'pass' AS surface_pass
+				FROM elements x, d
+				WHERE x.organisation_id = :org AND x.dwelling_id = d.id
+			) e) AS elements,
+			(SELECT to_jsonb(t) FROM limit_tables t, d
+				WHERE t.organisation_id = :org
+					AND (CASE WHEN d.limit_table_id IS NULL THEN t.is_default ELSE t.id = d.limit_table_id END)
+				LIMIT 1) AS limit_table,
+			(SELECT jsonb_build_object('id', c.id, 'name', c.name, 'source', c.source,
+					'illustrative', c.illustrative, 'months', c.months)
+				FROM climates c, d WHERE c.organisation_id = :org AND c.id = d.climate_id) AS climate,
+			(SELECT coalesce(jsonb_agg(jsonb_build_object('id', c.id, 'name', c.name, 'illustrative', c.illustrative)
+					ORDER BY c.name), '[]'::jsonb)
+				FROM climates c WHERE c.organisation_id = :org AND EXISTS (SELECT 1 FROM d)) AS climates,
+			(SELECT coalesce(jsonb_agg(jsonb_build_object('id', t.id, 'name', t.name, 'edition', t.edition,
+					'is_default', t.is_default) ORDER BY t.name), '[]'::jsonb)
+				FROM limit_tables t WHERE t.organisation_id = :org AND EXISTS (SELECT 1 FROM d)) AS limit_tables,
+			(SELECT coalesce(jsonb_agg(jsonb_build_object('id', u.id, 'name', u.name, 'email', u.email)
+					ORDER BY u.name), '[]'::jsonb)
+				FROM memberships m JOIN users u ON u.id = m.user_id
+				WHERE m.organisation_id = :org AND m.role IN ('assessor', 'admin') AND EXISTS (SELECT 1 FROM d)) AS assessors`,
+		{ org: organisationId, id }
+	);
+	const r = rows[0] as Record<string, unknown> | undefined;
+	if (!r || !r.dwelling) return null;
+	const dwelling = toDwelling(r.dwelling as Record<string, unknown>);
+	const t = r.limit_table as Record<string, unknown> | null;
+	const limitTable: LimitTableBrief | null = t
+		? {
+				id: t.id as string,
+				name: t.name as string,
+				edition: t.edition as string,
+				source: (t.source ?? null) as string | null,
+				isDefault: Boolean(t.is_default),
+				chosen: Boolean(dwelling.limitTableId),
+				limits: (t.limits ?? {}) as Partial<Record<ElementKind, number>>
+			}
+		: null;
+	const c = r.climate as Record<string, unknown> | null;
+	const climate: ClimateBrief | null = c
+		? {
+				id: c.id as string,
+				name: c.name as string,
+				source: c.source as string,
+				illustrative: Boolean(c.illustrative),
+				months: c.months as ClimateBrief['months']
+			}
+		: null;
+	const briefs = (r.elements as Record<string, unknown>[]).map(toElementBrief);
+	const { rows: elements, totals } = summariseElements(briefs, limitTable?.limits ?? null);
+	const options = {
+		climates: (r.climates as Record<string, unknown>[]).map((x) => ({
+			id: x.id as string,
+			name: x.name as string,
+			illustrative: Boolean(x.illustrative)
+		})),
+		limitTables: (r.limit_tables as Record<string, unknown>[]).map((x) => ({
+			id: x.id as string,
+			name: `${x.name} (${x.edition})`,
+			isDefault: Boolean(x.is_default)
+		})),
+		assessors: (r.assessors as Record<string, unknown>[]).map((x) => ({
+			id: x.id as string,
+			name: (x.name ?? x.email) as string,
+			email: x.email as string
+		}))
+	};
+	return { dwelling, elements, totals, limitTable, climate, options };
+}
 
 /** Members of the organisation who can be named as the dwelling's assessor. */
 export async function listAssessors(organisationId: string) {

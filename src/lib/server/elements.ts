@@ -57,25 +57,31 @@ export async function listElementSummaries(
 			trx.raw(`last_result->'condensation'->>'outcome' AS moisture`),
 			trx.raw(`(last_result->'surface'->>'pass')::boolean AS surface_pass`)
 		);
-	return rows.map((r) => {
-		const given = r.given_u !== null && r.given_u !== undefined;
-		return {
-			id: r.id,
-			position: r.position,
-			name: r.name,
-			kind: r.kind,
-			area: r.area,
-			heatFlow: r.heat_flow,
-			uValue: given ? r.given_u : (r.u_value ?? null),
-			uValueRounded: given ? r.given_u : (r.u_value_rounded ?? null),
-			given,
-			moisture: r.moisture ?? null,
-			surfacePass: r.surface_pass ?? null,
-			engineVersion: r.engine_version ?? null,
-			version: r.version,
-			updatedAt: new Date(r.updated_at).toISOString()
-		};
-	});
+	return rows.map(toElementBrief);
+}
+
+/**
+ * The summary columns of an element row (also as read inside a JSON aggregate, where timestamps arrive
+ * as text): the U-value and checks come from the stored last_result, nothing is recalculated.
+ */
+export function toElementBrief(r: Record<string, unknown>): ElementBrief {
+	const given = r.given_u !== null && r.given_u !== undefined;
+	return {
+		id: r.id as string,
+		position: r.position as number,
+		name: r.name as string,
+		kind: r.kind as ElementKind,
+		area: r.area as number,
+		heatFlow: r.heat_flow as ElementBrief['heatFlow'],
+		uValue: given ? (r.given_u as number) : ((r.u_value as number | null) ?? null),
+		uValueRounded: given ? (r.given_u as number) : ((r.u_value_rounded as number | null) ?? null),
+		given,
+		moisture: (r.moisture as ElementBrief['moisture']) ?? null,
+		surfacePass: (r.surface_pass as boolean | null) ?? null,
+		engineVersion: (r.engine_version as string | null) ?? null,
+		version: r.version as number,
+		updatedAt: new Date(r.updated_at as string).toISOString()
+	};
 }
 
 export async function getElement(organisationId: string, id: string, trx: Db = db): Promise<Element | null> {

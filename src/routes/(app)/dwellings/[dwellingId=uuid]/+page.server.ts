@@ -4,9 +4,8 @@ import { zod4 } from 'sveltekit-superforms/adapters';
 import { requireMember, requireRole } from '$lib/server/guard';
 import {
 	copyDwelling,
-	getDwellingOverview,
+	getDwellingPage,
 	getReturnNote,
-	listDwellingOptions,
 	setDwellingArchived,
 	updateDwelling,
 	WRITE_ROLES
@@ -17,11 +16,13 @@ import { ConflictError, NotFoundError, ValidationError } from '$lib/dwellings/er
 
 export const load = async (event) => {
 	const member = requireMember(event);
-	const overview = await getDwellingOverview(member.organisationId, event.params.dwellingId);
-	if (!overview) error(404, 'No such dwelling.');
+	// The dwelling, its elements (U and checks from their stored results), limit table, climate and the
+	// form's options, in one query.
+	const page = await getDwellingPage(member.organisationId, event.params.dwellingId);
+	if (!page) error(404, 'No such dwelling.');
+	const { options, ...overview } = page;
 	const d = overview.dwelling;
-	const [options, returned, form] = await Promise.all([
-		listDwellingOptions(member.organisationId),
+	const [returned, form] = await Promise.all([
 		d.status === 'returned' ? getReturnNote(member.organisationId, d.id) : null,
 		superValidate(zod4(dwellingFormSchema), {
 			defaults: {
