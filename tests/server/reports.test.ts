@@ -268,19 +268,22 @@ describe.skipIf(!hasDatabase)('reports', async () => {
 		expect(await reports.listReportsForDwelling(other.org.id, s.dwelling.id)).toEqual([]);
 	});
 
-	it('verifies a code with five facts only, accepts the genuine PDF and rejects a modified one', async () => {
+	it('verifies a code with four facts only, accepts the genuine PDF and rejects a modified one', async () => {
 		const s = await setup();
 		const elementId = await makeElement(s.team.org.id, s.dwelling.id);
 		const issued = await reports.issueReport(s.caller, { dwellingId: s.dwelling.id, elementId }, ORIGIN);
 		const v = await reports.verifyCode(reports.formatCode(issued.verificationCode).toLowerCase());
 		expect(v).not.toBeNull();
+		// Four facts about the dwelling and its report, plus whether a later revision replaced it.
 		expect(Object.keys(v!).sort()).toEqual([
 			'assessor',
 			'dwellingReference',
 			'issuedAt',
 			'number',
-			'revision'
+			'revision',
+			'supersededBy'
 		]);
+		expect(v!.supersededBy).toBeNull();
 		expect(v!.dwellingReference).toBe(s.dwelling.reference);
 		expect(v!.assessor).toContain('REG-T-0001');
 		expect(await reports.verifyCode('ZZZZZZZZZZ')).toBeNull();
@@ -289,6 +292,33 @@ describe.skipIf(!hasDatabase)('reports', async () => {
 		const changed = Buffer.from(pdf);
 		changed[Math.floor(changed.length / 2)] ^= 0x01;
 		expect(await reports.checkPdfAgainstCode(issued.verificationCode, changed)).toBe('mismatch');
+	});
+
+	it('tells that a code belongs to a superseded revision, with the date of the one that replaced it', async () => {
+		// Common practice, no source: a superseded report stays verifiable but must say it was replaced.
+		const s = await setup();
+		await makeElement(s.team.org.id, s.dwelling.id);
+		const first = await reports.issueReport(s.caller, { dwellingId: s.dwelling.id }, ORIGIN);
+		const second = await reports.issueReport(s.caller, { dwellingId: s.dwelling.id }, ORIGIN);
+		const old = await reports.verifyCode(first.verificationCode);
+		expect(old!.revision).toBe(1);
+		expect(old!.supersededBy).toEqual({ revision: 2, issuedAt: second.issuedAt });
+		expect((await reports.verifyCode(second.verificationCode))!.supersededBy).toBeNull();
+
+		// The public page: its load gives the same facts for the grouped and the plain form of the code.
+		const page = await import('../../src/routes/(public)/verify/[code]/+page.server');
+		const load = page.load as unknown as (e: { params: { code: string } }) => Promise<{
+			report: Awaited<ReturnType<typeof reports.verifyCode>>;
+			code: string;
+		}>;
+		const grouped = await load({ params: { code: reports.formatCode(first.verificationCode) } });
+		const plain = await load({ params: { code: first.verificationCode.toLowerCase() } });
+		expect(grouped.code).toBe(first.verificationCode);
+		expect(plain).toEqual(grouped);
+		expect(grouped.report!.supersededBy!.revision).toBe(2);
+		// Nothing of the dwelling beyond its reference reaches the public page.
+		expect(JSON.stringify(grouped)).not.toContain('Test Lane');
+		expect(JSON.stringify(grouped)).not.toContain('Test Client');
 	});
 
 	describe('e-mail through the outbox', () => {

@@ -796,15 +796,22 @@ export type VerifiedReport = {
 	issuedAt: string;
 	dwellingReference: string;
 	assessor: string;
+	/** The revision that replaced this one, when there is one: its revision number and date only. */
+	supersededBy: { revision: number; issuedAt: string } | null;
 };
 
-/** What the public page may show for a code: nothing beyond these five facts. */
+/**
+ * What the public page may show for a code: the report's number and revision, its date, the dwelling
+ * reference and the assessor (no other dwelling data), and whether a later revision superseded it.
+ */
 export async function verifyCode(rawCode: string): Promise<VerifiedReport | null> {
 	const code = normaliseCode(rawCode);
 	if (!/^[0-9A-Z]{10}$/.test(code)) return null;
 	const row = await db('reports')
 		.where({ verification_code: code })
 		.first(
+			'id',
+			'organisation_id',
 			'number',
 			'revision',
 			'issued_at',
@@ -813,6 +820,10 @@ export async function verifyCode(rawCode: string): Promise<VerifiedReport | null
 			db.raw(`snapshot #>> '{dwelling,assessor,registrationNumber}' as assessor_reg`)
 		);
 	if (!row) return null;
+	const newer = await db('reports')
+		.where({ supersedes_id: row.id, organisation_id: row.organisation_id })
+		.orderBy('revision')
+		.first('revision', 'issued_at');
 	return {
 		number: row.number,
 		revision: Number(row.revision),
@@ -820,7 +831,10 @@ export async function verifyCode(rawCode: string): Promise<VerifiedReport | null
 		dwellingReference: row.reference ?? '',
 		assessor: row.assessor_name
 			? `${row.assessor_name}${row.assessor_reg ? `, registration no. ${row.assessor_reg}` : ''}`
-			: '—'
+			: '—',
+		supersededBy: newer
+			? { revision: Number(newer.revision), issuedAt: new Date(newer.issued_at).toISOString() }
+			: null
 	};
 }
 
