@@ -28,6 +28,8 @@ test('a supervisor audits the demo programme; the assessor answers a return; the
 	const batchId = page.url().split('/').pop()!;
 	await expect(page.getByTestId('progress')).toHaveAttribute('data-state', 'done', { timeout: 60_000 });
 	await expect(page.getByRole('progressbar')).toBeVisible();
+	// the audit state and the dwelling's own status are two separate columns
+	await expect(page.getByTestId('dwelling-status').first()).toHaveText('Draft');
 	await page.screenshot({ path: '/tmp/audit-batch.png', fullPage: true });
 
 	// a flagged dwelling of Ben Okafor that can be issued
@@ -55,14 +57,24 @@ test('a supervisor audits the demo programme; the assessor answers a return; the
 	await page.goto(`/audit/${batchId}/items/${chosen!.id}`);
 	await expect(page.getByTestId('flags')).toBeVisible();
 	await page.screenshot({ path: '/tmp/audit-review.png', fullPage: true });
-	// keyboard: 3 chooses "Returned for correction" and focuses the comment
+	// keyboard: 3 chooses "Returned for correction"; c focuses the comment without typing a "c"; once in the
+	// comment every key types (digits and shortcut letters too) and Ctrl+Enter records
 	await page.locator('body').press('3');
 	await expect(page.getByLabel('Returned for correction')).toBeChecked();
-	await page
-		.getByLabel(/^Comment/)
-		.fill('Issue the dwelling report before the audit; check the loft insulation thickness.');
-	await page.getByRole('button', { name: 'Record decision' }).click();
+	await page.locator('body').press('c');
+	const commentBox = page.getByLabel(/^Comment/);
+	await expect(commentBox).toBeFocused();
+	await expect(commentBox).toHaveValue('');
+	const typed =
+		'Issue the dwelling report before the audit; check the loft insulation thickness (1 2 3, j k n b c).';
+	await page.keyboard.type(typed);
+	await expect(commentBox).toHaveValue(typed);
+	await expect(page.getByLabel('Returned for correction')).toBeChecked();
+	await page.keyboard.press('Control+Enter');
 	await expect(page.getByTestId('item-state')).toHaveText(/Returned/);
+	const stored = await db()('audit_items').where({ id: chosen!.id }).first('comment');
+	expect(stored.comment).toBe(typed);
+	await expect(page.locator('[aria-label="History"]')).toContainText('Decision: Returned for correction by');
 
 	// the assessor: e-mail, "Returned to me", re-issue, resubmit
 	const mail = await waitForMail(
@@ -101,7 +113,8 @@ test('a supervisor audits the demo programme; the assessor answers a return; the
 	await expect(page.getByTestId('item-state')).toHaveText(/^Accepted/);
 	const history = page.locator('[aria-label="History"]');
 	await expect(history).toContainText('Returned for correction');
-	await expect(history).toContainText('Resubmitted by the assessor');
+	await expect(history).toContainText('Resubmitted by Ben Okafor');
+	await expect(history).not.toContainText('Decision :');
 	await page.screenshot({ path: '/tmp/audit-accepted.png', fullPage: true });
 
 	// exports

@@ -1,6 +1,7 @@
 /** The batch summary as CSV, one row per dwelling; text cells are neutralised against formula injection. */
 import { toCsv } from '../csv/write';
 import { FLAG_LABELS, ITEM_STATE_LABELS } from '$lib/audit/flags';
+import { DWELLING_STATUS_LABELS, type DwellingStatus } from '$lib/element-kinds';
 import type { ItemRow } from '../audits';
 
 export function batchCsv(items: ItemRow[]): string {
@@ -16,6 +17,7 @@ export function batchCsv(items: ItemRow[]): string {
 		'flags low',
 		'flag kinds',
 		'outcome',
+		'dwelling status',
 		'comment',
 		'decided by',
 		'decided at',
@@ -34,6 +36,7 @@ export function batchCsv(items: ItemRow[]): string {
 		i.flags.filter((f) => f.severity === 'low').length,
 		[...new Set(i.flags.map((f) => FLAG_LABELS[f.code] ?? f.code))].join('; '),
 		ITEM_STATE_LABELS[i.state],
+		DWELLING_STATUS_LABELS[i.dwellingStatus as DwellingStatus] ?? i.dwellingStatus,
 		i.comment,
 		i.decidedByName,
 		i.decidedAt,

@@ -6,8 +6,10 @@ import pdfmake from 'pdfmake';
 import type { Content, TDocumentDefinitions } from 'pdfmake/interfaces';
 import { CAUTIONS } from '$lib/physics';
 import { FLAG_LABELS, ITEM_STATE_LABELS, SEVERITY_LABELS } from '$lib/audit/flags';
+import { DWELLING_STATUS_LABELS, type DwellingStatus } from '$lib/element-kinds';
 import type { Batch, BatchSummary, ItemRow } from '../audits';
 import { uChartSvg } from './chart';
+import { whenUtc } from '$lib/components/reports/when';
 
 const FONT = 'SourceSans3';
 
@@ -80,12 +82,12 @@ export async function batchReportPdf(
 		content: [
 			{ text: `Audit report: ${batch.name}`, fontSize: 16, bold: true },
 			{
-				text: `Created ${batch.createdAt.slice(0, 10)} by ${batch.createdByName ?? 'unknown'}; generated ${new Date().toISOString().slice(0, 16).replace('T', ' ')} UTC by ${generatedBy}.`,
+				text: `Created ${whenUtc(batch.createdAt)} by ${batch.createdByName ?? 'unknown'}; generated ${whenUtc(new Date().toISOString())} by ${generatedBy}.`,
 				margin: [0, 2, 0, 0],
 				color: '#5b554c'
 			},
 			{
-				text: `Sampling: ${rule}${s.includeFlagged ? ', plus every dwelling that carries a flag' : ''}; seed ${batch.seed}. Drawn from ${batch.counts.population} dwellings; ${summary.items} in the batch. Recomputed: ${batch.progress.finishedAt ? batch.progress.finishedAt.slice(0, 16).replace('T', ' ') + ' UTC' : 'not yet'}.`,
+				text: `Sampling: ${rule}${s.includeFlagged ? ', plus every dwelling that carries a flag' : ''}; seed ${batch.seed}. Drawn from ${batch.counts.population} dwellings; ${summary.items} in the batch. Recomputed: ${batch.progress.finishedAt ? whenUtc(batch.progress.finishedAt) : 'not yet'}.`,
 				margin: [0, 2, 0, 8]
 			},
 			{ text: 'Outcomes', bold: true, fontSize: 11, margin: [0, 4, 0, 2] },
@@ -93,7 +95,7 @@ export async function batchReportPdf(
 				table: {
 					widths: ['*', 60],
 					body: [
-						[th('Outcome'), th('Dwellings', true)],
+						[th('Audit / dwelling status'), th('Dwellings', true)],
 						...Object.entries(summary.byState).map(([k, v]) => [
 							ITEM_STATE_LABELS[k as keyof typeof ITEM_STATE_LABELS],
 							num(v)
@@ -182,7 +184,7 @@ export async function batchReportPdf(
 							th('Assessor'),
 							th('Flags', true),
 							th('Flag kinds and comment'),
-							th('Outcome'),
+							th('Audit / dwelling status'),
 							th('Decided')
 						],
 						...items.map((i) => [
@@ -195,8 +197,10 @@ export async function batchReportPdf(
 									...(i.comment ? [{ text: i.comment, italics: true }] : [])
 								]
 							},
-							ITEM_STATE_LABELS[i.state] + (i.resubmissions ? ` (resubmitted ${i.resubmissions}×)` : ''),
-							i.decidedAt ? `${i.decidedAt.slice(0, 10)}\n${i.decidedByName ?? ''}` : '—'
+							ITEM_STATE_LABELS[i.state] +
+								(i.resubmissions ? ` (resubmitted ${i.resubmissions}×)` : '') +
+								`\ndwelling: ${DWELLING_STATUS_LABELS[i.dwellingStatus as DwellingStatus] ?? i.dwellingStatus}`,
+							i.decidedAt ? `${whenUtc(i.decidedAt)}\n${i.decidedByName ?? ''}` : '—'
 						])
 					]
 				},
