@@ -37,6 +37,7 @@ import {
 	vapourThickness
 } from './moisture';
 import { solveSeries } from './series';
+import { ROOF_SPACE_RESISTANCE, ROOF_SPACE_LABELS, slabOnGroundU } from './ground';
 import { runGlaser, type GlaserMonth, type NodeKind } from './glaser';
 import { DEFAULT_ROUNDING_DESCRIPTION, DEFAULT_U_ROUNDING, describeRounding, roundValue } from './rounding';
 import { CAUTIONS, ENGINE_VERSION } from './cautions';
@@ -70,6 +71,12 @@ export interface LayerModel {
 export interface ThermalModel {
 	rsi: number;
 	rse: number;
+	/** resistance between the last active layer and the external air: Rse, plus a roof space or the ground's equivalent resistance, m²·K/W */
+	rExternal: number;
+	/** ground floors: RT and U of the build-up alone, and the ISO 13370 figures */
+	ground?: NonNullable<ElementResult['ground']> & { rBuildUp: number; uBuildUp: number };
+	/** roof-space resistance included in RT, m²·K/W */
+	rRoofSpace?: number;
 	layers: LayerModel[];
 	/** number of layers inside a well-ventilated air layer (all layers when there is none) */
 	active: number;
@@ -133,6 +140,15 @@ export function buildThermalModel(
 				: `Rse = ${rse} m²·K/W as given (overrides ISO 6946).`
 		);
 	}
+
+	const rRoofSpace = input.roofSpace ? ROOF_SPACE_RESISTANCE[input.roofSpace] : 0;
+	if (input.roofSpace) {
+		notes.push(
+			`Roof space above the ceiling (${ROOF_SPACE_LABELS[input.roofSpace].toLowerCase()}): Ru = ${rRoofSpace} m²·K/W (ISO 6946:2017, roof-space table) is added to RT between the last layer and Rse.`
+		);
+	}
+	/** resistance outside the last layer that enters RT */
+	const rOut = rse + rRoofSpace;
 
 	const layers: LayerModel[] = new Array(input.layers.length);
 	let pos = 0;
@@ -216,14 +232,14 @@ export function buildThermalModel(
 	let rLower: number;
 	let rClear: number;
 	if (slightly < 0) {
-		combined = combinedMethod(rsi, rse, series(0, active));
+		combined = combinedMethod(rsi, rOut, series(0, active));
 		({ rTotal, rUpper, rLower, rClear } = combined);
 	} else {
 		// ISO 6946:2017, 6.9.3: weighted between the unventilated and the well-ventilated case.
 		const av = layers[slightly].layer.openingAreaMm2 as number;
 		const outer = combinedMethod(0, 0, series(slightly + 1, active)).rLower;
 		const scale = outer > SLIGHTLY_VENTILATED_OUTER_CAP ? SLIGHTLY_VENTILATED_OUTER_CAP / outer : 1;
-		const unvent = combinedMethod(rsi, rse, [
+		const unvent = combinedMethod(rsi, rOut, [
 			...series(0, slightly + 1),
 			...series(slightly + 1, active, scale)
 		]);
@@ -241,7 +257,7 @@ export function buildThermalModel(
 					: '.')
 		);
 		// Along the profile path the air layer carries whatever makes the series total equal RT (clear field).
-		let others = rsi + rse;
+		let others = rsi + rOut;
 		for (let i = 0; i < active; i++) if (i !== slightly) others += layers[i].r;
 		const eff = rClear - others;
 		layers[slightly].rPath = Math.max(0, eff);
@@ -250,7 +266,7 @@ export function buildThermalModel(
 				(eff < 0 ? ' and does not reproduce RT exactly.' : '.')
 		);
 	}
-	if (slightly >= 0) combined = combinedMethod(rsi, rse, series(0, active)); // sections and equivalents, unscaled
+	if (slightly >= 0) combined = combinedMethod(rsi, rOut, series(0, active)); // sections and equivalents, unscaled
 	for (let i = 0; i < active; i++) layers[i].rEquivalent = combined.rEquivalent[i];
 	if (slightly >= 0) layers[slightly].rEquivalent = layers[slightly].rPath;
 
@@ -278,6 +294,42 @@ export function buildThermalModel(
 		}
 	}
 
+	let rExternal = rOut;
+	let ground: ThermalModel['ground'];
+	if (input.ground) {
+		// ISO 13370:2017, 8.1: the floor's layers give Rf; the ground adds the rest.
+		const rBuildUp = rTotal;
+		const rFloor = rBuildUp - rsi - rse;
+		const g = slabOnGroundU(input.ground, rsi, rFloor, rse);
+		const rGround = 1 / g.u - rBuildUp;
+		rTotal = 1 / g.u;
+		rExternal = rse + rGround;
+		ground = {
+			method: 'ISO 13370:2017, 8.1 (slab on ground)',
+			perimeterM: input.ground.perimeterM,
+			areaM2: input.ground.areaM2,
+			characteristicDimensionM: g.characteristicDimensionM,
+			equivalentThicknessM: g.equivalentThicknessM,
+			groundLambda: g.groundLambda,
+			wallThicknessM: g.wallThicknessM,
+			regime: g.regime,
+			rGround,
+			rBuildUp,
+			uBuildUp: 1 / rBuildUp
+		};
+		notes.push(
+			`Floor on the ground, U by ISO 13370:2017, 8.1 (slab on ground): B′ = A/(0.5·P) = ${fmt(g.characteristicDimensionM)} m, ` +
+				`dt = w + λg·(Rsi + Rf + Rse) = ${fmt(g.wallThicknessM)} + ${fmt(g.groundLambda)}·(${fmt(rsi)} + ${fmt(rFloor)} + ${fmt(rse)}) = ${fmt(g.equivalentThicknessM)} m, ` +
+				(g.regime === 'dt < B′'
+					? `dt < B′: U = 2λg/(π·B′ + dt)·ln(π·B′/dt + 1) = ${fmt(g.u, 4)} W/(m²·K).`
+					: `dt ≥ B′: U = λg/(0.457·B′ + dt) = ${fmt(g.u, 4)} W/(m²·K).`)
+		);
+		notes.push(
+			`The build-up alone (as if exposed to outside air) has RT = ${fmt(rBuildUp)} m²·K/W, U = ${fmt(1 / rBuildUp, 4)} W/(m²·K). ` +
+				`The temperature profile and the surface check use the floor's equivalent resistance 1/U = ${fmt(rTotal)} m²·K/W: the ground adds ${fmt(rGround)} m²·K/W between the underside of the floor and the external air (a steady-state simplification; the ground's heat storage is not modelled).`
+		);
+	}
+
 	const uUncorrected = 1 / rTotal;
 	let deltaUAirGaps = 0;
 	let deltaUFasteners = 0;
@@ -295,20 +347,38 @@ export function buildThermalModel(
 	}
 	const deltaU = deltaUAirGaps + deltaUFasteners;
 	const applied = applyCorrections(uUncorrected, deltaU, input.corrections ?? 'standard');
+	const gapsGiven = input.layers.some((l, i) => i < active && l.airGapLevel !== undefined);
+	const fastenersGiven = input.layers.some((l, i) => i < active && l.fasteners !== undefined);
+	const parts: string[] = [];
+	if (gapsGiven) parts.push(`air gaps ${fmt(deltaUAirGaps, 4)}`);
+	if (fastenersGiven) parts.push(`fasteners ${fmt(deltaUFasteners, 4)}`);
+	if (!gapsGiven && !fastenersGiven) {
+		notes.push('Corrections ΔU: no air-gap level and no fasteners entered, so none is calculated.');
+	} else if (deltaU === 0) {
+		notes.push(
+			`Corrections ΔU: ${parts.join(', ')} W/(m²·K) — nothing to add` +
+				(!gapsGiven ? '; air-gap level not given.' : !fastenersGiven ? '; no fasteners entered.' : '.')
+		);
+	}
 	if (deltaU > 0) {
 		notes.push(
 			applied.applied
-				? `ΔU = ${fmt(deltaU, 4)} W/(m²·K) (air gaps ${fmt(deltaUAirGaps, 4)}, fasteners ${fmt(deltaUFasteners, 4)}; ISO 6946:2017 Annex F) is applied` +
+				? `ΔU = ${fmt(deltaU, 4)} W/(m²·K) (${parts.join(', ')}; ISO 6946:2017 Annex F) is applied` +
 						(input.corrections === 'always'
 							? ' as asked.'
 							: `: it is ${fmt((deltaU / uUncorrected) * 100, 1)} % of U, not below 3 %.`)
-				: `ΔU = ${fmt(deltaU, 4)} W/(m²·K) is ${fmt((deltaU / uUncorrected) * 100, 1)} % of U, below 3 %, and is omitted (ISO 6946:2017, clause 7).`
+				: `ΔU = ${fmt(deltaU, 4)} W/(m²·K) (${parts.join(', ')}) is ${fmt((deltaU / uUncorrected) * 100, 1)} % of U, below 3 %, and is omitted (ISO 6946:2017, clause 7).`
 		);
+		if (!gapsGiven) notes.push('Air-gap level not given: no air-gap correction.');
+		if (!fastenersGiven) notes.push('No fasteners entered: no fastener correction.');
 	}
 
 	return {
 		rsi,
 		rse,
+		rExternal,
+		...(ground ? { ground } : {}),
+		...(input.roofSpace ? { rRoofSpace } : {}),
 		layers,
 		active,
 		combined,
@@ -378,7 +448,7 @@ export function analyseElement(raw: ElementInput): ElementResult {
 			e++;
 		}
 	}
-	gHeat[e] = rse > 0 ? 1 / rse : Infinity;
+	gHeat[e] = tm.rExternal > 0 ? 1 / tm.rExternal : Infinity;
 	posNode[e + 1] = posNode[e];
 	layerOfNode[e + 1] = active - 1;
 	kindOfNode[e] = 'external-surface';
@@ -447,6 +517,24 @@ export function analyseElement(raw: ElementInput): ElementResult {
 		roundingConvention: input.rounding ? describeRounding(rounding) : DEFAULT_ROUNDING_DESCRIPTION,
 		uUncorrected: tm.uUncorrected,
 		rTotal: tm.rTotal,
+		...(tm.ground
+			? {
+					uBuildUp: tm.ground.uBuildUp,
+					rBuildUp: tm.ground.rBuildUp,
+					ground: {
+						method: tm.ground.method,
+						perimeterM: tm.ground.perimeterM,
+						areaM2: tm.ground.areaM2,
+						characteristicDimensionM: tm.ground.characteristicDimensionM,
+						equivalentThicknessM: tm.ground.equivalentThicknessM,
+						groundLambda: tm.ground.groundLambda,
+						wallThicknessM: tm.ground.wallThicknessM,
+						regime: tm.ground.regime,
+						rGround: tm.ground.rGround
+					}
+				}
+			: {}),
+		...(tm.rRoofSpace !== undefined ? { rRoofSpace: tm.rRoofSpace } : {}),
 		...(tm.bridged ? { rUpper: tm.rUpper, rLower: tm.rLower, relativeError: tm.relativeError } : {}),
 		deltaU: tm.deltaU,
 		deltaUAirGaps: tm.deltaUAirGaps,
@@ -544,6 +632,14 @@ export function analyseElement(raw: ElementInput): ElementResult {
 			);
 		}
 
+		if (input.ground) {
+			// The Glaser method needs the vapour conditions on both faces; under a slab lies ground, not outside air.
+			notes.push(
+				'Interstitial condensation: not assessed for a floor in contact with the ground (the Glaser method with the external climate does not describe the ground under the slab).'
+			);
+			return result;
+		}
+
 		// Interstitial condensation, ISO 13788:2012 clause 6: nodes from internal to external surface.
 		const nV = nElem - 2;
 		const glaser = runGlaser(
@@ -601,6 +697,8 @@ export function analyseElement(raw: ElementInput): ElementResult {
 			vapourProfile: glaser.vapourProfile,
 			acceptance: { pass: reasons.length === 0, reasons }
 		};
+	} else if (input.ground) {
+		notes.push('Interstitial condensation: not assessed for a floor in contact with the ground.');
 	} else if (input.climate === undefined && input.internal !== undefined) {
 		notes.push('No climate given: the moisture checks are not run.');
 	}

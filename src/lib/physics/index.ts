@@ -3,7 +3,8 @@
  *
  * ISO 6946 U-values (surface and air-layer resistances, combined method for bridged layers, ΔU
  * corrections), a 1-D finite-element conduction solve for the temperature profile, and the
- * ISO 13788 surface-humidity (fRsi) and monthly Glaser interstitial-condensation checks.
+ * ISO 13788 surface-humidity (fRsi) and monthly Glaser interstitial-condensation checks; floors on
+ * the ground by ISO 13370 (slab on ground) and roof spaces above insulated ceilings (ISO 6946).
  */
 export { analyseElement, buildThermalModel, GLASER_SUBLAYER_MAX_R } from './element';
 export type { ThermalModel, LayerModel } from './element';
@@ -51,6 +52,17 @@ export { roundValue, describeRounding, DEFAULT_U_ROUNDING } from './rounding';
 export type { RoundingRule } from './rounding';
 export { ENGINE_VERSION, CAUTIONS } from './cautions';
 export {
+	slabOnGroundU,
+	characteristicDimension,
+	GROUND_LAMBDA,
+	GROUND_LAMBDA_DEFAULT,
+	WALL_THICKNESS_DEFAULT_M,
+	ROOF_SPACES,
+	ROOF_SPACE_RESISTANCE,
+	ROOF_SPACE_LABELS
+} from './ground';
+export type { GroundFloorInput, GroundFloorResult, RoofSpace } from './ground';
+export {
 	elementInputSchema,
 	layerSchema,
 	bridgeSchema,
@@ -61,6 +73,8 @@ export {
 	layerResultSchema,
 	surfaceResultSchema,
 	condensationResultSchema,
+	groundResultSchema,
+	roofSpaceSchema,
 	parseElementInput,
 	assertElementInput,
 	formatIssues,

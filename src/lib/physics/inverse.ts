@@ -75,6 +75,7 @@ export function solveThicknessDetailed(
 	let exact: number;
 	let method: ThicknessSolution['method'];
 	const plain =
+		!input.ground && // ISO 13370: U is not linear in RT
 		!layer.bridge &&
 		base.deltaU === 0 &&
 		!input.layers.some((l, i) => l.air === 'slightly-ventilated' && i < base.active && i < layerIndex);

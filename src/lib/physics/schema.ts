@@ -11,6 +11,7 @@
 import { z } from 'zod';
 import { AIR_LAYER_MAX_MM, AIR_OPENING_SLIGHTLY_MAX, AIR_OPENING_UNVENTILATED_MAX } from './resistances';
 import { MAX_BRIDGED_LAYERS } from './bridging';
+import { ROOF_SPACES } from './ground';
 
 const describe = (v: unknown): string => {
 	if (typeof v === 'number') return Number.isNaN(v) ? 'NaN' : String(v);
@@ -181,10 +182,34 @@ const ELEMENT_RANGES: (readonly [string, readonly Rule[]])[] = [
 	['rse', RESISTANCE_LIMIT],
 	['surfaceRsi', [[(v) => v > 0 && v <= 10, 'must be over 0 and at most 10 m²·K/W']]]
 ];
+const GROUND_RANGES: (readonly [string, readonly Rule[]])[] = [
+	['perimeterM', [...POSITIVE, [(v) => v <= 100000, 'must be ≤ 100 000 m']]],
+	['areaM2', [...POSITIVE, [(v) => v <= 1000000, 'must be ≤ 1 000 000 m²']]],
+	['groundLambda', [...POSITIVE, [(v) => v <= 10, 'must be ≤ 10 W/(m·K)']]],
+	['wallThicknessM', [...NON_NEGATIVE, [(v) => v <= 3, 'must be ≤ 3 m']]]
+];
 const DESIGN_RANGES: (readonly [string, readonly Rule[]])[] = [
 	['internal', TEMPERATURE],
 	['external', TEMPERATURE]
 ];
+
+function refineGround(g: Record<string, unknown>, add: Add): void {
+	checkRanges(g, add, GROUND_RANGES);
+	const p = g.perimeterM;
+	const a = g.areaM2;
+	// No plane figure has a shorter boundary than the circle of the same area.
+	if (
+		typeof p === 'number' &&
+		typeof a === 'number' &&
+		p > 0 &&
+		a > 0 &&
+		p < 2 * Math.sqrt(Math.PI * a) - 1e-9
+	)
+		add(
+			['perimeterM'],
+			`is too short for a floor of ${a} m²: the perimeter of any shape of that area is at least ${(Math.ceil(2 * Math.sqrt(Math.PI * a) * 100) / 100).toFixed(2)} m`
+		);
+}
 
 function refineClimateMonth(m: Record<string, unknown>, add: Add): void {
 	checkRanges(m, add, CLIMATE_RANGES);
@@ -303,6 +328,19 @@ export const internalSchema = standalone(internalShape, refineInternal);
 export const roundingSchema = standalone(roundingShape, refineRounding);
 export const moistureLimitsSchema = standalone(moistureLimitsShape, refineLimits);
 
+const groundShape = z.object({
+	/** exposed perimeter of the floor, m; > 0 */
+	perimeterM: num(),
+	/** floor area, m²; > 0 */
+	areaM2: num(),
+	/** thermal conductivity of the ground, W/(m·K); default 2.0 */
+	groundLambda: num().optional(),
+	/** thickness of the external walls, m; default 0.3 */
+	wallThicknessM: num().optional()
+});
+
+export const roofSpaceSchema = z.enum(ROOF_SPACES, { error: `must be one of ${ROOF_SPACES.join(', ')}` });
+
 const elementShape = z.object({
 	heatFlow: heatFlowSchema,
 	/** m²·K/W; overrides the ISO 6946 value for U and profile (0–10) */
@@ -321,7 +359,11 @@ const elementShape = z.object({
 	/** ISO 6946 rule (omit ΔU below 3 % of U) or always apply ΔU */
 	corrections: z.enum(['standard', 'always'], { error: 'must be standard or always' }).optional(),
 	rounding: roundingShape.optional(),
-	moistureLimits: moistureLimitsShape.optional()
+	moistureLimits: moistureLimitsShape.optional(),
+	/** slab-on-ground floor: U by ISO 13370 from the floor's geometry and the ground */
+	ground: groundShape.optional(),
+	/** roof space above an insulated ceiling: its resistance (ISO 6946) is added to RT */
+	roofSpace: roofSpaceSchema.optional()
 });
 
 function refineElement(e: Record<string, unknown>, add: Add): void {
@@ -344,6 +386,26 @@ function refineElement(e: Record<string, unknown>, add: Add): void {
 		: [];
 	for (let i = 0; i < layers.length; i++) refineLayer(layers[i], prefixed(add, ['layers', i]));
 	const well = layers.findIndex((l) => l.air === 'well-ventilated');
+	if (isObject(e.ground)) {
+		refineGround(e.ground, prefixed(add, ['ground']));
+		if (e.heatFlow !== undefined && e.heatFlow !== 'downward')
+			add(['ground'], 'applies to a floor only: the heat flow must be downward');
+		if (well >= 0)
+			add(
+				['ground'],
+				'a floor on the ground cannot have a well-ventilated air layer (a suspended floor over a ventilated void is not covered)'
+			);
+		if (e.roofSpace !== undefined) add(['roofSpace'], 'a floor on the ground has no roof space');
+	}
+	if (e.roofSpace !== undefined) {
+		if (e.heatFlow !== undefined && e.heatFlow !== 'upward')
+			add(['roofSpace'], 'applies to a ceiling under a roof space only: the heat flow must be upward');
+		if (well >= 0)
+			add(
+				['roofSpace'],
+				'give either a roof space or a well-ventilated air layer: the roof space already includes the ventilated space'
+			);
+	}
 	if (well === 0)
 		add(['layers', 0, 'air'], 'the first layer cannot be well ventilated: no layer would remain inside it');
 	const active = well < 0 ? layers.length : well;
@@ -380,6 +442,8 @@ function refineElement(e: Record<string, unknown>, add: Add): void {
 	} else if (internal.relativeHumidity === undefined && internal.humidityClass === undefined) {
 		add(['internal', 'relativeHumidity'], 'give relativeHumidity or humidityClass for the moisture checks');
 	}
+	// A floor on the ground gets the surface check only: no vapour data is needed.
+	if (isObject(e.ground)) return;
 	let sdTotal = 0;
 	let allGiven = true;
 	for (let i = 0; i < active; i++) {
@@ -514,6 +578,19 @@ export const condensationResultSchema = z.object({
 	acceptance: z.object({ pass: z.boolean(), reasons: z.array(z.string()) })
 });
 
+export const groundResultSchema = z.object({
+	method: z.string(),
+	perimeterM: z.number(),
+	areaM2: z.number(),
+	characteristicDimensionM: z.number(),
+	equivalentThicknessM: z.number(),
+	groundLambda: z.number(),
+	wallThicknessM: z.number(),
+	regime: z.string(),
+	/** resistance of the ground between the last layer and Rse that gives the floor's U, m²·K/W */
+	rGround: z.number()
+});
+
 export const elementResultSchema = z.object({
 	engineVersion: z.string(),
 	uValue: z.number(),
@@ -522,6 +599,12 @@ export const elementResultSchema = z.object({
 	/** U before corrections, W/(m²·K) */
 	uUncorrected: z.number(),
 	rTotal: z.number(),
+	/** ground floors: U and RT of the build-up alone (as if exposed to outside air) */
+	uBuildUp: z.number().optional(),
+	rBuildUp: z.number().optional(),
+	ground: groundResultSchema.optional(),
+	/** ceilings under a roof space: the roof-space resistance included in RT, m²·K/W */
+	rRoofSpace: z.number().optional(),
 	rUpper: z.number().optional(),
 	rLower: z.number().optional(),
 	relativeError: z.number().optional(),
