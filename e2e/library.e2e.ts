@@ -19,7 +19,8 @@ test('upload a CSV, read the preview, confirm, and find the new materials in the
 		HEAD +
 		`E2E-${tag}-1;"Wood fibre board; flexible";insulation;0,038;declared;2;55;Declaration of performance E2E-1\n` +
 		`E2E-${tag}-2;Hemp batt;insulation;0,040;declared;1;40;Declaration of performance E2E-2\n` +
-		`E2E-${tag}-3;Odd board;insulation;O.035;declared;1;40;Declaration of performance E2E-3\n`;
+		`E2E-${tag}-3;Odd board;insulation;O.035;declared;1;40;Declaration of performance E2E-3\n` +
+		`E2E-${tag}-4;Short row;insulation\n`;
 
 	await page.goto('/library');
 	await expect(page.getByTestId('material-row').first()).toBeVisible();
@@ -32,12 +33,17 @@ test('upload a CSV, read the preview, confirm, and find the new materials in the
 	await expect(preview).toContainText('separated by semicolons');
 	await expect(preview).toContainText('decimal comma');
 	await expect(preview).toContainText('byte-order mark');
-	await expect(page.getByTestId('preview-row')).toHaveCount(3);
+	await expect(page.getByTestId('preview-row')).toHaveCount(4);
 	await expect(preview).toContainText("line 4, lambda: 'O.035' is not a number");
+	// a row whose cells cannot be placed: no column name, the code it seems to carry
+	await expect(preview).toContainText(
+		`line 5: the row for 'E2E-${tag}-4' has 3 cells but the header has 8 columns`
+	);
+	await expect(preview).not.toContainText('(line)');
 	await page.screenshot({ path: '/tmp/library-import-preview.png', fullPage: true });
 	await page.getByRole('button', { name: 'Confirm and import 2 rows' }).click();
 	await expect(page.getByTestId('import-summary')).toContainText(
-		'2 added, 0 changed (new revisions), 0 unchanged, 1 rejected'
+		'2 added, 0 changed (new revisions), 0 unchanged, 2 rejected'
 	);
 
 	await page.getByRole('link', { name: 'Open the library' }).click();
@@ -45,6 +51,8 @@ test('upload a CSV, read the preview, confirm, and find the new materials in the
 	await expect(page.getByTestId('material-row')).toHaveCount(2);
 	await expect(page.getByTestId('library-table')).toContainText('Wood fibre board; flexible');
 	await expect(page.getByTestId('library-table')).toContainText('0.038');
+	// λ to three decimals: 0,040 shows as 0.040, not 0.04
+	await expect(page.getByTestId('material-row').filter({ hasText: 'Hemp batt' })).toContainText('0.040');
 	await page.screenshot({ path: '/tmp/library-list.png', fullPage: true });
 });
 

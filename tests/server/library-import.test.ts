@@ -37,7 +37,9 @@ describe.skipIf(!hasDatabase)('material library CSV', async () => {
 	const issues = (p: Awaited<ReturnType<typeof preview>>) => {
 		if (p.kind !== 'preview') throw new Error('expected a preview');
 		return p.rows.map(
-			(r) => `line ${r.line}: ${r.status}` + r.errors.map((e) => ` | ${e.column}: ${e.message}`).join('')
+			(r) =>
+				`line ${r.line}: ${r.status}` +
+				r.errors.map((e) => ` | ${e.column ? `${e.column}: ` : ''}${e.message}`).join('')
 		);
 	};
 
@@ -296,7 +298,7 @@ describe.skipIf(!hasDatabase)('material library CSV', async () => {
 		);
 		expect(issues(p)).toEqual([
 			'line 2: new',
-			'line 3: rejected | (line): has 2 columns, the header has 6; check for a missing or extra separator',
+			"line 3: rejected | the row for 'S-2' has 2 cells but the header has 6 columns; check for a missing or extra separator",
 			'line 4: new'
 		]);
 	});

@@ -17,6 +17,17 @@ describe.skipIf(!hasDatabase)('material library', async () => {
 		await authPool.end();
 	});
 
+	it('shows λ to three decimals so the decimal points line up, keeping a fourth when needed', async () => {
+		const { lambdaShown } = await import('../../src/lib/components/library/value');
+		expect([2, 1.35, 0.035, 0.0045, null].map(lambdaShown)).toEqual([
+			'2.000',
+			'1.350',
+			'0.035',
+			'0.0045',
+			'–'
+		]);
+	});
+
 	it('creates a material as revision 1, unverified, and lists it with search and filters', async () => {
 		const t = await makeTeam();
 		const v = boardValues({ name: 'Searchable wood fibre board' });
@@ -89,6 +100,17 @@ describe.skipIf(!hasDatabase)('material library', async () => {
 		});
 		await expect(lib.createMaterial(actor(t.assessor), boardValues({ name: '=1+1' }))).rejects.toMatchObject({
 			issues: [{ field: 'name' }]
+		});
+		// λ missing with its kind given: only the root cause, not a second error on the kind
+		await expect(lib.createMaterial(actor(t.assessor), boardValues({ lambda: null }))).rejects.toMatchObject({
+			status: 400,
+			issues: [{ field: 'lambda', message: 'give λ or a fixed thermal resistance' }]
+		});
+		// a kind of λ beside a fixed resistance is its own fault
+		await expect(
+			lib.createMaterial(actor(t.assessor), boardValues({ lambda: null, resistance: 0.18 }))
+		).rejects.toMatchObject({
+			issues: [{ field: 'lambdaKind', message: 'applies only when λ is given' }]
 		});
 		// λ 0.35 is far above what insulation has (ISO 10456:2007 Table 3 range, from memory): a warning.
 		const odd = boardValues({ lambda: 0.35 });

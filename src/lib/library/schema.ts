@@ -125,7 +125,10 @@ export const materialValuesSchema = materialValuesObject.superRefine((m, ctx) =>
 	if (has(m.lambda) && has(m.resistance))
 		issue('resistance', 'give either λ or a fixed thermal resistance, not both');
 	if (has(m.lambda) && !has(m.lambdaKind)) issue('lambdaKind', 'say whether λ is declared, design or table');
-	if (!has(m.lambda) && has(m.lambdaKind)) issue('lambdaKind', 'applies only when λ is given');
+	// With neither λ nor R the missing value is the one fault to report; a kind of λ beside a fixed R is a
+	// separate one.
+	if (!has(m.lambda) && has(m.resistance) && has(m.lambdaKind))
+		issue('lambdaKind', 'applies only when λ is given');
 	if (has(m.sd) && (has(m.muDry) || has(m.muWet))) issue('sd', 'give either μ or an sd-value, not both');
 	if (has(m.muWet) && !has(m.muDry)) issue('muDry', 'is required when μ wet is given');
 	if (has(m.thicknessMinMm) && has(m.thicknessMaxMm) && m.thicknessMaxMm! < m.thicknessMinMm!) {

@@ -154,6 +154,7 @@ export function mappingProblems(headers: string[], mapping: ColumnMapping): stri
 	return problems;
 }
 
+/** A problem with one row: `column` names the CSV column at fault, or is '' when the whole row is. */
 export type RowIssue = { column: string; message: string };
 export type RowStatus = 'new' | 'changed' | 'unchanged' | 'rejected';
 export type PreviewRow = {
@@ -238,15 +239,17 @@ function readRow(
 	const failed = new Set<string>();
 	const columnOf: Partial<Record<ImportField, string>> = {};
 	if (cells.length !== headers.length) {
-		// The cells cannot be placed under their columns: say so and nothing else.
-		const message = `has ${cells.length} ${cells.length === 1 ? 'column' : 'columns'}, the header has ${headers.length}; check for a missing or extra separator${cells.length > headers.length ? ' (text with a separator needs "quotes")' : ''}`;
+		// The cells cannot be placed under their columns: say so and nothing else. The code is named when its
+		// cell is there to read (the separator fault may lie after it).
 		const codeAt = headers.findIndex((h) => mapping[h] === 'code');
+		const code = codeAt >= 0 && codeAt < cells.length ? unneutralise((cells[codeAt] ?? '').trim()) : '';
+		const message = `${code ? `the row for '${code}'` : 'the row'} has ${cells.length} ${cells.length === 1 ? 'cell' : 'cells'} but the header has ${headers.length} columns; check for a missing or extra separator${cells.length > headers.length ? ' (text with a separator needs "quotes")' : ''}`;
 		return {
 			line,
 			code: '',
 			values: null,
-			raw: { code: codeAt >= 0 ? cells[codeAt] : '' },
-			errors: [{ column: '(line)', message }],
+			raw: { code },
+			errors: [{ column: '', message }],
 			warnings: []
 		};
 	}
@@ -446,7 +449,8 @@ async function analyse(
 	const preview: PreviewRow[] = rows.map((r) => {
 		const base = {
 			line: r.line,
-			code: r.code,
+			// a row whose cells cannot be placed still shows the code it seems to carry
+			code: r.code || String(r.raw.code ?? ''),
 			name: String(r.raw.name ?? ''),
 			category: String(r.raw.category ?? ''),
 			errors: r.errors,
