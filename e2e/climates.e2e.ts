@@ -128,6 +128,25 @@ test('an admin keeps limit tables: field errors, a new table made default', asyn
 	await page.goto(`/organisation/limit-tables/${demo.id}`, { waitUntil: 'networkidle' });
 	await page.getByRole('button', { name: 'Make default' }).click();
 	await expect(page.getByTestId('default-badge')).toBeVisible();
+
+	// The default judges the demo dwellings: new limits are refused until the admin confirms; nothing is
+	// saved here, so other suites keep the seeded limits.
+	await page.getByRole('button', { name: 'Edit' }).click();
+	await expect(page.getByTestId('limit-change-warning')).toContainText(/used by \d+ dwellings/);
+	await expect(page.getByTestId('limit-change-warning')).toContainText(
+		'Issued reports keep the limits they were issued with'
+	);
+	const wall = page.getByLabel('Maximum U, External wall');
+	const before = await wall.inputValue();
+	await wall.fill('0.27');
+	await page.getByRole('button', { name: 'Save changes' }).click();
+	await expect(page.getByRole('alert')).toContainText('Tick the box to save the new limits');
+	await expect(page.getByTestId('limit-changes')).toContainText(
+		`External wall: ${Number(before).toFixed(2)}`
+	);
+	await page.screenshot({ path: shot('limit-table-confirm'), fullPage: true });
+	const stored = await db()('limit_tables').where({ id: demo.id }).first('limits');
+	expect(stored.limits['external-wall']).toBe(Number(before));
 });
 
 test('an assessor reads templates with a guide U-value; a supervisor cannot change them', async ({

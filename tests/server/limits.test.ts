@@ -177,6 +177,118 @@ describe.skipIf(!hasDatabase)('limit tables', async () => {
 		expect(log.map((r) => r.action)).toEqual(['create', 'create', 'update', 'set-default']);
 	});
 
+	// Editing limits in place re-judges every dwelling using the table: Envelo's own safeguard (common
+	// practice, no source): warn with the count, save only when confirmed, log old and new limits.
+	it('asks to confirm new limits on a table dwellings use, then logs the old and new limits', async () => {
+		const t = await makeTeam();
+		const a = await lt.createLimitTable(asMember(t.admin), { name: 'A', edition: '1', limits: LIMITS });
+		const b = await lt.createLimitTable(asMember(t.admin), { name: 'B', edition: '1', limits: LIMITS });
+		const dwelling = (limitTableId: string | null) => ({
+			organisation_id: t.org.id,
+			reference: `D-${Math.random().toString(36).slice(2, 10)}`,
+			address: '1 Test Row',
+			status: 'draft',
+			limit_table_id: limitTableId
+		});
+		await tdb()('dwellings').insert([dwelling(b.id), dwelling(null), dwelling(null)]);
+		expect(await lt.limitTableUsage(t.org.id, b.id)).toEqual({
+			named: 1,
+			byDefault: 0,
+			dwellings: 1,
+			isDefault: false
+		});
+		expect(await lt.limitTableUsage(t.org.id, a.id)).toEqual({
+			named: 0,
+			byDefault: 2,
+			dwellings: 2,
+			isDefault: true
+		});
+
+		const url = `/api/v1/limit-tables/${b.id}`;
+		const params = { limitTableId: b.id };
+		// a new edition name with the same limits judges nobody differently: no confirmation needed
+		const renamed = await call(one.PUT, t.admin, 'PUT', url, {
+			params,
+			body: { name: 'B', edition: '1a', limits: LIMITS }
+		});
+		expect(renamed.status).toBe(200);
+		// a changed limit without confirm: 409 with the count and the changes, nothing saved
+		const newLimits = { ...LIMITS, 'external-wall': 0.28 };
+		const refused = await call(one.PUT, t.admin, 'PUT', url, {
+			params,
+			body: { name: 'B', edition: '2', limits: newLimits }
+		});
+		expect(refused.status).toBe(409);
+		expect(refused.json).toMatchObject({
+			needsConfirm: true,
+			dwellings: 1,
+			changes: [{ kind: 'external-wall', from: 0.3, to: 0.28 }]
+		});
+		expect(refused.json.message).toContain('used by 1 dwelling;');
+		expect(refused.json.message).toContain('pass/fail will be re-evaluated');
+		expect(refused.json.message).toContain('Issued reports keep the limits they were issued with');
+		expect((await lt.getLimitTable(t.org.id, b.id))?.limits).toEqual(LIMITS);
+		const badConfirm = await call(one.PUT, t.admin, 'PUT', url, {
+			params,
+			body: { name: 'B', edition: '2', limits: newLimits, confirm: 'yes' }
+		});
+		expect(badConfirm.status).toBe(400);
+		expect(badConfirm.json.issues).toEqual([{ path: 'confirm', message: 'confirm must be true or false' }]);
+		const saved = await call(one.PUT, t.admin, 'PUT', url, {
+			params,
+			body: { name: 'B', edition: '2', limits: newLimits, confirm: true }
+		});
+		expect(saved.status).toBe(200);
+		expect(saved.json.limits).toEqual(newLimits);
+		const log = await tdb()('activity_log')
+			.where({ organisation_id: t.org.id, entity: 'limit-table', entity_id: b.id, action: 'update' })
+			.orderBy('id', 'desc')
+			.first();
+		expect(log.details).toMatchObject({
+			previousLimits: LIMITS,
+			limits: newLimits,
+			changes: [{ kind: 'external-wall', from: 0.3, to: 0.28 }],
+			dwellingsJudged: 1,
+			confirmed: true
+		});
+
+		// the default judges the dwellings naming no table; the page form needs its box ticked
+		await expect(
+			lt.updateLimitTable(asMember(t.admin), a.id, { name: 'A', edition: '1', limits: { window: 1.4 } })
+		).rejects.toThrow("used by 2 dwellings (0 by name, 2 as the organisation's default)");
+		const page =
+			await import('../../src/routes/(app)/organisation/limit-tables/[limitTableId=uuid]/+page.server');
+		const loaded: any = await page.load({
+			...fakeEvent(t.supervisor, `/organisation/limit-tables/${a.id}`),
+			params: { limitTableId: a.id }
+		} as any);
+		expect(loaded.changeWarning).toContain('used by 2 dwellings');
+		const submit = async (confirm: boolean) => {
+			const fd = new FormData();
+			fd.set('name', 'A');
+			fd.set('edition', '1');
+			fd.set('limit.window', '1.4');
+			if (confirm) fd.set('confirm', 'on');
+			const path = `/organisation/limit-tables/${a.id}`;
+			return page.actions.update({
+				...fakeEvent(t.admin, path),
+				params: { limitTableId: a.id },
+				request: new Request(`http://127.0.0.1${path}?/update`, { method: 'POST', body: fd })
+			} as any);
+		};
+		const unconfirmed: any = await submit(false);
+		expect(unconfirmed.status).toBe(409);
+		expect(unconfirmed.data.errors.confirm).toContain('Tick the box');
+		expect(unconfirmed.data.changes.map((c: { kind: string }) => c.kind)).toEqual([
+			'external-wall',
+			'flat-roof',
+			'window'
+		]);
+		expect((await lt.getLimitTable(t.org.id, a.id))?.limits).toEqual(LIMITS);
+		expect(await submit(true)).toEqual({ done: 'Limit table saved.' });
+		expect((await lt.getLimitTable(t.org.id, a.id))?.limits).toEqual({ window: 1.4 });
+	});
+
 	it("gives another organisation's member 404 everywhere, without echoing the id", async () => {
 		const a = await makeTeam();
 		const b = await makeTeam();

@@ -81,11 +81,76 @@ export async function createLimitTable(
 	return trx ? write(trx) : db.transaction(write);
 }
 
-/** Replaces a table's fields; `isDefault: true` makes it the default, `false` is ignored (set another instead). */
+/** How many dwellings a table judges: those naming it, and (for the default) those naming none. */
+export type LimitTableUsage = { named: number; byDefault: number; dwellings: number; isDefault: boolean };
+
+export async function limitTableUsage(
+	organisationId: string,
+	id: string,
+	trx: Db = db
+): Promise<LimitTableUsage | null> {
+	const row = await trx('limit_tables').where({ organisation_id: organisationId, id }).first('is_default');
+	if (!row) return null;
+	const [{ named, unnamed }] = await trx('dwellings')
+		.where({ organisation_id: organisationId })
+		.select(
+			trx.raw('count(*) FILTER (WHERE limit_table_id = ?) AS named', [id]),
+			trx.raw('count(*) FILTER (WHERE limit_table_id IS NULL) AS unnamed')
+		);
+	const byDefault = row.is_default ? Number(unnamed) : 0;
+	return { named: Number(named), byDefault, dwellings: Number(named) + byDefault, isDefault: row.is_default };
+}
+
+/** One element kind whose maximum U differs between two versions of a table (null: no limit). */
+export type LimitChange = { kind: ElementKind; from: number | null; to: number | null };
+
+export function limitChanges(
+	from: Partial<Record<ElementKind, number>>,
+	to: Partial<Record<ElementKind, number>>
+): LimitChange[] {
+	const kinds = [...new Set([...Object.keys(from), ...Object.keys(to)])] as ElementKind[];
+	return kinds
+		.map((kind) => ({ kind, from: from[kind] ?? null, to: to[kind] ?? null }))
+		.filter((c) => c.from !== c.to)
+		.sort((a, b) => a.kind.localeCompare(b.kind));
+}
+
+/** The plain-language warning for changing the limits of a table dwellings are judged against. */
+export function limitChangeWarning(usage: LimitTableUsage): string {
+	const n = usage.dwellings;
+	const who =
+		n === 0
+			? "It is the organisation's default: dwellings without a table of their own will be judged against the new limits."
+			: `It is used by ${n} dwelling${n === 1 ? '' : 's'}${
+					usage.isDefault && usage.byDefault > 0
+						? ` (${usage.named} by name, ${usage.byDefault} as the organisation's default)`
+						: ''
+				}; their pass/fail will be re-evaluated against the new limits.`;
+	return `${who} Issued reports keep the limits they were issued with.`;
+}
+
+/** Saving new limits on a table in use needs an explicit confirmation (`confirm: true`). */
+export class LimitChangeNeedsConfirm extends ConflictError {
+	constructor(
+		message: string,
+		readonly usage: LimitTableUsage,
+		readonly changes: LimitChange[]
+	) {
+		super(message);
+		this.name = 'LimitChangeNeedsConfirm';
+	}
+}
+
+/**
+ * Replaces a table's fields; `isDefault: true` makes it the default, `false` is ignored (set another
+ * instead). Changing a limit of a table that dwellings are judged against (or of the default) is refused
+ * with {@link LimitChangeNeedsConfirm} unless `confirm` is true; the log keeps the old and new limits.
+ */
 export async function updateLimitTable(
 	member: Member,
 	id: string,
-	input: LimitTableInput
+	input: LimitTableInput,
+	opts: { confirm?: boolean } = {}
 ): Promise<LimitTable | null> {
 	const data = limitTableInputSchema.parse(input);
 	return db.transaction(async (t) => {
@@ -94,6 +159,17 @@ export async function updateLimitTable(
 			.forUpdate()
 			.first();
 		if (!current) return null;
+		const previousLimits: Partial<Record<ElementKind, number>> = current.limits ?? {};
+		const changes = limitChanges(previousLimits, data.limits);
+		const usage = (await limitTableUsage(member.organisationId, id, t))!;
+		const inUse = usage.dwellings > 0 || usage.isDefault;
+		if (changes.length > 0 && inUse && opts.confirm !== true) {
+			throw new LimitChangeNeedsConfirm(
+				`"${current.name} (${current.edition})": ${limitChangeWarning(usage)} Confirm to save the new limits.`,
+				usage,
+				changes
+			);
+		}
 		if (data.isDefault === true && !current.is_default) {
 			await t('limit_tables')
 				.where({ organisation_id: member.organisationId, is_default: true })
@@ -112,7 +188,21 @@ export async function updateLimitTable(
 					updated_at: t.fn.now()
 				})
 				.returning('*');
-			await log(member, 'update', id, { name: data.name, edition: data.edition, limits: data.limits }, t);
+			await log(
+				member,
+				'update',
+				id,
+				{
+					name: data.name,
+					edition: data.edition,
+					previousLimits,
+					limits: data.limits,
+					changes,
+					dwellingsJudged: usage.dwellings,
+					...(changes.length > 0 && inUse ? { confirmed: true } : {})
+				},
+				t
+			);
 			return toLimitTable(row);
 		} catch (e) {
 			throw nameTaken(e, data.name, data.edition);

@@ -1,8 +1,11 @@
 import { error, fail, redirect } from '@sveltejs/kit';
 import { requireMember, requireRole } from '$lib/server/guard';
 import {
+	LimitChangeNeedsConfirm,
 	deleteLimitTable,
 	getLimitTable,
+	limitChangeWarning,
+	limitTableUsage,
 	listDwellingsNamingLimitTable,
 	setDefaultLimitTable,
 	updateLimitTable
@@ -17,8 +20,19 @@ export const load = async (event) => {
 	const member = requireMember(event);
 	const table = await getLimitTable(member.organisationId, event.params.limitTableId);
 	if (!table) error(404, NOT_FOUND);
-	const dwellings = await listDwellingsNamingLimitTable(member.organisationId, table.id);
-	return { table, dwellings, created: event.url.searchParams.has('created') };
+	const [dwellings, usage] = await Promise.all([
+		listDwellingsNamingLimitTable(member.organisationId, table.id),
+		limitTableUsage(member.organisationId, table.id)
+	]);
+	const inUse = usage !== null && (usage.dwellings > 0 || usage.isDefault);
+	return {
+		table,
+		dwellings,
+		usage,
+		// shown beside the edit form; saving new limits then needs the confirmation box ticked
+		changeWarning: inUse && usage ? limitChangeWarning(usage) : null,
+		created: event.url.searchParams.has('created')
+	};
 };
 
 export const actions = {
@@ -29,8 +43,19 @@ export const actions = {
 		const input = limitTableInputSchema.safeParse(limitTableFromForm(fd));
 		if (!input.success) return fail(400, { values, errors: formErrors(input.error) });
 		try {
-			if (!(await updateLimitTable(member, event.params.limitTableId, input.data))) error(404, NOT_FOUND);
+			const confirm = fd.get('confirm') === 'on';
+			if (!(await updateLimitTable(member, event.params.limitTableId, input.data, { confirm })))
+				error(404, NOT_FOUND);
 		} catch (e) {
+			if (e instanceof LimitChangeNeedsConfirm) {
+				return fail(409, {
+					values,
+					changes: e.changes,
+					errors: {
+						confirm: `${limitChangeWarning(e.usage)} Tick the box to save the new limits.`
+					} as Record<string, string>
+				});
+			}
 			if (e instanceof ConflictError) {
 				return fail(409, { values, errors: { name: e.message } as Record<string, string> });
 			}

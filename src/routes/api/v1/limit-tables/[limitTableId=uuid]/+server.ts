@@ -1,6 +1,12 @@
 import { error, json } from '@sveltejs/kit';
 import { requireMember, requireRole } from '$lib/server/guard';
-import { deleteLimitTable, getLimitTable, updateLimitTable } from '$lib/server/limit-tables';
+import { z } from 'zod';
+import {
+	LimitChangeNeedsConfirm,
+	deleteLimitTable,
+	getLimitTable,
+	updateLimitTable
+} from '$lib/server/limit-tables';
 import { limitTableInputSchema } from '$lib/climates/schema';
 import { invalid, readJson, refusal } from '$lib/climates/http';
 
@@ -13,17 +19,38 @@ export const GET = async (event) => {
 	return json(table);
 };
 
-/** Replaces the table's fields (admins); `isDefault: true` makes it the default. */
+const putSchema = limitTableInputSchema.extend({
+	confirm: z.boolean({ error: 'confirm must be true or false' }).optional()
+});
+
+/**
+ * Replaces the table's fields (admins); `isDefault: true` makes it the default. New limits on a table
+ * that dwellings are judged against (or on the default) need `confirm: true`: without it the answer is
+ * 409 with `needsConfirm`, the number of dwellings and the changed limits, and nothing is saved.
+ */
 export const PUT = async (event) => {
 	const member = requireRole(event, 'admin');
 	if (!(await getLimitTable(member.organisationId, event.params.limitTableId))) error(404, NOT_FOUND);
-	const input = limitTableInputSchema.safeParse(await readJson(event.request));
+	const input = putSchema.safeParse(await readJson(event.request));
 	if (!input.success) return invalid(input.error, 'limit table');
+	const { confirm, ...fields } = input.data;
 	try {
-		const table = await updateLimitTable(member, event.params.limitTableId, input.data);
+		const table = await updateLimitTable(member, event.params.limitTableId, fields, { confirm });
 		if (!table) error(404, NOT_FOUND);
 		return json(table);
 	} catch (e) {
+		if (e instanceof LimitChangeNeedsConfirm) {
+			return json(
+				{
+					message: e.message,
+					needsConfirm: true,
+					dwellings: e.usage.dwellings,
+					usage: e.usage,
+					changes: e.changes
+				},
+				{ status: 409 }
+			);
+		}
 		return refusal(e);
 	}
 };
