@@ -194,9 +194,13 @@ export function startOutboxWorker(): void {
 	void tick();
 }
 
-export function stopOutboxWorker(): void {
+/** Stop the timer; on shutdown, wait (briefly) for a pass that is sending to finish. */
+export async function stopOutboxWorker(): Promise<void> {
 	if (worker.timer) clearInterval(worker.timer);
 	worker.timer = null;
+	worker.again = false;
+	const until = Date.now() + 3000;
+	while (worker.running && Date.now() < until) await new Promise((r) => setTimeout(r, 50));
 }
 
-registerWorker('mail-outbox', startOutboxWorker);
+registerWorker('mail-outbox', startOutboxWorker, stopOutboxWorker);

@@ -16,7 +16,11 @@ type JobData = { organisationId: string; batchId: string; userId: string | null 
 let boss: PgBoss | null = null;
 let starting: Promise<PgBoss> | null = null;
 
+// Set once the process shuts down: no new client is started after that.
+let stopped = false;
+
 async function client(): Promise<PgBoss> {
+	if (stopped) throw new Error('the server is shutting down');
 	if (boss) return boss;
 	starting ??= (async () => {
 		const url = setting('DATABASE_URL');
@@ -76,4 +80,16 @@ async function start() {
 	});
 }
 
-registerWorker(AUDIT_QUEUE, start);
+/**
+ * On shutdown: stop polling and maintenance and close the queue's pool at once. A job still running is
+ * marked failed and retried by the next process (the recompute is idempotent).
+ */
+async function stop() {
+	stopped = true;
+	const b = boss ?? (starting ? await starting.catch(() => null) : null);
+	boss = null;
+	starting = null;
+	if (b) await b.stop({ graceful: false, wait: true, close: true });
+}
+
+registerWorker(AUDIT_QUEUE, start, stop);
