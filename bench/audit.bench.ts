@@ -292,14 +292,12 @@ async function setup() {
 		.returning('id');
 	for (let i = 0; i < population.length; i += 500) {
 		await db('audit_items').insert(
-			population
-				.slice(i, i + 500)
-				.map((id) => ({
-					organisation_id: orgId,
-					batch_id: batch.id,
-					dwelling_id: id,
-					picked_because: 'all dwellings of the batch'
-				}))
+			population.slice(i, i + 500).map((id) => ({
+				organisation_id: orgId,
+				batch_id: batch.id,
+				dwelling_id: id,
+				picked_because: 'all dwellings of the batch'
+			}))
 		);
 	}
 	return { orgId, batchId: batch.id as string, population: population.slice().sort() };

@@ -71,6 +71,11 @@ const identify: Handle = async ({ event, resolve }) => {
 			}
 		}
 	}
+	return resolve(event);
+};
+
+/** After a request that may have changed data (Auth.js's own sign-out included), forget who is who. */
+const forgetAfterChanges: Handle = async ({ event, resolve }) => {
 	if (READ_METHODS.has(event.request.method) || PURE_POSTS.has(event.url.pathname)) return resolve(event);
 	try {
 		return await resolve(event);
@@ -132,7 +137,7 @@ function json(body: unknown, status: number) {
 const auth: Handle = (input) =>
 	input.event.url.pathname.startsWith('/auth/') ? authHandle(input) : input.resolve(input.event);
 
-export const handle = sequence(auth, identify, guard);
+export const handle = sequence(forgetAfterChanges, auth, identify, guard);
 
 export const handleError: HandleServerError = ({ error, event, status, message }) => {
 	if (status === 404) return { message };

@@ -33,6 +33,8 @@ type Fontkit = {
 };
 type PdfkitDocument = {
 	_registeredFonts: Record<string, unknown>;
+	/** the current font: pdfkit's EmbeddedFont, with its fontkit font and its cache of shaped words */
+	_font: { font?: unknown; layoutCache?: Record<string, unknown> } | null;
 	registerFont(name: string, src: Uint8Array): unknown;
 	font(src: unknown, family?: unknown, size?: unknown): unknown;
 };
@@ -49,6 +51,15 @@ type PdfkitDocument = {
  * font at the same instant.
  */
 const parsed = new Map<Uint8Array, FontkitFont>();
+/**
+ * Shaped words (pdfkit's per-font layout cache: text → glyphs and positions, a pure function of the font
+ * and the text), shared by the documents too: shaping with the font's substitution and positioning
+ * tables is most of what is left of a report's time. Started afresh every LAYOUT_CACHE_DOCUMENTS
+ * documents, so that it stays small.
+ */
+const layoutCaches = new Map<FontkitFont, Record<string, unknown>>();
+const LAYOUT_CACHE_DOCUMENTS = 200;
+let documentsSinceFresh = 0;
 /** font file path → its marker */
 const markers = new Map<string, Buffer>();
 let pending: FontkitFont | undefined;
@@ -82,6 +93,7 @@ function parseOnce(fontkit: Fontkit, file: string): string {
 	const marker = Buffer.from(`envelo-parsed-font ${path.basename(file)}`, 'latin1');
 	parsed.set(marker, font);
 	markers.set(file, marker);
+	layoutCaches.set(font, Object.create(null));
 	return file;
 }
 
@@ -101,7 +113,13 @@ function configure() {
 			const marker = markers.get(src);
 			if (marker) this.registerFont(src, marker);
 		}
-		return font.call(this, src, family, size);
+		const result = font.call(this, src, family, size);
+		const current = this._font;
+		const parsedFont = current?.font as FontkitFont | undefined;
+		if (current?.layoutCache && parsedFont && layoutCaches.has(parsedFont)) {
+			current.layoutCache = layoutCaches.get(parsedFont);
+		}
+		return result;
 	};
 	pdfmake.setFonts({
 		[FONT]: {
@@ -120,6 +138,10 @@ function configure() {
 /** Render a document definition to PDF bytes. */
 export async function renderPdf(doc: TDocumentDefinitions): Promise<Buffer> {
 	configure();
+	if (++documentsSinceFresh > LAYOUT_CACHE_DOCUMENTS) {
+		for (const f of layoutCaches.keys()) layoutCaches.set(f, Object.create(null));
+		documentsSinceFresh = 1;
+	}
 	const out = pdfmake.createPdf(doc);
 	const buf = await out.getBuffer();
 	return Buffer.from(buf);
