@@ -9,6 +9,7 @@
 import { spawn } from 'node:child_process';
 import { createServer } from 'node:net';
 import { randomBytes } from 'node:crypto';
+import { cpus, loadavg } from 'node:os';
 import knex from 'knex';
 import autocannon from 'autocannon';
 
@@ -146,7 +147,9 @@ const dw = await run(`GET /dwellings/:id (${dwelling.reference})`, {
 	headers: { cookie }
 });
 
-console.log(`${CONNECTIONS} connections, ${DURATION} s each, loopback, one server`);
+console.log(
+	`${CONNECTIONS} connections, ${DURATION} s each, loopback, one server; load average ${loadavg()[0].toFixed(1)} on ${cpus().length} cores (the client shares them)`
+);
 for (const r of [trivial, calc, calcFull, dw]) {
 	console.log(
 		`${r.name.padEnd(40)} ${r.rps.toFixed(0).padStart(6)} req/s   p50 ${String(r.p50).padStart(4)} ms   p99 ${String(r.p99).padStart(4)} ms   non-2xx/errors ${r.non2xx}`
