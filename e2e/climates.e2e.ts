@@ -140,7 +140,7 @@ test('an admin keeps limit tables: field errors, a new table made default', asyn
 	const before = await wall.inputValue();
 	await wall.fill('0.27');
 	await page.getByRole('button', { name: 'Save changes' }).click();
-	await expect(page.getByRole('alert')).toContainText('Tick the box to save the new limits');
+	await expect(page.getByRole('alert')).toContainText('Not saved: tick the box to confirm the new limits');
 	await expect(page.getByTestId('limit-changes')).toContainText(
 		`External wall: ${Number(before).toFixed(2)}`
 	);

@@ -122,9 +122,11 @@ export function limitChangeWarning(usage: LimitTableUsage): string {
 		n === 0
 			? "It is the organisation's default: dwellings without a table of their own will be judged against the new limits."
 			: `It is used by ${n} dwelling${n === 1 ? '' : 's'}${
-					usage.isDefault && usage.byDefault > 0
-						? ` (${usage.named} by name, ${usage.byDefault} as the organisation's default)`
-						: ''
+					usage.byDefault === 0
+						? ''
+						: usage.named === 0
+							? " as the organisation's default"
+							: ` (${usage.named} by name, ${usage.byDefault} as the organisation's default)`
 				}; their pass/fail will be re-evaluated against the new limits.`;
 	return `${who} Issued reports keep the limits they were issued with.`;
 }

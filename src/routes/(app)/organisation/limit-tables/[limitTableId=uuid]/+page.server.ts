@@ -52,7 +52,7 @@ export const actions = {
 					values,
 					changes: e.changes,
 					errors: {
-						confirm: `${limitChangeWarning(e.usage)} Tick the box to save the new limits.`
+						confirm: `Not saved: tick the box to confirm the new limits for ${e.usage.dwellings} dwelling${e.usage.dwellings === 1 ? '' : 's'}.`
 					} as Record<string, string>
 				});
 			}
