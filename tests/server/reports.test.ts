@@ -129,7 +129,22 @@ describe.skipIf(!hasDatabase)('reports', async () => {
 			expect(p).toContain(issued.number);
 			expect(p).toContain(s.dwelling.reference);
 			expect(p).toContain(`${ORIGIN}/verify/${issued.verificationCode}`);
+			// The code itself in the grouped form the screens show (the verify page takes both forms).
+			expect(p).toContain(`code ${reports.formatCode(issued.verificationCode)}`);
 		});
+		// The declaration, on the last page: the assessor, the registration number, the date of issue,
+		// the statement, an empty signature line and, beside them, the validity statement (common
+		// practice, no source).
+		const full = await reports.getReport(s.team.org.id, issued.id);
+		const last = pageTexts[pageTexts.length - 1].replace(/\s+/g, ' ');
+		expect(last).toMatch(/10 Declaration I declare that I carried out the assessment in this report/);
+		expect(last).toContain(`Assessor ${full!.snapshot.dwelling.assessor!.name}`);
+		expect(last).toContain('Registration number REG-T-0001');
+		expect(last).toMatch(/Date of issue \d{1,2} [A-Z][a-z]+ \d{4}/);
+		expect(last).toContain('Signature of the assessor');
+		expect(last.indexOf('valid only for the construction described')).toBeGreaterThan(
+			last.indexOf('Signature of the assessor')
+		);
 		// Fonts embedded (pdffonts: "emb yes"), Source Sans 3 only.
 		const fonts = pdfFonts(stored!.pdf)
 			.split('\n')
@@ -185,6 +200,65 @@ describe.skipIf(!hasDatabase)('reports', async () => {
 		expect(text).toMatch(/38 mm wide at\s+600 mm\s+centres/);
 	});
 
+	it('words the moisture findings as they are: condensing elements in caution, the criteria named, no fRsi,min where no risk arises', async () => {
+		const { moistureSummary } = await import('../../src/lib/server/reports/document');
+		const s = await setup({ climate: COLD_CLIMATE });
+		await makeElement(s.team.org.id, s.dwelling.id, {
+			name: 'Timber wall',
+			buildUp: leakyTimberWall(),
+			internal: { temperature: 20, relativeHumidity: 60 },
+			position: 0
+		});
+		await makeElement(s.team.org.id, s.dwelling.id, { name: 'Cavity wall', position: 1 });
+		const issued = await reports.issueReport(s.caller, { dwellingId: s.dwelling.id }, ORIGIN);
+		const full = (await reports.getReport(s.team.org.id, issued.id))!;
+		const [timber, cavity] = full.snapshot.elements;
+		const outcome = timber.result!.condensation!.outcome;
+		expect(outcome).not.toBe('none');
+		const text = pdfText((await reports.getReportPdf(s.team.org.id, issued.id))!.pdf);
+		const page1 = text.split('\f')[0].replace(/\s+/g, ' ');
+		// Page 1 never claims that nothing condenses when an element condenses.
+		expect(page1).not.toContain('no element accumulates');
+		const line = moistureSummary(full.snapshot) as { text: { text: string; color?: string }[] };
+		const parts = line.text.slice(1);
+		if (outcome === 'dries') {
+			expect(page1).toContain(
+				'1 element condenses in the colder months and dries out within the year (Timber wall); none accumulates.'
+			);
+			// Caution colour, not the pass colour, for the condensing element (common practice, no source).
+			expect(parts.find((p) => p.text.includes('condenses'))!.color).toBe('#7a5400');
+		} else {
+			expect(page1).toContain('1 element accumulates interstitial condensate over the year (Timber wall).');
+			expect(parts.find((p) => p.text.includes('accumulates'))!.color).toBe('#8e1e18');
+		}
+		// The criteria are named with their clauses (ISO 13788:2012: clause 5 surface humidity with the
+		// 80 % criterion; clause 6 interstitial condensation, evaporation within the year — from memory).
+		const flat = text.replace(/\s+/g, ' ');
+		expect(flat).toContain('no surface mould risk: fRsi > fRsi,min in every month');
+		expect(flat).toContain('no net annual accumulation of interstitial condensate');
+		expect(flat).not.toContain('Passes the moisture criteria applied');
+
+		// fRsi,min where θe ≥ θsi,min: "—" with a note. Cavity wall, 20 °C and 50 % inside: pi = 0.5 · 2337 =
+		// 1169 Pa, psat,min = pi / 0.8 = 1461 Pa, θsi,min = 12.6 °C (ISO 13788:2012 clause 5; psat and its
+		// inverse by the Magnus-type formula of Annex E, from memory). COLD_CLIMATE (invented) has θe ≥ 12.6
+		// °C in June (16), July (18) and August (17): no value; May (12 °C) and September (12 °C) keep one.
+		const rows = text.split('\n').filter((l) => /^\s*fRsi,min(\s+(—|−?\d\.\d{3})){12}\s*$/.test(l));
+		expect(rows).toHaveLength(2);
+		const cavityRow = rows[rows.length - 1].trim().split(/\s+/).slice(1);
+		expect(cavityRow).toHaveLength(12);
+		expect(cavityRow.slice(5, 8)).toEqual(['—', '—', '—']);
+		for (const v of [...cavityRow.slice(0, 5), ...cavityRow.slice(8)]) expect(v).toMatch(/^\d\.\d{3}$/);
+		const may = cavity.result!.surface!.months.find((m) => m.month === 5)!;
+		expect(may.minSurfaceTemperature!).toBeCloseTo(12.6, 1);
+		expect(flat).toContain('fRsi,min “—”: no surface mould risk arises in that month');
+
+		// No section heading is the last thing on a page (common practice, no source).
+		for (const page of text.split('\f').filter((p) => p.trim())) {
+			const lines = page.split('\n').filter((l) => l.trim() && !/Verify this report|Page \d+ of/.test(l));
+			expect(lines[lines.length - 1]).not.toMatch(/^\s*\d{1,2}\s{1,3}[A-Z][^.\d]*$/);
+		}
+	});
+
 	it('refuses UPDATE and DELETE of an issued report in the database itself', async () => {
 		const s = await setup();
 		const elementId = await makeElement(s.team.org.id, s.dwelling.id);
@@ -216,6 +290,19 @@ describe.skipIf(!hasDatabase)('reports', async () => {
 		expect(text).toContain('0.488 W/(m²·K)');
 		expect(text).toContain('Manufacturer declaration (test)');
 		expect(text).toMatch(/Windows\s+Window\s+10\.00\s+1\.40\s+1\.60/);
+		// A dwelling report closes with the declaration on a page of its own.
+		const lastPage = text
+			.split('\f')
+			.filter((p) => p.trim())
+			.pop()!
+			.replace(/\s+/g, ' ');
+		expect(lastPage).toContain('Declaration');
+		expect(lastPage).toContain(
+			`I declare that I carried out the assessment in this report of dwelling ${s.dwelling.reference}`
+		);
+		expect(lastPage).toContain('Registration number REG-T-0001');
+		expect(lastPage).toContain('Signature of the assessor');
+		expect(lastPage).toContain('valid only for the construction described');
 		const dwelling = await tdb()('dwellings').where({ id: s.dwelling.id }).first('status');
 		expect(dwelling.status).toBe('issued');
 		const log = await tdb()('activity_log')

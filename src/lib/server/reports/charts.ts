@@ -20,6 +20,9 @@ export const CHART_COLOURS = {
 	damp: '#266a7d'
 };
 
+/** Dash pattern of the actual vapour pressure line (the saturation pressure line is solid). */
+export const VAPOUR_DASH = '4 2.5';
+
 const esc = (s: string) =>
 	s.replace(/[&<>"]/g, (c) => ({ '&': '&amp;', '<': '&lt;', '>': '&gt;', '"': '&quot;' })[c]!);
 
@@ -246,19 +249,20 @@ export function vapourChart(result: ElementResult, width = 500, height = 190): s
 			`Pressure, Pa (${monthName(c.vapourProfile.month)})`
 		)
 	);
+	// Same convention as the screen chart: saturation pressure solid, actual vapour pressure dashed.
 	parts.push(
 		polyline(
 			pts.map((p) => [x(p.sdM), y(p.saturationPressure)]),
 			CHART_COLOURS.heat,
-			1.2,
-			'3 2'
+			1.3
 		)
 	);
 	parts.push(
 		polyline(
 			pts.map((p) => [x(p.sdM), y(p.vapourPressure)]),
 			CHART_COLOURS.damp,
-			1.4
+			1.4,
+			VAPOUR_DASH
 		)
 	);
 	for (const p of pts) {
@@ -270,8 +274,8 @@ export function vapourChart(result: ElementResult, width = 500, height = 190): s
 	}
 	parts.push(
 		legend(width - box.right - 250, box.top - 8, [
-			{ label: 'saturation pressure', colour: CHART_COLOURS.heat, dash: '3 2' },
-			{ label: 'vapour pressure', colour: CHART_COLOURS.damp }
+			{ label: 'saturation pressure', colour: CHART_COLOURS.heat },
+			{ label: 'vapour pressure', colour: CHART_COLOURS.damp, dash: VAPOUR_DASH }
 		])
 	);
 	return `<svg xmlns="http://www.w3.org/2000/svg" width="${width}" height="${height}" viewBox="0 0 ${width} ${height}">${parts.join('')}</svg>`;

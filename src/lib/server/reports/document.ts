@@ -12,6 +12,11 @@ import { temperatureChart, vapourChart, CHART_COLOURS } from './charts';
 import { fx, trim, pct, monthName, longDate, MONTHS } from './format';
 import type { ReportSnapshot, SnapshotElement } from './snapshot';
 
+/** "ABCD-EFGH-JK": the code as the screens show it (the verify page takes it with or without dashes). */
+export function groupCode(code: string): string {
+	return code.replace(/^(.{4})(.{4})(.*)$/, '$1-$2-$3');
+}
+
 const INK = CHART_COLOURS.ink;
 const SOFT = CHART_COLOURS.soft;
 const FAINT = CHART_COLOURS.faint;
@@ -100,6 +105,11 @@ function h2(num: string, text: string): Content {
 		style: 'h2',
 		headlineLevel: 2
 	} as Content;
+}
+
+/** A heading and the block after it, kept on one page. */
+function keep(head: Content, next: Content): Content {
+	return { stack: [head, next], unbreakable: true } as Content;
 }
 
 function kv(rows: [string, string | Content][], widths: (string | number)[] = [118, '*']): Content {
@@ -427,13 +437,35 @@ function climateTable(el: SnapshotElement, r: ElementResult): Content[] {
 			body.push(row('pe, Pa', (m) => fx(piByMonth.get(m.month)?.externalVapourPressure, 0)));
 			body.push(row('pi, Pa', (m) => fx(piByMonth.get(m.month)?.internalVapourPressure, 0)));
 		}
-		if (r.surface) body.push(row('fRsi,min', (m) => fx(fByMonth.get(m.month)?.fRsiMin ?? null, 3)));
+		let noRisk = false;
+		if (r.surface)
+			body.push(
+				row('fRsi,min', (m) => {
+					const f = fByMonth.get(m.month);
+					if (!f || f.fRsiMin === null || f.minSurfaceTemperature === null) {
+						noRisk = true;
+						return '—';
+					}
+					if (f.externalTemperature >= f.minSurfaceTemperature) {
+						noRisk = true;
+						return '—';
+					}
+					return fx(f.fRsiMin, 3);
+				})
+			);
 		out.push({
 			table: { headerRows: 1, widths: [44, ...MONTHS.map(() => '*')], body },
 			layout: rules,
 			fontSize: 7.2,
 			margin: [0, 6, 0, 0]
 		} as Content);
+		if (noRisk)
+			out.push({
+				text: 'fRsi,min “—”: no surface mould risk arises in that month, because the mean outside temperature θe is at or above θsi,min, the lowest acceptable internal surface temperature (at which the surface would reach 80 % relative humidity), or no heat flows outwards; no temperature factor is needed.',
+				fontSize: 7.2,
+				color: SOFT,
+				margin: [0, 2, 0, 0]
+			} as Content);
 	}
 	return out;
 }
@@ -456,7 +488,49 @@ function nodeLabel(r: ElementResult, nodeIndex: number): { head: string; sub: st
 /** Most interface columns the monthly table shows; the rest are summarised under it. */
 const MAX_INTERFACE_COLUMNS = 4;
 
-function condensationPart(r: ElementResult): Content[] {
+/** The moisture criteria the element is judged by, named with their clauses. */
+function criteriaApplied(el: SnapshotElement, r: ElementResult): string {
+	const limits = el.input?.moistureLimits ?? {};
+	const list: string[] = [];
+	if (r.surface)
+		list.push(
+			'no surface mould risk: fRsi > fRsi,min in every month, from 80 % relative humidity at the internal surface (ISO 13788:2012, clause 5)'
+		);
+	if ((limits.requireEvaporation ?? true) && r.condensation)
+		list.push(
+			'no net annual accumulation of interstitial condensate: all of it evaporates within the yearly cycle (Glaser method, ISO 13788:2012, clause 6)'
+		);
+	if (limits.maxAtInterfaceGm2 !== undefined)
+		list.push(`at most ${trim(limits.maxAtInterfaceGm2, 1)} g/m² of condensate at any one position`);
+	if (limits.maxTotalGm2 !== undefined)
+		list.push(`at most ${trim(limits.maxTotalGm2, 1)} g/m² of condensate in total`);
+	return list.length ? list.map((t, i) => `${i + 1}. ${t}`).join('\n') : 'none';
+}
+
+/** Passes or fails the criteria above, saying which and why. */
+function acceptanceVerdict(r: ElementResult): Content {
+	const reasons = [...(r.condensation?.acceptance.reasons ?? [])];
+	if (r.surface && !r.surface.pass)
+		reasons.unshift(
+			`fRsi ${fx(r.surface.fRsi, 3)} ≤ fRsi,min ${fx(r.surface.fRsiMin, 3)} (${monthName(r.surface.criticalMonth)}): risk of mould growth at the surface`
+		);
+	if (reasons.length) return { text: `Fails: ${reasons.join('; ')}`, color: FAIL, bold: true } as Content;
+	const c = r.condensation;
+	const dries = c?.outcome === 'dries';
+	return {
+		text: [
+			{ text: 'Passes the criteria above', bold: true, color: PASS },
+			dries
+				? {
+						text: ': condensate forms in some months but evaporates fully within the year.',
+						color: CAUTION
+					}
+				: { text: '.', color: PASS }
+		]
+	} as Content;
+}
+
+function condensationPart(el: SnapshotElement, r: ElementResult): Content[] {
 	const c = r.condensation;
 	if (!c)
 		return [
@@ -562,12 +636,8 @@ function condensationPart(r: ElementResult): Content[] {
 				: `${fx(c.maxAccumulation, 1)} g/m² in total at the end of ${monthName(c.peakMonth)}; at most ${fx(c.maxAtInterface, 1)} g/m² at one position${c.maxAtInterfaceNode !== null ? ` (${nodeLabel(r, c.maxAtInterfaceNode).head}, ${nodeLabel(r, c.maxAtInterfaceNode).sub})` : ''}`
 		],
 		['Dries out within the year', c.outcome === 'none' ? 'not applicable' : c.evaporatesFully ? 'yes' : 'no'],
-		[
-			'Acceptance',
-			c.acceptance.pass
-				? ({ text: 'Passes the moisture criteria applied', color: PASS, bold: true } as Content)
-				: ({ text: `Fails: ${c.acceptance.reasons.join('; ')}`, color: FAIL, bold: true } as Content)
-		]
+		['Criteria applied', criteriaApplied(el, r)],
+		['Acceptance', acceptanceVerdict(r)]
 	];
 	if (c.surfaceCondensationMonths.length) {
 		rows.push([
@@ -633,7 +703,7 @@ export function cautionsBlock(validity: boolean): Content {
 			...(validity
 				? [
 						{
-							text: 'This result is valid only for the construction described in this report, built as described, under the conditions stated. Any change of material, thickness, order of layers, bridging or conditions needs a new calculation.',
+							text: VALIDITY_STATEMENT,
 							bold: true,
 							margin: [0, 0, 0, 4]
 						}
@@ -641,6 +711,60 @@ export function cautionsBlock(validity: boolean): Content {
 				: []),
 			{ ul: [...CAUTIONS], fontSize: 7.8, color: SOFT }
 		]
+	} as Content;
+}
+
+/** The validity statement printed beside the declaration. */
+export const VALIDITY_STATEMENT =
+	'This result is valid only for the construction described in this report, built as described, under the conditions stated. Any change of material, thickness, order of layers, bridging or conditions needs a new calculation.';
+
+/**
+ * The assessor's declaration: who carried out the assessment, their registration number, the date of
+ * issue, what it rests on, and an empty line for the signature; the validity statement beside it.
+ */
+export function declarationBlock(s: ReportSnapshot, num: string | null): Content {
+	const a = s.dwelling.assessor;
+	const d = s.document;
+	const name = a?.name ?? 'no assessor assigned';
+	const reg = a?.registrationNumber ?? 'not recorded';
+	const what =
+		d.scope === 'dwelling'
+			? `dwelling ${s.dwelling.reference}${s.dwelling.address ? `, ${s.dwelling.address}` : ''}`
+			: `the element "${s.elements[0]?.name ?? ''}" of dwelling ${s.dwelling.reference}`;
+	const line = (label: string, width: number) =>
+		({
+			stack: [
+				{
+					canvas: [{ type: 'line', x1: 0, y1: 0, x2: width, y2: 0, lineWidth: 0.6, lineColor: SOFT }],
+					margin: [0, 26, 0, 2]
+				},
+				{ text: label, fontSize: 7.5, color: SOFT }
+			],
+			width
+		}) as Content;
+	return {
+		stack: [
+			...(num ? [h2(num, 'Declaration')] : []),
+			{
+				text: `I declare that I carried out the assessment in this report of ${what} myself, on the information described in it: the build-ups and their sources, the areas, the internal conditions, the climate and the limit table stated, with the calculation engine and the methods named. Its results support, and do not replace, professional judgement.`,
+				margin: [0, 0, 0, 6]
+			},
+			kv([
+				['Assessor', name],
+				['Registration number', reg],
+				[
+					'Date of issue',
+					d.draft ? `not issued (draft printed ${longDate(s.issuedAt)})` : longDate(s.issuedAt)
+				],
+				['Report', d.draft ? 'Draft — not issued, not to be signed' : `${d.number}, revision ${d.revision}`]
+			]),
+			{
+				columns: [line('Signature of the assessor', 230), { text: '', width: '*' }, line('Date', 120)],
+				margin: [0, 0, 0, 8]
+			},
+			{ text: VALIDITY_STATEMENT, bold: true }
+		],
+		unbreakable: true
 	} as Content;
 }
 
@@ -664,37 +788,36 @@ export function elementSection(
 	out.push(resultPanel(el, s));
 	const r = el.result;
 	if (!r) {
-		out.push(h2('1', 'Given U-value'));
 		out.push(
-			kv([
-				['U-value', `${fx(el.givenU ?? null, 2)} W/(m²·K)`],
-				['Source', el.givenUSource ?? 'not recorded'],
-				[
-					'Limit compared with',
-					el.limit !== null && s.limitTable
-						? `${fx(el.limit, 2)} W/(m²·K) — ${s.limitTable.name}, ${s.limitTable.edition}`
-						: 'no limit for this kind of element'
-				],
-				['Result', verdict(el.pass, 'Meets the limit (U ≤ limit)', 'Exceeds the limit (U > limit)')]
-			])
+			keep(
+				h2('1', 'Given U-value'),
+				kv([
+					['U-value', `${fx(el.givenU ?? null, 2)} W/(m²·K)`],
+					['Source', el.givenUSource ?? 'not recorded'],
+					[
+						'Limit compared with',
+						el.limit !== null && s.limitTable
+							? `${fx(el.limit, 2)} W/(m²·K) — ${s.limitTable.name}, ${s.limitTable.edition}`
+							: 'no limit for this kind of element'
+					],
+					['Result', verdict(el.pass, 'Meets the limit (U ≤ limit)', 'Exceeds the limit (U > limit)')]
+				])
+			)
 		);
 		out.push({
 			text: 'No build-up calculation and no moisture check are made for an element with a given U-value.',
 			color: SOFT,
 			margin: [0, 4, 0, 0]
 		} as Content);
-		out.push(h2('2', 'Assumptions, validity and cautions'));
-		out.push(assumptions(el, null));
-		out.push(cautionsBlock(true));
+		out.push(keep(h2('2', 'Assumptions, validity and cautions'), assumptions(el, null)));
+		out.push(cautionsBlock(s.document.scope !== 'element'));
+		if (s.document.scope === 'element') out.push(declarationBlock(s, '3'));
 		return out;
 	}
-	out.push(h2('1', 'Construction'));
-	out.push({ text: constructionInWords(el), margin: [0, 0, 0, 4] } as Content);
+	out.push(keep(h2('1', 'Construction'), { text: constructionInWords(el), margin: [0, 0, 0, 4] } as Content));
 	out.push(layerTable(el, r));
-	out.push(h2('2', 'Method'));
-	out.push(methodStatement(r));
-	out.push(h2('3', 'Thermal resistance, U-value and limit'));
-	out.push(thermalTable(el, r, s));
+	out.push(keep(h2('2', 'Method'), methodStatement(r)));
+	out.push(keep(h2('3', 'Thermal resistance, U-value and limit'), thermalTable(el, r, s)));
 	out.push({
 		stack: [
 			h2('4', 'Temperature through the build-up'),
@@ -705,29 +828,92 @@ export function elementSection(
 		],
 		unbreakable: true
 	} as Content);
-	out.push(h2('5', 'Internal conditions and climate'));
-	out.push(...climateTable(el, r));
+	const [conditions, ...months] = climateTable(el, r);
+	out.push(keep(h2('5', 'Internal conditions and climate'), conditions));
+	out.push(...months);
 	const vchart = vapourChart(r, CONTENT_WIDTH, 180);
-	out.push({
-		stack: [
-			h2('6', 'Interstitial condensation (Glaser method, ISO 13788:2012)'),
-			...chart(
-				vchart,
-				r.condensation
-					? `Vapour pressure against the cumulative sd-value in ${monthName(r.condensation.vapourProfile.month)}, the month shown being the one with the most condensation formed (or the coldest); where the two lines meet, vapour condenses (circles).`
-					: ''
-			)
-		],
-		unbreakable: true
-	} as Content);
-	out.push(...condensationPart(r));
-	out.push(h2('7', 'Surface humidity (fRsi)'));
-	out.push(surfacePart(r));
-	out.push(h2('8', 'Assumptions and notes'));
-	out.push(assumptions(el, r));
-	out.push(h2('9', 'Validity and cautions'));
-	out.push(cautionsBlock(true));
+	const glaserHead = h2('6', 'Interstitial condensation (Glaser method, ISO 13788:2012)');
+	const glaser = condensationPart(el, r);
+	if (vchart && r.condensation) {
+		out.push({
+			stack: [
+				glaserHead,
+				...chart(
+					vchart,
+					`Vapour pressure against the cumulative sd-value in ${monthName(r.condensation.vapourProfile.month)}, the month shown being the one with the most condensation formed (or the coldest): saturation pressure solid, actual vapour pressure dashed; where the two lines meet, vapour condenses (circles).`
+				)
+			],
+			unbreakable: true
+		} as Content);
+		out.push(...glaser);
+	} else {
+		out.push(keep(glaserHead, glaser[0]));
+		out.push(...glaser.slice(1));
+	}
+	out.push(keep(h2('7', 'Surface humidity (fRsi)'), surfacePart(r)));
+	out.push(keep(h2('8', 'Assumptions and notes'), assumptions(el, r)));
+	// An element report states the validity once, beside its declaration.
+	const alone = s.document.scope === 'element';
+	out.push(keep(h2('9', alone ? 'Cautions' : 'Validity and cautions'), cautionsBlock(!alone)));
+	if (alone) out.push(declarationBlock(s, '10'));
 	return out;
+}
+
+/** Names in a sentence: "A", "A and B", "A, B and C". */
+function names(list: string[]): string {
+	return list.length > 1 ? `${list.slice(0, -1).join(', ')} and ${list[list.length - 1]}` : (list[0] ?? '');
+}
+
+/** "1 element", "2 elements". */
+function elementsCount(n: number): string {
+	return `${n} element${n === 1 ? '' : 's'}`;
+}
+
+/**
+ * The moisture line of the dwelling summary: what the checks found, each finding in its own colour
+ * (fail when condensate accumulates or a surface check fails, caution when condensate forms and dries
+ * out within the year, pass when nothing forms).
+ */
+export function moistureSummary(s: ReportSnapshot): Content {
+	const withC = s.elements.filter((e) => e.result?.condensation);
+	const accumulating = withC.filter((e) => e.result!.condensation!.outcome === 'accumulates');
+	const drying = withC.filter((e) => e.result!.condensation!.outcome === 'dries');
+	const withS = s.elements.filter((e) => e.result?.surface);
+	const mould = withS.filter((e) => !e.result!.surface!.pass);
+	const unchecked = s.elements.filter((e) => e.result && !e.result.condensation && !e.result.surface);
+	const parts: Content[] = [];
+	const add = (text: string, color: string) => parts.push({ text, color } as Content);
+	if (withC.length === 0) add('no interstitial condensation check was run (no climate attached). ', SOFT);
+	else {
+		if (accumulating.length)
+			add(
+				`${elementsCount(accumulating.length)} accumulate${accumulating.length === 1 ? 's' : ''} interstitial condensate over the year (${names(accumulating.map((e) => e.name))}). `,
+				FAIL
+			);
+		if (drying.length)
+			add(
+				`${elementsCount(drying.length)} condense${drying.length === 1 ? 's' : ''} in the colder months and dr${drying.length === 1 ? 'ies' : 'y'} out within the year (${names(drying.map((e) => e.name))})${accumulating.length ? '' : '; none accumulates'}. `,
+				CAUTION
+			);
+		if (!accumulating.length && !drying.length)
+			add('no interstitial condensation forms in any element in any month. ', PASS);
+	}
+	if (withS.length) {
+		if (mould.length)
+			add(
+				`The surface-humidity check (mould risk) fails for ${names(mould.map((e) => e.name))}: fRsi ≤ fRsi,min. `,
+				FAIL
+			);
+		else add('Every surface-humidity check run passes (fRsi > fRsi,min: no surface mould risk). ', PASS);
+	}
+	if (unchecked.length && withC.length)
+		add(`Not checked for moisture (no climate): ${names(unchecked.map((e) => e.name))}. `, SOFT);
+	if (accumulating.length || drying.length || mould.length) add('See the element pages.', INK);
+	return {
+		text: [{ text: 'Moisture: ', bold: true }, ...parts],
+		fontSize: 8.5,
+		margin: [0, 0, 0, 4]
+	} as Content;
 }
 
 /** The summary of a dwelling report: every element, ΣU·A and the area-weighted mean U. */
@@ -823,41 +1009,14 @@ export function dwellingSummary(s: ReportSnapshot): Content[] {
 		layout: panel,
 		margin: [0, 8, 0, 4]
 	} as Content);
-	const accumulating = s.elements
-		.filter((e) => e.result?.condensation?.outcome === 'accumulates')
-		.map((e) => e.name);
-	const mould = s.elements.filter((e) => e.result?.surface && !e.result.surface.pass).map((e) => e.name);
-	out.push({
-		text: [
-			{ text: 'Moisture: ', bold: true },
-			accumulating.length || mould.length
-				? {
-						text: [
-							accumulating.length
-								? `interstitial condensation accumulates in ${accumulating.join(', ')}`
-								: '',
-							accumulating.length && mould.length ? '; ' : '',
-							mould.length ? `the surface-humidity check fails for ${mould.join(', ')}` : '',
-							'. See the element pages.'
-						].join(''),
-						color: FAIL
-					}
-				: {
-						text: 'no element accumulates interstitial condensation, and every surface-humidity check that was run passes.',
-						color: PASS
-					}
-		],
-		fontSize: 8.5,
-		margin: [0, 0, 0, 4]
-	} as Content);
+	out.push(moistureSummary(s));
 	out.push({
 		text: `ΣU·A and the mean use the unrounded U-values over the areas given (ΣA = ${fx(area, 2)} m²); the table shows U to the reporting precision. Limits: ${s.limitTable ? `${s.limitTable.name}, ${s.limitTable.edition}` : 'no limit table applies'}. Each element follows on its own pages with its layers, method, charts and moisture checks.`,
 		fontSize: 7.8,
 		color: SOFT,
 		margin: [0, 0, 0, 4]
 	} as Content);
-	out.push(h2('2', 'Cautions'));
-	out.push(cautionsBlock(false));
+	out.push(keep(h2('2', 'Cautions'), cautionsBlock(false)));
 	return out;
 }
 
@@ -871,6 +1030,10 @@ export function reportDocument(s: ReportSnapshot): TDocumentDefinitions {
 			content.push({ text: '', pageBreak: 'after' } as Content);
 			content.push(...elementSection(s, el, { index: i, of: s.elements.length }));
 		});
+		// The declaration closes the dwelling report, on a page of its own.
+		content.push({ text: '', pageBreak: 'after' } as Content);
+		content.push(h1('Declaration', `Dwelling ${s.dwelling.reference}`));
+		content.push(declarationBlock(s, null));
 	} else {
 		content.push(...elementSection(s, s.elements[0], null));
 	}
@@ -947,7 +1110,7 @@ export function reportDocument(s: ReportSnapshot): TDocumentDefinitions {
 											{ text: 'Verify this report: ', color: SOFT },
 											{ text: d.verifyUrl ?? '', link: d.verifyUrl ?? undefined, color: INK },
 											{ text: '   code ', color: SOFT },
-											{ text: d.verificationCode, bold: true }
+											{ text: groupCode(d.verificationCode), bold: true }
 										],
 										fontSize: 7,
 										width: '*'
@@ -964,6 +1127,8 @@ export function reportDocument(s: ReportSnapshot): TDocumentDefinitions {
 				]
 			}) as Content,
 		content,
+		// A heading never ends a page: each is kept with the block after it (unbreakable stacks), and one
+		// that nothing follows on its page moves to the next.
 		pageBreakBefore: (node, { getFollowingNodesOnPage }) =>
 			(node.headlineLevel === 1 || node.headlineLevel === 2) && getFollowingNodesOnPage().length === 0,
 		defaultStyle: { font: FONT, fontSize: 8.8, color: INK, lineHeight: 1.15 },
