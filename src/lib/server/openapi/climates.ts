@@ -180,13 +180,20 @@ export const paths: Record<string, unknown> = {
 		put: {
 			tags: ['Limit tables'],
 			summary: 'Replace a limit table (admins); isDefault: true makes it the default',
-			requestBody: jsonBody(schema(limitTableInputSchema)),
+			description:
+				'Changing the limits of a table that dwellings are judged against (or of the default) needs `confirm: true`; without it the answer is 409 with `needsConfirm`, the number of dwellings and the changed limits, and nothing is saved.',
+			requestBody: jsonBody({
+				allOf: [
+					schema(limitTableInputSchema),
+					{ type: 'object', properties: { confirm: { type: 'boolean' } } }
+				]
+			}),
 			responses: {
 				'200': ok('The table.', limitTable),
 				...invalid,
 				...common,
 				...notFound,
-				...conflict('Name taken.')
+				...conflict('Name taken, or new limits for a table in use not confirmed (needsConfirm).')
 			}
 		},
 		delete: {
