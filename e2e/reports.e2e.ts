@@ -58,6 +58,26 @@ test('an assessor previews, issues, re-issues, downloads and e-mails a report; t
 			(await db()('reports').where({ dwelling_id: d.id, scope: 'dwelling' }).count({ n: '*' }).first())?.n ??
 				0
 		);
+	// Without JavaScript, the first press only asks: nothing is issued until the second step.
+	const origin = new URL(page.url()).origin;
+	const ask = await request.post(`/dwellings/${d.id}/reports?/issue`, {
+		headers: { cookie, origin, accept: 'text/html' },
+		form: { elementId: '' }
+	});
+	expect(ask.status()).toBe(200);
+	expect(await ask.text()).toContain('can never be changed or withdrawn');
+	expect(await count()).toBe(Number(before?.n ?? 0));
+
+	// With JavaScript, a confirm() dialog asks; dismissing it issues nothing.
+	let question = '';
+	page.once('dialog', (dialog) => {
+		question = dialog.message();
+		void dialog.dismiss();
+	});
+	await page.getByRole('button', { name: 'Issue dwelling report' }).click();
+	await expect.poll(() => question).toMatch(/^Issue the dwelling report for .+\? An issued report is frozen/);
+	expect(await count()).toBe(Number(before?.n ?? 0));
+	page.on('dialog', (dialog) => void dialog.accept());
 	await page.getByRole('button', { name: 'Issue dwelling report' }).click();
 	await expect.poll(count, { timeout: 30_000 }).toBe(Number(before?.n ?? 0) + 1);
 	await expect(page.getByRole('status').filter({ hasText: /Issued report .+, revision \d+/ })).toBeVisible();
@@ -77,6 +97,12 @@ test('an assessor previews, issues, re-issues, downloads and e-mails a report; t
 	await expect(page.locator(`[data-testid=report-row][data-revision="${latest.revision}"]`)).toContainText(
 		'Current'
 	);
+	// A superseded revision is not offered for e-mail.
+	const oldRow = page.locator(`[data-testid=report-row][data-revision="${previous.revision}"]`);
+	await expect(oldRow.locator('xpath=following-sibling::tr[1]')).toContainText('not offered for e-mail');
+	await expect(
+		oldRow.locator('xpath=following-sibling::tr[1]').getByText(/E-mail .* to the client/)
+	).toHaveCount(0);
 	expect((await db()('dwellings').where({ id: d.id }).first('status')).status).toBe('issued');
 	await page.screenshot({ path: '/tmp/reports-page.png', fullPage: true });
 
@@ -99,6 +125,8 @@ test('an assessor previews, issues, re-issues, downloads and e-mails a report; t
 	await mailForm.getByLabel('To', { exact: true }).fill(to);
 	await mailForm.getByRole('button', { name: 'Send with PDF' }).click();
 	await expect(page.getByRole('status').filter({ hasText: `E-mail to ${to} queued` })).toBeVisible();
+	// The list shows the message at once and turns it to "Sent" by itself (no reload below).
+	await expect(page.locator('[data-testid=mail-row]').filter({ hasText: to })).toBeVisible();
 	const mail = await waitForMail(to, new RegExp(latest.number), since);
 	expect(mail.attachments).toHaveLength(1);
 	expect(mail.attachments[0].filename).toMatch(/\.pdf$/);
@@ -111,7 +139,9 @@ test('an assessor previews, issues, re-issues, downloads and e-mails a report; t
 	const anon = await browser.newContext();
 	const client = await anon.newPage();
 	await client.goto(`/verify/${latest.verification_code}`);
+	await expect(client.getByTestId('verify-heading')).toHaveText('Report found');
 	await expect(client.getByTestId('verified')).toContainText(`${latest.number}, revision ${latest.revision}`);
+	await expect(client.getByTestId('superseded')).toHaveCount(0);
 	await expect(client.getByTestId('verified')).toContainText(d.reference);
 	await expect(client.getByTestId('verified')).toContainText('Ben Okafor');
 	await expect(client.getByText(/Northfield/)).toHaveCount(0);
@@ -120,6 +150,7 @@ test('an assessor previews, issues, re-issues, downloads and e-mails a report; t
 		.setInputFiles({ name: 'report.pdf', mimeType: 'application/pdf', buffer: pdf });
 	await client.getByRole('button', { name: 'Check the file' }).click();
 	await expect(client.getByTestId('check-outcome')).toHaveAttribute('data-outcome', 'match');
+	await expect(client.getByTestId('verify-heading')).toHaveText('Report found — your copy matches');
 	const changed = Buffer.from(pdf);
 	changed[changed.length - 20] ^= 0x20;
 	await client
@@ -127,7 +158,19 @@ test('an assessor previews, issues, re-issues, downloads and e-mails a report; t
 		.setInputFiles({ name: 'edited.pdf', mimeType: 'application/pdf', buffer: changed });
 	await client.getByRole('button', { name: 'Check the file' }).click();
 	await expect(client.getByTestId('check-outcome')).toHaveAttribute('data-outcome', 'mismatch');
+	await expect(client.getByTestId('verify-heading')).toHaveText('Report found — your copy does not match');
 	await client.screenshot({ path: '/tmp/reports-verify.png', fullPage: true });
+
+	// The superseded revision's code, typed in the grouped form printed on the PDF, says it was replaced.
+	const grouped = previous.verification_code.replace(/^(.{4})(.{4})(.*)$/, '$1-$2-$3');
+	await client.goto(`/verify/${grouped}`);
+	await expect(client.getByTestId('superseded')).toContainText(
+		`This code belongs to report ${previous.number} revision ${previous.revision}, issued`
+	);
+	await expect(client.getByTestId('superseded')).toContainText(
+		`superseded by revision ${latest.revision} on`
+	);
+	await client.screenshot({ path: '/tmp/reports-verify-superseded.png', fullPage: true });
 
 	// Without JavaScript the file itself is uploaded and compared on the server.
 	const upload = await anon.request.post(`/verify/${latest.verification_code}?/check`, {

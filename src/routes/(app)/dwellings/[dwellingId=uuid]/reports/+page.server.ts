@@ -77,7 +77,11 @@ export const load = async (event) => {
 	};
 };
 
-const issueForm = z.object({ elementId: z.union([z.uuid(), z.literal('')]).optional() });
+const issueForm = z.object({
+	elementId: z.union([z.uuid(), z.literal('')]).optional(),
+	/** "yes" once the person has confirmed; without it the action only asks for the confirmation. */
+	confirmed: z.literal('yes').optional()
+});
 const emailForm = emailSchema.extend({ reportId: z.uuid({ error: 'Choose a report.' }) });
 const retryForm = z.object({ mailId: z.uuid() });
 
@@ -88,6 +92,20 @@ export const actions = {
 		if (!parsed.success)
 			return fail(400, { issueError: 'Choose the dwelling or one of its elements.', issues: [] as string[] });
 		const elementId = parsed.data.elementId || null;
+		if (!parsed.data.confirmed) {
+			// Issuing cannot be undone: without JavaScript the page asks first, as a second step.
+			const label = elementId
+				? await db('elements')
+						.where({
+							id: elementId,
+							organisation_id: member.organisationId,
+							dwelling_id: event.params.dwellingId
+						})
+						.first('name')
+				: { name: null };
+			if (!label) error(404, 'No such element in this dwelling.');
+			return { confirmIssue: { elementId: elementId ?? '', elementName: (label.name as string) ?? null } };
+		}
 		try {
 			const r = await issueReport(
 				{ userId: member.user.id, organisationId: member.organisationId },
@@ -127,8 +145,17 @@ export const actions = {
 				organisation_id: member.organisationId,
 				dwelling_id: event.params.dwellingId
 			})
-			.first('id');
+			.first('id', 'number', 'revision');
 		if (!owned) error(404, 'No such report.');
+		const newer = await db('reports')
+			.where({ supersedes_id: parsed.data.reportId, organisation_id: member.organisationId })
+			.first('number', 'revision');
+		if (newer) {
+			return fail(409, {
+				issueError: `Report ${owned.number} revision ${owned.revision} was superseded by revision ${newer.revision}: e-mail the current revision instead.`,
+				issues: [] as string[]
+			});
+		}
 		try {
 			const m = await emailReport(
 				{ userId: member.user.id, organisationId: member.organisationId },
