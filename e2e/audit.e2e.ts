@@ -44,6 +44,8 @@ test('a supervisor audits the demo programme; the assessor answers a return; the
 	const assessor = await browser.newContext();
 	await signInAs(assessor, DEMO.assessor);
 	const apage = await assessor.newPage();
+	// Issuing asks for confirmation; accept it as the assessor would.
+	apage.on('dialog', (d) => void d.accept());
 	let chosen: (typeof candidates)[number] | null = null;
 	for (const c of candidates) {
 		await apage.goto(`/dwellings/${c.dwelling_id}/reports`);
