@@ -3,7 +3,7 @@
  * engine's `ElementInput`. Pure: used by the editor in the page, by the server when it recomputes,
  * by reports and by audits, so every place computes the same thing from the same record.
  */
-import type { ElementInput, Layer } from '$lib/physics';
+import type { ElementInput, Layer, RoofSpace } from '$lib/physics';
 
 export type HeatFlowDirection = 'upward' | 'horizontal' | 'downward';
 
@@ -14,9 +14,26 @@ export type StoredLayer = Layer & {
 	materialCode?: string;
 	/** when given, `bridge.fraction = widthMm / centresMm` is stored as well */
 	bridgeGeometry?: { widthMm: number; centresMm: number };
+	/** fastener diameter as entered, mm (the engine takes its cross-section `fasteners.areaMm2`) */
+	fastenerDiameterMm?: number;
 };
 
-export type StoredBuildUp = { rsi?: number; rse?: number; layers: StoredLayer[] };
+/** A floor on the ground (ISO 13370): exposed perimeter, floor area (else the element's area), ground λ, wall thickness. */
+export type StoredGround = {
+	perimeterM: number;
+	areaM2?: number;
+	groundLambda?: number;
+	wallThicknessM?: number;
+};
+
+/** Older rows have only rsi/rse/layers; `ground` and `roofSpace` are optional additions. */
+export type StoredBuildUp = {
+	rsi?: number;
+	rse?: number;
+	layers: StoredLayer[];
+	ground?: StoredGround;
+	roofSpace?: RoofSpace;
+};
 
 export type StoredInternal = {
 	temperature: number;
@@ -31,7 +48,13 @@ export const DEFAULT_INTERNAL_TEMPERATURE = 20; // common practice, no source
 /** External design temperature when no climate is attached, °C. */
 export const DEFAULT_EXTERNAL_TEMPERATURE = -5; // common practice, no source
 
-const LIBRARY_KEYS = ['materialId', 'materialRevisionId', 'materialCode', 'bridgeGeometry'] as const;
+const LIBRARY_KEYS = [
+	'materialId',
+	'materialRevisionId',
+	'materialCode',
+	'bridgeGeometry',
+	'fastenerDiameterMm'
+] as const;
 
 /** The engine's layer from a stored layer: library links dropped, bridge geometry turned into a fraction. */
 export function toEngineLayer(stored: StoredLayer): Layer {
@@ -61,6 +84,8 @@ export function toElementInput(
 		heatFlow: HeatFlowDirection;
 		buildUp: StoredBuildUp | null | undefined;
 		internal?: Partial<StoredInternal> | null;
+		/** the element's area, m²: the floor area of a ground floor when the build-up does not give one */
+		area?: number | null;
 	},
 	climateMonths?: ClimateMonthValues[] | null
 ): ElementInput {
@@ -77,6 +102,16 @@ export function toElementInput(
 	};
 	if (typeof buildUp.rsi === 'number') input.rsi = buildUp.rsi;
 	if (typeof buildUp.rse === 'number') input.rse = buildUp.rse;
+	if (buildUp.ground) {
+		const g = buildUp.ground;
+		const ground: Record<string, unknown> = { perimeterM: g.perimeterM };
+		const area = g.areaM2 ?? el.area ?? undefined;
+		if (area !== undefined) ground.areaM2 = area;
+		if (g.groundLambda !== undefined) ground.groundLambda = g.groundLambda;
+		if (g.wallThicknessM !== undefined) ground.wallThicknessM = g.wallThicknessM;
+		input.ground = ground as ElementInput['ground'];
+	}
+	if (buildUp.roofSpace !== undefined) input.roofSpace = buildUp.roofSpace;
 	if (el.internal) {
 		const internal: StoredInternal = { temperature: internalTemperature };
 		if (typeof el.internal.relativeHumidity === 'number')

@@ -3,7 +3,8 @@
  * numbers survive) to stored layers and back, and rows pasted from a spreadsheet.
  */
 import Papa from 'papaparse';
-import type { StoredBuildUp, StoredLayer } from '$lib/element-input';
+import type { StoredBuildUp, StoredGround, StoredLayer } from '$lib/element-input';
+import type { RoofSpace } from '$lib/physics';
 
 export type LayerMode = 'lambda' | 'resistance' | 'air';
 export type AirKind = 'unventilated' | 'slightly-ventilated' | 'well-ventilated';
@@ -28,6 +29,14 @@ export type EditRow = {
 	bridgeWidth: string;
 	bridgeCentres: string;
 	bridgeMu: string;
+	/** ISO 6946 air-gap correction level: '' not given, or 0 / 1 / 2 */
+	airGapLevel: '' | '0' | '1' | '2';
+	fasteners: boolean;
+	fastenerLambda: string;
+	fastenerDiameter: string;
+	fastenerPerM2: string;
+	fastenerRecessed: boolean;
+	fastenerPenetration: string;
 	materialId?: string;
 	materialRevisionId?: string;
 	materialCode?: string;
@@ -57,11 +66,28 @@ export function blankRow(over: Partial<EditRow> = {}): EditRow {
 		bridgeWidth: '',
 		bridgeCentres: '',
 		bridgeMu: '',
+		airGapLevel: '',
+		fasteners: false,
+		fastenerLambda: '',
+		fastenerDiameter: '',
+		fastenerPerM2: '',
+		fastenerRecessed: false,
+		fastenerPenetration: '',
 		...over
 	};
 }
 
 const str = (v: number | undefined | null) => (v === undefined || v === null ? '' : String(v));
+const roundTo = (v: number, d: number) => Math.round(v * 10 ** d) / 10 ** d;
+
+/** Cross-section of a round fastener from its diameter, mm². */
+export const fastenerArea = (diameterMm: number) => (Math.PI * diameterMm * diameterMm) / 4;
+
+/** True while a row has nothing typed in it (a fresh blank row). */
+export function isUntouchedRow(r: EditRow): boolean {
+	const b = blankRow();
+	return (Object.keys(b) as (keyof EditRow)[]).every((k) => k === 'key' || r[k] === b[k]);
+}
 
 /**
  * A number from what was typed: '' is absent; a decimal comma is accepted; anything else that is not
@@ -95,6 +121,15 @@ export function rowFromLayer(l: StoredLayer): EditRow {
 		bridgeWidth: str(l.bridgeGeometry?.widthMm),
 		bridgeCentres: str(l.bridgeGeometry?.centresMm),
 		bridgeMu: str(l.bridge?.mu),
+		airGapLevel: l.airGapLevel === undefined ? '' : (String(l.airGapLevel) as EditRow['airGapLevel']),
+		fasteners: Boolean(l.fasteners),
+		fastenerLambda: str(l.fasteners?.lambda),
+		fastenerDiameter: l.fasteners
+			? str(l.fastenerDiameterMm ?? roundTo(Math.sqrt((4 * l.fasteners.areaMm2) / Math.PI), 3))
+			: '',
+		fastenerPerM2: str(l.fasteners?.perM2),
+		fastenerRecessed: l.fasteners?.penetrationMm !== undefined,
+		fastenerPenetration: str(l.fasteners?.penetrationMm),
 		materialId: l.materialId,
 		materialRevisionId: l.materialRevisionId,
 		materialCode: l.materialCode
@@ -132,6 +167,19 @@ export function layerFromRow(r: EditRow): StoredLayer {
 		}
 		layer.bridge = bridge;
 	}
+	if (r.airGapLevel !== '') layer.airGapLevel = Number(r.airGapLevel);
+	if (r.fasteners) {
+		const dia = parseNumber(r.fastenerDiameter);
+		const f: Record<string, unknown> = {
+			lambda: parseNumber(r.fastenerLambda),
+			areaMm2: typeof dia === 'number' ? fastenerArea(dia) : dia,
+			perM2: parseNumber(r.fastenerPerM2)
+		};
+		if (r.fastenerRecessed) f.penetrationMm = parseNumber(r.fastenerPenetration);
+		for (const k of Object.keys(f)) if (f[k] === undefined) delete f[k];
+		layer.fasteners = f;
+		if (typeof dia === 'number') layer.fastenerDiameterMm = dia;
+	}
 	if (r.materialId) layer.materialId = r.materialId;
 	if (r.materialRevisionId) layer.materialRevisionId = r.materialRevisionId;
 	if (r.materialCode) layer.materialCode = r.materialCode;
@@ -139,12 +187,42 @@ export function layerFromRow(r: EditRow): StoredLayer {
 	return layer as StoredLayer;
 }
 
-export function buildUpFromRows(rows: EditRow[], rsi?: string, rse?: string): StoredBuildUp {
+/** Ground-floor inputs as typed (text). */
+export type GroundText = { perimeter: string; area: string; lambda: string; wall: string };
+export const blankGround = (): GroundText => ({ perimeter: '', area: '', lambda: '', wall: '' });
+
+export function groundText(g: StoredGround | undefined): GroundText {
+	return {
+		perimeter: str(g?.perimeterM),
+		area: str(g?.areaM2),
+		lambda: str(g?.groundLambda),
+		wall: str(g?.wallThicknessM)
+	};
+}
+
+export function buildUpFromRows(
+	rows: EditRow[],
+	rsi?: string,
+	rse?: string,
+	extras: { ground?: GroundText | null; roofSpace?: RoofSpace | '' | null } = {}
+): StoredBuildUp {
 	const b: Record<string, unknown> = { layers: rows.map(layerFromRow) };
 	const a = rsi === undefined ? undefined : parseNumber(rsi);
 	const e = rse === undefined ? undefined : parseNumber(rse);
 	if (a !== undefined) b.rsi = a;
 	if (e !== undefined) b.rse = e;
+	if (extras.ground) {
+		// perimeterM is required: left blank it stays undefined and the schema says so.
+		const g: Record<string, unknown> = {
+			perimeterM: parseNumber(extras.ground.perimeter),
+			areaM2: parseNumber(extras.ground.area),
+			groundLambda: parseNumber(extras.ground.lambda),
+			wallThicknessM: parseNumber(extras.ground.wall)
+		};
+		for (const k of Object.keys(g)) if (g[k] === undefined && k !== 'perimeterM') delete g[k];
+		b.ground = g;
+	}
+	if (extras.roofSpace) b.roofSpace = extras.roofSpace;
 	return b as StoredBuildUp;
 }
 

@@ -5,8 +5,14 @@
  * come from the engine's `parseElementInput` on the composed input (see `validateElement`).
  */
 import { z } from 'zod';
-import { DWELLING_STATUSES, ELEMENT_KINDS, GIVEN_U_KINDS, type ElementKind } from '$lib/element-kinds';
-import { internalSchema, layerSchema, parseElementInput } from '$lib/physics';
+import {
+	DEFAULT_HEAT_FLOW,
+	DWELLING_STATUSES,
+	ELEMENT_KINDS,
+	GIVEN_U_KINDS,
+	type ElementKind
+} from '$lib/element-kinds';
+import { internalSchema, layerSchema, parseElementInput, roofSpaceSchema } from '$lib/physics';
 import { toElementInput, type ClimateMonthValues, type StoredBuildUp } from '$lib/element-input';
 
 const text = (max: number, what = 'text') =>
@@ -108,7 +114,8 @@ export const storedLayerSchema = layerSchema.safeExtend({
 			widthMm: z.number({ error: 'must be a number' }).gt(0, 'must be > 0'),
 			centresMm: z.number({ error: 'must be a number' }).gt(0, 'must be > 0')
 		})
-		.optional()
+		.optional(),
+	fastenerDiameterMm: z.number({ error: 'must be a number in mm' }).gt(0, 'must be > 0 mm').optional()
 });
 
 export const storedBuildUpSchema = z.object({
@@ -125,7 +132,23 @@ export const storedBuildUpSchema = z.object({
 	layers: z
 		.array(storedLayerSchema, { error: 'must be a list of layers' })
 		.min(1, 'at least one layer is required')
-		.max(40, 'at most 40 layers')
+		.max(40, 'at most 40 layers'),
+	/** floor on the ground (ISO 13370); ranges are checked by the engine */
+	ground: z
+		.object({
+			perimeterM: z.number({
+				error: (iss) =>
+					iss.input === undefined
+						? 'is required: the exposed perimeter of the floor, m'
+						: 'must be a number in m'
+			}),
+			areaM2: z.number({ error: 'must be a number in m²' }).optional(),
+			groundLambda: z.number({ error: 'must be a number in W/(m·K)' }).optional(),
+			wallThicknessM: z.number({ error: 'must be a number in m' }).optional()
+		})
+		.optional(),
+	/** roof space above an insulated ceiling (ISO 6946 roof-space resistance) */
+	roofSpace: roofSpaceSchema.optional()
 });
 
 export const elementFieldsSchema = z.object({
@@ -209,11 +232,17 @@ export function validateElement(
 	if (!data.buildUp)
 		return { ok: false, issues: [{ path: 'buildUp', message: 'is required: at least one layer' }] };
 	data.buildUp = normaliseBuildUp(data.buildUp as StoredBuildUp) as ElementFields['buildUp'];
+	// The floor area of a ground floor defaults to the element's area, and is stored with it so that
+	// every later recompute (reports, audits) reads the same input from the build-up alone.
+	if (data.buildUp?.ground && data.buildUp.ground.areaM2 === undefined)
+		data.buildUp.ground = { ...data.buildUp.ground, areaM2: data.area };
 	const input = toElementInput(
 		{
-			heatFlow: data.heatFlow ?? 'horizontal',
+			// the direction the server will store when none is given
+			heatFlow: data.heatFlow ?? DEFAULT_HEAT_FLOW[data.kind],
 			buildUp: data.buildUp as StoredBuildUp,
-			internal: data.internal
+			internal: data.internal,
+			area: data.area
 		},
 		climateMonths
 	);
@@ -222,7 +251,8 @@ export function validateElement(
 		for (const i of engine.issues) {
 			let path = i.path;
 			if (path.startsWith('layers')) path = `buildUp.${path}`;
-			else if (path === 'rsi' || path === 'rse') path = `buildUp.${path}`;
+			else if (path === 'rsi' || path === 'rse' || path === 'roofSpace' || path.startsWith('ground'))
+				path = `buildUp.${path}`;
 			else if (path.startsWith('climate')) path = 'climateId';
 			else if (path.startsWith('designTemperatures')) path = 'internal.temperature';
 			issues.push({ path, message: i.message });
