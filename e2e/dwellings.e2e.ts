@@ -86,7 +86,8 @@ test('an assessor builds a wall from the library and sees live results', async (
 	await page.getByRole('button', { name: 'Save', exact: true }).click();
 	await expect(page.getByTestId('conflict')).toContainText('Changed by someone else');
 
-	// The dwelling page shows the element with its U and the totals.
+	// The dwelling page shows the element with its U and the totals (leaving the unsaved edit on purpose).
+	page.on('dialog', (d) => void d.accept());
 	await page.goto(page.url().split('/elements/')[0]);
 	await expect(page.getByTestId('element-row')).toHaveCount(1);
 	await expect(page.getByTestId('element-row').first()).toContainText(liveU!);
