@@ -1,8 +1,10 @@
 // HTTP benchmarks on loopback: POST /api/v1/calculate and the dwelling page beside the trivial /healthz,
 // on the same server. Needs BENCH_DATABASE_URL (migrated, demo-seeded) and a build in BENCH_BUILD_DIR (or
-// ./build): `npm run bench -- http` prepares both. 20 connections for 5 s each (autocannon; BENCH_SECONDS
-// changes it), so that the whole `npm run bench` stays short. Background workers are off in the server
-// under test (ENVELO_NO_WORKERS=1): their polling is not what is measured.
+// ./build): `npm run bench -- http` prepares both. 20 connections (autocannon), 6 s per route, run as
+// three interleaved rounds of 2 s (BENCH_ROUNDS, BENCH_SECONDS change them): each route's figures are the
+// medians over its rounds, so a burst of load from other work on the shared machine falls on every route
+// alike instead of on one. Short, so that the whole `npm run bench` stays short. Background workers are
+// off in the server under test (ENVELO_NO_WORKERS=1): their polling is not what is measured.
 // Targets: /calculate p99 < 50 ms and at least half the trivial route's throughput. /calculate is
 // measured twice: with ?detail=summary (the figures and checks without the profile and the per-month
 // Glaser arrays, a seventh of the bytes), which the target is read on, and with the full default answer.
@@ -20,7 +22,8 @@ if (!DB_URL) {
 }
 const BUILD = process.env.BENCH_BUILD_DIR ?? 'build';
 const CONNECTIONS = 20;
-const DURATION = Number(process.env.BENCH_SECONDS ?? 5);
+const DURATION = Number(process.env.BENCH_SECONDS ?? 2);
+const ROUNDS = Number(process.env.BENCH_ROUNDS ?? 3);
 
 const freePort = () =>
 	new Promise<number>((resolve, reject) => {
@@ -115,40 +118,63 @@ const page = await fetch(`${origin}/dwellings/${dwelling.id}`, { headers: { cook
 if (page.status !== 200) throw new Error(`dwelling page answered ${page.status}`);
 
 type Run = { name: string; rps: number; p50: number; p99: number; non2xx: number };
-async function run(
-	name: string,
-	opts: { path: string; method?: 'GET' | 'POST'; headers?: Record<string, string>; body?: string }
-): Promise<Run> {
-	const { path, ...rest } = opts;
-	const r = await autocannon({ url: origin + path, connections: CONNECTIONS, duration: DURATION, ...rest });
-	return {
-		name,
-		rps: r.requests.average,
-		p50: r.latency.p50,
-		p99: r.latency.p99,
-		non2xx: r.non2xx + r.errors
-	};
+type Route = {
+	name: string;
+	path: string;
+	method?: 'GET' | 'POST';
+	headers?: Record<string, string>;
+	body?: string;
+};
+async function once(route: Route) {
+	const { name, path, ...rest } = route;
+	return autocannon({
+		title: name,
+		url: origin + path,
+		connections: CONNECTIONS,
+		duration: DURATION,
+		...rest
+	});
 }
-const trivial = await run('GET /healthz (floor)', { path: '/healthz' });
-const calc = await run('POST /api/v1/calculate?detail=summary', {
-	path: '/api/v1/calculate?detail=summary',
-	method: 'POST',
-	headers: { cookie, 'content-type': 'application/json' },
-	body
-});
-const calcFull = await run('POST /api/v1/calculate (full)', {
-	path: '/api/v1/calculate',
-	method: 'POST',
-	headers: { cookie, 'content-type': 'application/json' },
-	body
-});
-const dw = await run(`GET /dwellings/:id (${dwelling.reference})`, {
-	path: `/dwellings/${dwelling.id}`,
-	headers: { cookie }
-});
+const median = (xs: number[]) => {
+	const s = [...xs].sort((a, b) => a - b);
+	const m = s.length >> 1;
+	return s.length % 2 ? s[m] : (s[m - 1] + s[m]) / 2;
+};
+const routes: Route[] = [
+	{ name: 'GET /healthz (floor)', path: '/healthz' },
+	{
+		name: 'POST /api/v1/calculate?detail=summary',
+		path: '/api/v1/calculate?detail=summary',
+		method: 'POST',
+		headers: { cookie, 'content-type': 'application/json' },
+		body
+	},
+	{
+		name: 'POST /api/v1/calculate (full)',
+		path: '/api/v1/calculate',
+		method: 'POST',
+		headers: { cookie, 'content-type': 'application/json' },
+		body
+	},
+	{
+		name: `GET /dwellings/:id (${dwelling.reference})`,
+		path: `/dwellings/${dwelling.id}`,
+		headers: { cookie }
+	}
+];
+const results = routes.map(() => [] as Awaited<ReturnType<typeof once>>[]);
+for (let round = 0; round < ROUNDS; round++)
+	for (let i = 0; i < routes.length; i++) results[i].push(await once(routes[i]));
+const [trivial, calc, calcFull, dw]: Run[] = routes.map((route, i) => ({
+	name: route.name,
+	rps: median(results[i].map((r) => r.requests.average)),
+	p50: median(results[i].map((r) => r.latency.p50)),
+	p99: median(results[i].map((r) => r.latency.p99)),
+	non2xx: results[i].reduce((a, r) => a + r.non2xx + r.errors, 0)
+}));
 
 console.log(
-	`${CONNECTIONS} connections, ${DURATION} s each, loopback, one server; load average ${loadavg()[0].toFixed(1)} on ${cpus().length} cores (the client shares them)`
+	`${CONNECTIONS} connections, ${ROUNDS} interleaved rounds of ${DURATION} s per route (medians), loopback, one server; load average ${loadavg()[0].toFixed(1)} on ${cpus().length} cores (the client shares them)`
 );
 for (const r of [trivial, calc, calcFull, dw]) {
 	console.log(
