@@ -368,9 +368,15 @@ export async function seed(knex) {
 						'ground-floor': 'downward',
 						'exposed-floor': 'downward'
 					}[c.kind];
+					/** @type {Record<string, unknown> & { layers: unknown[] }} */
 					const buildUp = { layers: c.layers.map(layer) };
+					// Terraced houses about 7.5 m deep: the slab's exposed perimeter is the front and back walls.
+					if (c.kind === 'ground-floor')
+						buildUp.ground = { perimeterM: Math.round((2 * area * 10) / 7.5) / 10, areaM2: area };
+					// A tiled roof with sarking felt over the loft (ISO 6946 roof-space resistance).
+					if (c.kind === 'pitched-roof-ceiling') buildUp.roofSpace = 'tiles-with-felt-or-boards';
 					const internal = { temperature: 20, humidityClass: c.humidityClass ?? 3 };
-					const input = toElementInput({ heatFlow, buildUp, internal }, climate?.months ?? null);
+					const input = toElementInput({ heatFlow, buildUp, internal, area }, climate?.months ?? null);
 					const result = physics.analyseElement(input);
 					await trx('elements').insert({
 						...base,

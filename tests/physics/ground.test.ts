@@ -134,9 +134,11 @@ describe('ISO 13370 slab on ground (formulas from memory)', () => {
 		expect(paths).toContain('ground.groundLambda');
 		expect(paths).toContain('ground'); // not a floor: heat flow horizontal
 
-		// a circle of 100 m² has a perimeter of 2·√(π·100) = 35.45 m; no shape has less
-		const short = parseElementInput(floor([concrete], { perimeterM: 30, areaM2: 100 }));
-		expect(short.ok ? [] : short.issues.map((i) => i.path)).toEqual(['ground.perimeterM']);
+		// P is the exposed perimeter (ISO 13370, from memory: party walls are left out), so a mid-terrace
+		// floor of 100 m² with only 2 × 6 m of external wall is valid
+		expect(parseElementInput(floor([concrete], { perimeterM: 12, areaM2: 100 })).ok).toBe(true);
+		const zero = parseElementInput(floor([concrete], { perimeterM: 0, areaM2: 100 }));
+		expect(zero.ok ? [] : zero.issues.map((i) => i.path)).toEqual(['ground.perimeterM']);
 
 		const missing = parseElementInput({
 			heatFlow: 'downward',

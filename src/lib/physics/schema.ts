@@ -195,20 +195,8 @@ const DESIGN_RANGES: (readonly [string, readonly Rule[]])[] = [
 
 function refineGround(g: Record<string, unknown>, add: Add): void {
 	checkRanges(g, add, GROUND_RANGES);
-	const p = g.perimeterM;
-	const a = g.areaM2;
-	// No plane figure has a shorter boundary than the circle of the same area.
-	if (
-		typeof p === 'number' &&
-		typeof a === 'number' &&
-		p > 0 &&
-		a > 0 &&
-		p < 2 * Math.sqrt(Math.PI * a) - 1e-9
-	)
-		add(
-			['perimeterM'],
-			`is too short for a floor of ${a} m²: the perimeter of any shape of that area is at least ${(Math.ceil(2 * Math.sqrt(Math.PI * a) * 100) / 100).toFixed(2)} m`
-		);
+	// P is the EXPOSED perimeter (ISO 13370: walls between heated spaces are left out), so a terraced
+	// house's floor may have far less perimeter than its shape; no lower bound beyond P > 0.
 }
 
 function refineClimateMonth(m: Record<string, unknown>, add: Add): void {
