@@ -72,6 +72,16 @@ export const paths: Record<string, unknown> = {
 		post: {
 			tags: ['calculation'],
 			summary: 'Analyse an element: U-value (ISO 6946), profile, fRsi and Glaser (ISO 13788). Stateless.',
+			parameters: [
+				{
+					name: 'detail',
+					in: 'query',
+					required: false,
+					description:
+						'`summary` leaves out the sampled profile and the per-month arrays (surface months, Glaser months, nodes, vapour profile); every figure, check, note, warning and caution stays. Default: full.',
+					schema: { type: 'string', enum: ['full', 'summary'] }
+				}
+			],
 			requestBody: body(elementInputSchema),
 			responses: {
 				'200': ok('The result', schema(elementResultSchema)),
