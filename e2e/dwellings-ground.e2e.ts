@@ -1,5 +1,5 @@
 import { test, expect, type Page } from '@playwright/test';
-import { DEMO, signInAs } from './helpers';
+import { DEMO, signInAs, waitForApp } from './helpers';
 
 // The element editor for a ground floor (ISO 13370:2017 8.1 slab on ground, formulas from memory) and a
 // loft ceiling (ISO 6946:2017 roof-space table, from memory), the per-layer corrections, the unsaved-edits
@@ -8,11 +8,13 @@ import { DEMO, signInAs } from './helpers';
 async function newElement(page: Page) {
 	const reference = `E2E-G-${Date.now().toString(36)}`;
 	await page.goto('/dwellings/new');
+	await waitForApp(page);
 	await page.getByLabel('Reference').fill(reference);
 	await page.getByRole('button', { name: 'Create dwelling' }).click();
 	await expect(page.getByRole('heading', { name: reference })).toBeVisible();
 	await page.getByRole('button', { name: 'Add element' }).click();
 	await expect(page.getByRole('heading', { name: 'New element' })).toBeVisible();
+	await waitForApp(page);
 	return reference;
 }
 
@@ -76,7 +78,10 @@ test('a ground floor is calculated by ISO 13370 and a loft ceiling with its roof
 
 	// A loft: pasted rows replace the untouched blank row; the roof space adds Ru.
 	await page.getByRole('button', { name: 'Add element' }).click();
+	await expect(page.getByRole('heading', { name: 'New element' })).toBeVisible();
+	await waitForApp(page);
 	await page.getByLabel('Kind').selectOption('pitched-roof-ceiling');
+	await expect(page.getByLabel('Roof space above the ceiling')).toBeVisible();
 	await page.getByLabel('Area m²', { exact: true }).fill('40');
 	await page.getByRole('button', { name: 'Paste rows…' }).click();
 	await page.getByLabel('Pasted rows').fill('Plasterboard\t12.5\t0.25\t8\nMineral wool\t200\t0.04\t1');

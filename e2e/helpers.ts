@@ -91,3 +91,8 @@ export async function sessionCookie(email: string) {
 	});
 	return `authjs.session-token=${token}`;
 }
+
+/** Wait until the page has hydrated, so that what a test types is not reset by hydration. */
+export async function waitForApp(page: Page) {
+	await page.locator('html[data-ready="true"]').waitFor({ state: 'attached' });
+}
