@@ -140,7 +140,8 @@ run_test() {
 	if [ "$only_unit" != "none" ]; then
 		log "unit and server tests (vitest)"
 		# shellcheck disable=SC2086
-		node_modules/.bin/vitest run $only_unit || failed=1
+		node_modules/.bin/vitest run $only_unit --reporter=default --reporter=json \
+			--outputFile.json="$TEST_TMP/vitest.json" || failed=1
 	fi
 	if [ "$only_e2e" != "none" ]; then
 		log "building for the end-to-end tests"
@@ -153,8 +154,19 @@ run_test() {
 		DATABASE_URL="$E2E_DATABASE_URL" node_modules/.bin/knex --knexfile knexfile.js seed:run >/dev/null
 		export APP_PORT PW_OUTPUT_DIR="$TEST_BUILD/test-results"; APP_PORT=$(free_port)
 		# shellcheck disable=SC2086
-		DATABASE_URL="$E2E_DATABASE_URL" node_modules/.bin/playwright test $only_e2e || failed=1
+		DATABASE_URL="$E2E_DATABASE_URL" PLAYWRIGHT_JSON_OUTPUT_NAME="$TEST_TMP/playwright.json" \
+			node_modules/.bin/playwright test $only_e2e --reporter=list,json || failed=1
 	fi
+	# One closing line over both runners: "tests: N passed, N failed".
+	node -e '
+		const fs = require("fs");
+		const read = (f) => { try { return JSON.parse(fs.readFileSync(f, "utf8")); } catch { return null; } };
+		const v = read(process.argv[1]), p = read(process.argv[2]);
+		let passed = 0, failed = 0, skipped = 0;
+		if (v) { passed += v.numPassedTests; failed += v.numFailedTests; skipped += v.numPendingTests + v.numTodoTests; }
+		if (p) { passed += p.stats.expected + p.stats.flaky; failed += p.stats.unexpected; skipped += p.stats.skipped; }
+		console.log(`tests: ${passed} passed, ${failed} failed` + (skipped ? `, ${skipped} skipped` : ""));
+	' "$TEST_TMP/vitest.json" "$TEST_TMP/playwright.json"
 	if [ "$failed" -ne 0 ]; then log "FAILED"; exit 1; fi
 	log "all tests passed"
 }
