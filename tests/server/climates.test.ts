@@ -3,7 +3,7 @@ import fs from 'node:fs';
 import path from 'node:path';
 import { pathToFileURL } from 'node:url';
 import { randomUUID } from 'node:crypto';
-import { hasDatabase, makeTeam, tdb, fakeEvent } from '../factories';
+import { hasDatabase, makeTeam, tdb, fakeEvent, asMember, callHandler as call } from '../factories';
 import type { Role } from '../../src/lib/roles';
 
 // The climate format and access rules are Envelo's own (common practice, no source). Figures in the
@@ -11,51 +11,6 @@ import type { Role } from '../../src/lib/roles';
 
 const FIXTURES = path.resolve('fixtures/climates');
 const read = (name: string) => new Uint8Array(fs.readFileSync(path.join(FIXTURES, name)));
-
-type TestMember = { id: string; email: string; role: Role; organisationId: string };
-const asMember = (m: TestMember) => ({
-	user: { id: m.id, email: m.email, name: null },
-	organisationId: m.organisationId,
-	organisationName: 'Test',
-	role: m.role
-});
-
-/** Calls a +server.ts handler as SvelteKit would; thrown `error()`s come back as their status and body. */
-async function call(
-	handler: (e: any) => Promise<Response> | Response,
-	member: TestMember | null,
-	method: string,
-	url: string,
-	opts: { params?: Record<string, string>; body?: unknown; csv?: string } = {}
-) {
-	const full = new URL(`http://127.0.0.1${url}`);
-	const headers: Record<string, string> = {};
-	let body: string | undefined;
-	if (opts.csv !== undefined) {
-		headers['content-type'] = 'text/csv';
-		body = opts.csv;
-	} else if (opts.body !== undefined) {
-		headers['content-type'] = 'application/json';
-		body = JSON.stringify(opts.body);
-	}
-	const event = {
-		...fakeEvent(member, full.pathname),
-		url: full,
-		params: opts.params ?? {},
-		request: new Request(full, { method, headers, body })
-	};
-	try {
-		const res = await handler(event);
-		const text = await res.text();
-		return { status: res.status, text, json: text ? JSON.parse(text) : null };
-	} catch (e: any) {
-		if (typeof e?.status === 'number') {
-			const text = JSON.stringify(e.body ?? {});
-			return { status: e.status as number, text, json: e.body };
-		}
-		throw e;
-	}
-}
 
 const months = (rh = 80) =>
 	Array.from({ length: 12 }, (_, i) => ({ month: i + 1, temperature: i - 2, relativeHumidity: rh }));
