@@ -1,19 +1,17 @@
 /**
- * The material library's CSV import and export. The import reads the file row by row (csv/read.ts),
- * maps columns by header (or by a mapping the user gave, remembered per header line), validates each
- * row with the library schema, compares it with the current revision of the same code and returns a
- * preview. Committing re-reads the same file and writes every accepted row in one transaction.
+ * The material library's CSV import and export. The import reads the uploaded stream row by row
+ * (csv/read.ts), maps columns by header (or by a mapping the user gave, remembered per header line),
+ * validates each row with the library schema, compares it with the current revision of the same code
+ * and returns a preview. Committing writes the accepted rows of that preview in one transaction.
  */
 import { createHash } from 'node:crypto';
-import Papa from 'papaparse';
 import type { Db } from '../db';
 import {
 	CsvFileError,
-	decodeUpload,
-	detectDelimiter,
-	parseCsv,
 	parseNumber,
+	readCsvStream,
 	DEFAULT_MAX_BYTES,
+	type ByteSource,
 	type CsvInfo,
 	type Delimiter
 } from './read';
@@ -31,7 +29,13 @@ import {
 	type MaterialValues
 } from '../../library/schema';
 import { plausibilityWarnings } from '../../library/ranges';
-import { currentByCodes, insertNewMaterials, insertNewRevisions, type Actor } from '../materials';
+import {
+	currentByCodes,
+	currentRevisionIds,
+	insertNewMaterials,
+	insertNewRevisions,
+	type Actor
+} from '../materials';
 
 export { CsvFileError };
 
@@ -218,125 +222,211 @@ const NO = new Set(['no', 'n', 'false', '0', '']);
 
 type ParsedRow = {
 	line: number;
+	/** '' when the row's cells cannot be placed under their columns */
 	code: string;
+	/** the code shown in the preview: for a row that cannot be placed, the one it seems to carry */
+	shownCode: string;
+	name: string;
+	category: string;
 	values: MaterialValues | null;
-	raw: Record<string, unknown>;
 	errors: RowIssue[];
 	warnings: RowIssue[];
 };
 
+type ColumnKind =
+	'number' | 'category' | 'lambdaKind' | 'indicative' | 'date' | 'text' | 'manufacturer' | 'other';
+const kindOf = (f: ImportField): ColumnKind =>
+	NUMERIC.has(f)
+		? 'number'
+		: f === 'category'
+			? 'category'
+			: f === 'lambdaKind'
+				? 'lambdaKind'
+				: f === 'indicative'
+					? 'indicative'
+					: f === 'sourceIssued' || f === 'sourceExpires'
+						? 'date'
+						: f === 'code' || f === 'name'
+							? 'text'
+							: f === 'manufacturer'
+								? 'manufacturer'
+								: 'other';
+
+/** How the columns of one file are read: worked out once per file, used for every row. */
+type Plan = {
+	headers: string[];
+	columns: { index: number; field: ImportField; header: string; kind: ColumnKind }[];
+	codeAt: number;
+	columnName: (field: string) => string;
+	delimiter: Delimiter;
+	today: string;
+};
+
+function planOf(headers: string[], mapping: ColumnMapping, delimiter: Delimiter, today: string): Plan {
+	const columns: Plan['columns'] = [];
+	const columnOf: Partial<Record<string, string>> = {};
+	headers.forEach((h, index) => {
+		const field = mapping[h];
+		if (!field) return;
+		columns.push({ index, field, header: h, kind: kindOf(field) });
+		columnOf[field] = h;
+	});
+	return {
+		headers,
+		columns,
+		codeAt: headers.findIndex((h) => mapping[h] === 'code'),
+		columnName: (f) => columnOf[f] ?? CSV_COLUMNS[f as ImportField] ?? f,
+		delimiter,
+		today
+	};
+}
+
 /** One record → values and per-column issues. */
-function readRow(
-	cells: string[],
-	line: number,
-	headers: string[],
-	mapping: ColumnMapping,
-	delimiter: Delimiter,
-	today: string
-): ParsedRow {
-	const raw: Record<string, unknown> = {};
-	const errors: RowIssue[] = [];
-	const failed = new Set<string>();
-	const columnOf: Partial<Record<ImportField, string>> = {};
+function readRow(cells: string[], line: number, plan: Plan): ParsedRow {
+	const { headers } = plan;
 	if (cells.length !== headers.length) {
 		// The cells cannot be placed under their columns: say so and nothing else. The code is named when its
 		// cell is there to read (the separator fault may lie after it).
-		const codeAt = headers.findIndex((h) => mapping[h] === 'code');
-		const code = codeAt >= 0 && codeAt < cells.length ? unneutralise((cells[codeAt] ?? '').trim()) : '';
+		const code =
+			plan.codeAt >= 0 && plan.codeAt < cells.length ? unneutralise((cells[plan.codeAt] ?? '').trim()) : '';
 		const message = `${code ? `the row for '${code}'` : 'the row'} has ${cells.length} ${cells.length === 1 ? 'cell' : 'cells'} but the header has ${headers.length} columns; check for a missing or extra separator${cells.length > headers.length ? ' (text with a separator needs "quotes")' : ''}`;
 		return {
 			line,
 			code: '',
+			shownCode: code,
+			name: '',
+			category: '',
 			values: null,
-			raw: { code },
 			errors: [{ column: '', message }],
 			warnings: []
 		};
 	}
-	for (let i = 0; i < headers.length; i++) {
-		const field = mapping[headers[i]];
-		if (!field) continue;
-		columnOf[field] = headers[i];
-		const cell = unneutralise((cells[i] ?? '').trim());
-		if (NUMERIC.has(field)) {
-			const n = parseNumber(cell, delimiter);
-			if (n.ok) raw[field] = n.value;
-			else {
-				errors.push({ column: headers[i], message: n.message });
-				failed.add(field);
+	const raw: Record<string, unknown> = {};
+	const errors: RowIssue[] = [];
+	let failed: Set<string> | null = null;
+	for (const { index, field, header, kind } of plan.columns) {
+		const cell = unneutralise(cells[index].trim());
+		switch (kind) {
+			case 'number': {
+				const n = parseNumber(cell, plan.delimiter);
+				if (n.ok) raw[field] = n.value;
+				else {
+					errors.push({ column: header, message: n.message });
+					(failed ??= new Set()).add(field);
+				}
+				break;
 			}
-		} else if (field === 'category') {
-			raw[field] = cell === '' ? undefined : (CATEGORY_BY_TEXT.get(cell.toLowerCase()) ?? cell);
-		} else if (field === 'lambdaKind') {
-			raw[field] = cell === '' ? null : (KIND_BY_TEXT.get(cell.toLowerCase()) ?? cell);
-		} else if (field === 'indicative') {
-			const t = cell.toLowerCase();
-			if (YES.has(t)) raw[field] = true;
-			else if (NO.has(t)) raw[field] = false;
-			else {
-				errors.push({ column: headers[i], message: `'${cell}' is not yes or no` });
-				failed.add(field);
+			case 'category':
+				raw[field] = cell === '' ? undefined : (CATEGORY_BY_TEXT.get(cell.toLowerCase()) ?? cell);
+				break;
+			case 'lambdaKind':
+				raw[field] = cell === '' ? null : (KIND_BY_TEXT.get(cell.toLowerCase()) ?? cell);
+				break;
+			case 'indicative': {
+				const t = cell.toLowerCase();
+				if (YES.has(t)) raw[field] = true;
+				else if (NO.has(t)) raw[field] = false;
+				else {
+					errors.push({ column: header, message: `'${cell}' is not yes or no` });
+					(failed ??= new Set()).add(field);
+				}
+				break;
 			}
-		} else if (field === 'sourceIssued' || field === 'sourceExpires') {
-			const dmy = /^(\d{1,2})\.(\d{1,2})\.(\d{4})$/.exec(cell);
-			raw[field] =
-				cell === '' ? null : dmy ? `${dmy[3]}-${dmy[2].padStart(2, '0')}-${dmy[1].padStart(2, '0')}` : cell;
-		} else if (field === 'code' || field === 'name') {
-			raw[field] = cell;
-		} else if (field === 'manufacturer') {
-			raw[field] = cell === '' ? 'generic' : cell;
-		} else {
-			raw[field] = cell === '' ? null : cell;
+			case 'date': {
+				const dmy = /^(\d{1,2})\.(\d{1,2})\.(\d{4})$/.exec(cell);
+				raw[field] =
+					cell === '' ? null : dmy ? `${dmy[3]}-${dmy[2].padStart(2, '0')}-${dmy[1].padStart(2, '0')}` : cell;
+				break;
+			}
+			case 'text':
+				raw[field] = cell;
+				break;
+			case 'manufacturer':
+				raw[field] = cell === '' ? 'generic' : cell;
+				break;
+			default:
+				raw[field] = cell === '' ? null : cell;
 		}
 	}
-	const colName = (path: string) => columnOf[path as ImportField] ?? CSV_COLUMNS[path as ImportField] ?? path;
 	const parsed = materialValuesSchema.safeParse(raw);
-	const lambdaOrRFailed = failed.has('lambda') || failed.has('resistance');
 	if (!parsed.success) {
+		const lambdaOrRFailed = failed !== null && (failed.has('lambda') || failed.has('resistance'));
 		for (const iss of parsed.error.issues) {
 			const f = String(iss.path[0] ?? '');
-			if (failed.has(f)) continue;
+			if (failed?.has(f)) continue;
 			if (lambdaOrRFailed && (f === 'lambda' || f === 'resistance' || f === 'lambdaKind')) continue;
-			if (f === 'muDry' && failed.has('muWet')) continue;
-			errors.push({ column: colName(f), message: iss.message });
+			if (f === 'muDry' && failed?.has('muWet')) continue;
+			errors.push({ column: plan.columnName(f), message: iss.message });
 		}
 	}
 	const values = parsed.success && errors.length === 0 ? parsed.data : null;
 	const warnings = values
-		? plausibilityWarnings(values, today).map((w) => ({ column: colName(w.field), message: w.message }))
+		? plausibilityWarnings(values, plan.today).map((w) => ({
+				column: plan.columnName(w.field),
+				message: w.message
+			}))
 		: [];
-	return { line, code: String(raw.code ?? ''), values, raw, errors, warnings };
+	return {
+		line,
+		code: String(raw.code ?? ''),
+		shownCode: String(raw.code ?? ''),
+		name: String(raw.name ?? ''),
+		category: String(raw.category ?? ''),
+		values,
+		errors,
+		warnings
+	};
 }
 
-type Analysis = {
-	info: CsvInfo;
+/** What a commit needs of a preview: the rows it writes and the library state it was compared with. */
+type CommitPlan = {
+	organisationId: string;
+	token: string;
+	headers: string[];
 	mapping: ColumnMapping;
 	mappingSource: ImportPreview['mappingSource'];
-	rows: ParsedRow[];
-	preview: ImportPreview;
-	existing: Awaited<ReturnType<typeof currentByCodes>>;
+	counts: ImportCounts;
+	rows: number;
+	bytes: number;
+	added: MaterialValues[];
+	revised: { materialId: string; previousRevisionId: string; revision: number; values: MaterialValues }[];
+	/** every code the file offers (valid rows) → the current revision it was compared with, or null */
+	compared: Map<string, string | null>;
+	at: number;
 };
+
+type Analysis = { preview: ImportPreview; plan: CommitPlan };
 
 export type ImportOptions = { mapping?: ColumnMapping | null; maxBytes?: number; today?: string };
 
-async function analyse(
+function mappingStep(
+	message: string,
+	headers: string[],
+	suggested: ColumnMapping,
+	problems: string[]
+): MappingNeeded {
+	return {
+		kind: 'mapping',
+		message,
+		headers,
+		suggested,
+		problems,
+		fields: IMPORT_FIELDS.map((f) => ({
+			field: f,
+			column: CSV_COLUMNS[f],
+			label: FIELD_LABELS[f],
+			required: REQUIRED.includes(f)
+		}))
+	};
+}
+
+/** The mapping for a header line: given, saved for that header, or recognised; or the mapping step. */
+async function mappingFor(
 	k: Db,
 	organisationId: string,
-	bytes: Uint8Array,
-	opts: ImportOptions
-): Promise<Analysis | MappingNeeded> {
-	const { text, bom } = decodeUpload(bytes, opts.maxBytes ?? DEFAULT_MAX_BYTES);
-	if (text.trim() === '') throw new CsvFileError('The file is empty: it has only blank lines.', 'empty');
-	const delimiter = detectDelimiter(text);
-	const today = opts.today ?? new Date().toISOString().slice(0, 10);
-
-	// The header decides the mapping before any row is read.
-	let headers: string[] = [];
-	let mapping: ColumnMapping | null = null;
-	let mappingSource: ImportPreview['mappingSource'] = 'recognised';
-	let needed: MappingNeeded | null = null;
-	const firstLine = text.slice(0, Math.max(0, text.search(/\r?\n/)) || text.length);
-	headers = Papa.parse<string[]>(firstLine, { delimiter }).data[0]?.map((h) => h.trim()) ?? [];
+	headers: string[],
+	given: ColumnMapping | null | undefined
+): Promise<{ mapping: ColumnMapping; source: ImportPreview['mappingSource'] } | { needed: MappingNeeded }> {
 	const blank = headers.findIndex((h) => h === '');
 	if (headers.length > 0 && blank >= 0 && headers.slice(blank).some((h) => h !== '')) {
 		throw new CsvFileError(
@@ -345,9 +435,11 @@ async function analyse(
 			1
 		);
 	}
-	if (opts.mapping) {
-		mapping = opts.mapping;
-		mappingSource = 'given';
+	let mapping: ColumnMapping;
+	let source: ImportPreview['mappingSource'];
+	if (given) {
+		mapping = given;
+		source = 'given';
 	} else {
 		const saved = await k('import_mappings')
 			.where({
@@ -358,79 +450,99 @@ async function analyse(
 			.first('mapping');
 		if (saved) {
 			mapping = saved.mapping as ColumnMapping;
-			mappingSource = 'saved';
+			source = 'saved';
 		} else {
 			const rec = recogniseHeaders(headers);
 			const problems = mappingProblems(headers, rec.mapping);
-			if (rec.unknown.length === 0 && problems.length > 0) {
+			if (rec.unknown.length > 0) {
+				return {
+					needed: mappingStep(
+						`Envelo does not know ${rec.unknown.length === 1 ? 'the column' : 'these columns'}: ${rec.unknown.map((u) => `'${u}'`).join(', ')}. Say which library field each column holds (or ignore it); the choice is remembered for files with the same header.`,
+						headers,
+						rec.mapping,
+						problems
+					)
+				};
+			}
+			if (problems.length > 0) {
 				throw new CsvFileError(
 					`Line 1: ${problems.join('; ')}. The header has: ${headers.join(', ')}.`,
 					'header',
 					1
 				);
 			}
-			if (rec.unknown.length > 0) {
-				needed = {
-					kind: 'mapping',
-					message: `Envelo does not know ${rec.unknown.length === 1 ? 'the column' : 'these columns'}: ${rec.unknown.map((u) => `'${u}'`).join(', ')}. Say which library field each column holds (or ignore it); the choice is remembered for files with the same header.`,
-					headers,
-					suggested: rec.mapping,
-					problems,
-					fields: IMPORT_FIELDS.map((f) => ({
-						field: f,
-						column: CSV_COLUMNS[f],
-						label: FIELD_LABELS[f],
-						required: REQUIRED.includes(f)
-					}))
-				};
-			}
-			mapping = rec.mapping;
+			return { mapping: rec.mapping, source: 'recognised' };
 		}
 	}
-	if (!needed) {
-		const problems = mappingProblems(headers, mapping!);
-		if (problems.length) {
-			if (mappingSource === 'recognised')
-				throw new CsvFileError(`Line 1: ${problems.join('; ')}.`, 'header', 1);
-			needed = {
-				kind: 'mapping',
-				message: `The column mapping is not complete: ${problems.join('; ')}.`,
+	const problems = mappingProblems(headers, mapping);
+	if (problems.length) {
+		return {
+			needed: mappingStep(
+				`The column mapping is not complete: ${problems.join('; ')}.`,
 				headers,
-				suggested: mapping!,
-				problems,
-				fields: IMPORT_FIELDS.map((f) => ({
-					field: f,
-					column: CSV_COLUMNS[f],
-					label: FIELD_LABELS[f],
-					required: REQUIRED.includes(f)
-				}))
-			};
-		}
+				mapping,
+				problems
+			)
+		};
 	}
+	return { mapping, source };
+}
+
+async function analyse(
+	k: Db,
+	organisationId: string,
+	source: ByteSource,
+	opts: ImportOptions
+): Promise<Analysis | MappingNeeded> {
+	const today = opts.today ?? new Date().toISOString().slice(0, 10);
+	let plan: Plan | null = null;
+	let needed: MappingNeeded | null = null;
+	let mapping: ColumnMapping = {};
+	let mappingSource: ImportPreview['mappingSource'] = 'recognised';
+	let decimal: '.' | ',' = '.';
+	const rows: ParsedRow[] = [];
 
 	// Rows are read even when a mapping is needed, so a broken file says so at once.
-	const rows: ParsedRow[] = [];
-	let decimal: '.' | ',' = '.';
-	const m = mapping!;
-	const info0 = parseCsv(
-		text,
-		delimiter,
-		() => {},
+	const file = await readCsvStream(
+		source,
+		{ maxBytes: opts.maxBytes ?? DEFAULT_MAX_BYTES },
+		async (headers, delimiter) => {
+			const m = await mappingFor(k, organisationId, headers, opts.mapping);
+			if ('needed' in m) needed = m.needed;
+			else {
+				mapping = m.mapping;
+				mappingSource = m.source;
+				plan = planOf(headers, m.mapping, delimiter, today);
+			}
+		},
 		(cells, line) => {
-			if (needed) return;
-			const r = readRow(cells, line, headers, m, delimiter, today);
-			if (delimiter === ';' && decimal === '.' && cells.some((c) => /^\s*[+-]?\d*,\d+\s*$/.test(c)))
-				decimal = ',';
-			rows.push(r);
+			if (!plan) return;
+			if (plan.delimiter === ';' && decimal === '.') {
+				for (const c of cells) if (/^\s*[+-]?\d*,\d+\s*$/.test(c)) decimal = ',';
+			}
+			rows.push(readRow(cells, line, plan));
 		}
 	);
 	if (needed) return needed;
-	const info: CsvInfo = { bytes: bytes.length, bom, delimiter, decimal, headers, rows: info0.rows };
+	const { headers } = file;
+	const info: CsvInfo = {
+		bytes: file.bytes,
+		bom: file.bom,
+		delimiter: file.delimiter,
+		decimal,
+		headers,
+		rows: file.rows
+	};
 
 	// Duplicate codes within the file: all occurrences are rejected, since we cannot know which is right.
 	const linesByCode = new Map<string, number[]>();
-	for (const r of rows) if (r.code) linesByCode.set(r.code, [...(linesByCode.get(r.code) ?? []), r.line]);
-	const codeColumn = headers.find((h) => m[h] === 'code') ?? 'code';
+	for (const r of rows) {
+		if (!r.code) continue;
+		const lines = linesByCode.get(r.code);
+		if (lines) lines.push(r.line);
+		else linesByCode.set(r.code, [r.line]);
+	}
+	const codeColumn = headers.find((h) => mapping[h] === 'code') ?? 'code';
 	for (const r of rows) {
 		const lines = linesByCode.get(r.code);
 		if (r.code && lines && lines.length > 1) {
@@ -443,16 +555,19 @@ async function analyse(
 		}
 	}
 
-	const codes = rows.filter((r) => r.values).map((r) => r.code);
+	const codes: string[] = [];
+	for (const r of rows) if (r.values) codes.push(r.code);
 	const existing = await currentByCodes(k, organisationId, codes);
 	const counts: ImportCounts = { new: 0, changed: 0, unchanged: 0, rejected: 0, warnings: 0 };
-	const preview: PreviewRow[] = rows.map((r) => {
+	const added: CommitPlan['added'] = [];
+	const revised: CommitPlan['revised'] = [];
+	const compared: CommitPlan['compared'] = new Map();
+	const previewRows: PreviewRow[] = rows.map((r) => {
 		const base = {
 			line: r.line,
-			// a row whose cells cannot be placed still shows the code it seems to carry
-			code: r.code || String(r.raw.code ?? ''),
-			name: String(r.raw.name ?? ''),
-			category: String(r.raw.category ?? ''),
+			code: r.shownCode,
+			name: r.name,
+			category: r.category,
 			errors: r.errors,
 			warnings: r.warnings
 		};
@@ -461,9 +576,11 @@ async function analyse(
 			return { ...base, status: 'rejected', warnings: [], changes: [] };
 		}
 		const cur = existing.get(r.code);
+		compared.set(r.code, cur?.revisionId ?? null);
 		if (!cur) {
 			counts.new++;
 			if (r.warnings.length) counts.warnings++;
+			added.push(r.values);
 			return { ...base, status: 'new', changes: [] };
 		}
 		const changes = diffValues(cur.values, r.values);
@@ -473,40 +590,99 @@ async function analyse(
 		}
 		counts.changed++;
 		if (r.warnings.length) counts.warnings++;
+		revised.push({
+			materialId: cur.materialId,
+			previousRevisionId: cur.revisionId,
+			revision: cur.revision,
+			values: r.values
+		});
 		return { ...base, status: 'changed', changes };
 	});
 
+	// The same file, mapping and library state give the same token, in any process.
 	const hash = createHash('sha256')
-		.update(bytes)
-		.update(JSON.stringify(headers.map((h) => [h, m[h] ?? null])));
+		.update(organisationId)
+		.update(file.sha256)
+		.update(JSON.stringify(headers.map((h) => [h, mapping[h] ?? null])));
 	for (const code of [...existing.keys()].sort()) hash.update(`${code}=${existing.get(code)!.revisionId};`);
+	const token = hash.digest('hex');
 	return {
-		info,
-		mapping: m,
-		mappingSource,
-		rows,
-		existing,
 		preview: {
 			kind: 'preview',
 			file: info,
-			mapping: m,
+			mapping,
 			mappingSource,
 			counts,
-			rows: preview,
-			token: hash.digest('hex')
+			rows: previewRows,
+			token
+		},
+		plan: {
+			organisationId,
+			token,
+			headers,
+			mapping,
+			mappingSource,
+			counts,
+			rows: file.rows,
+			bytes: file.bytes,
+			added,
+			revised,
+			compared,
+			at: Date.now()
 		}
 	};
+}
+
+/**
+ * Previews kept for their commit, so confirming does not read and check the file a second time. Kept
+ * in this process only, for a while and within bounds; a commit that finds none reads the file again
+ * (the page sends it with the confirmation), so a restart or a second server only costs time.
+ */
+const PREVIEW_TTL_MS = 30 * 60 * 1000;
+const PREVIEW_MAX = 16;
+const PREVIEW_MAX_ROWS = 200_000;
+const previews = new Map<string, CommitPlan>();
+
+function keep(plan: CommitPlan): void {
+	const key = `${plan.organisationId}:${plan.token}`;
+	previews.delete(key);
+	previews.set(key, plan);
+	let rows = 0;
+	for (const p of previews.values()) rows += p.added.length + p.revised.length;
+	for (const [k, p] of previews) {
+		if (previews.size <= PREVIEW_MAX && rows <= PREVIEW_MAX_ROWS && Date.now() - p.at < PREVIEW_TTL_MS) break;
+		previews.delete(k);
+		rows -= p.added.length + p.revised.length;
+	}
+}
+
+function kept(organisationId: string, token: string): CommitPlan | null {
+	const key = `${organisationId}:${token}`;
+	const p = previews.get(key);
+	if (!p) return null;
+	if (Date.now() - p.at >= PREVIEW_TTL_MS) {
+		previews.delete(key);
+		return null;
+	}
+	return p;
+}
+
+/** For tests: forget every kept preview, as a restart would. */
+export function forgetKeptPreviews(): void {
+	previews.clear();
 }
 
 /** Dry run: the preview of every row (nothing is written), or the mapping step when headers are unknown. */
 export async function previewMaterialsImport(
 	k: Db,
 	organisationId: string,
-	bytes: Uint8Array,
+	source: ByteSource,
 	opts: ImportOptions = {}
 ): Promise<ImportPreview | MappingNeeded> {
-	const a = await analyse(k, organisationId, bytes, opts);
-	return 'kind' in a ? a : a.preview;
+	const a = await analyse(k, organisationId, source, opts);
+	if ('kind' in a) return a;
+	keep(a.plan);
+	return a.preview;
 }
 
 export class ImportRefused extends Error {
@@ -519,15 +695,19 @@ export class ImportRefused extends Error {
 	}
 }
 
+const CHANGED_SINCE_PREVIEW =
+	'The file or the library changed since the preview; preview the file again before you confirm.';
+
 /**
- * Commit: re-read the same file, check it gives the preview the user saw (token), and write every
- * accepted row — new materials and new revisions — in one transaction; rejected rows are left out.
- * A mapping the user gave is remembered for the next file with the same header.
+ * Commit: take the preview the user saw (kept by token, or else read the same file again and check it
+ * gives that token), check the library has not changed since, and write every accepted row — new
+ * materials and new revisions — in one transaction; rejected rows are left out. A mapping the user gave
+ * is remembered for the next file with the same header. `source` may be null when the preview is kept.
  */
 export async function commitMaterialsImport(
 	k: Db,
 	actor: Actor,
-	bytes: Uint8Array,
+	source: ByteSource | null,
 	opts: ImportOptions & { token: string; confirmWarnings?: boolean; fileName?: string },
 	log?: (
 		entry: {
@@ -541,62 +721,56 @@ export async function commitMaterialsImport(
 		trx: Db
 	) => Promise<void>
 ): Promise<ImportSummary> {
-	return k.transaction(async (trx) => {
+	const summary = await k.transaction(async (trx) => {
 		// One import at a time per organisation, so two commits cannot both add the same code.
 		await trx.raw('SELECT pg_advisory_xact_lock(hashtext(?))', [`materials-import:${actor.organisationId}`]);
-		const a = await analyse(trx, actor.organisationId, bytes, opts);
-		if ('kind' in a) throw new ImportRefused(a.message, 400);
-		if (a.preview.token !== opts.token) {
-			throw new ImportRefused(
-				'The file or the library changed since the preview; preview the file again before you confirm.',
-				409
-			);
+		let plan = kept(actor.organisationId, opts.token);
+		if (plan) {
+			// The library must still be as the preview saw it: the same current revision for every code.
+			const now = await currentRevisionIds(trx, actor.organisationId, [...plan.compared.keys()]);
+			for (const [code, revisionId] of plan.compared) {
+				if ((now.get(code) ?? null) !== revisionId) throw new ImportRefused(CHANGED_SINCE_PREVIEW, 409);
+			}
+		} else {
+			if (!source) {
+				throw new ImportRefused(
+					'The preview is no longer kept on the server; send the file again with the confirmation, or preview it again.',
+					409
+				);
+			}
+			const a = await analyse(trx, actor.organisationId, source, opts);
+			if ('kind' in a) throw new ImportRefused(a.message, 400);
+			if (a.plan.token !== opts.token) throw new ImportRefused(CHANGED_SINCE_PREVIEW, 409);
+			plan = a.plan;
 		}
-		const { counts } = a.preview;
+		const { counts } = plan;
 		if (counts.warnings > 0 && !opts.confirmWarnings) {
 			throw new ImportRefused(
 				`${counts.warnings} ${counts.warnings === 1 ? 'row has' : 'rows have'} warnings; confirm them to import.`,
 				422
 			);
 		}
-		const added: MaterialValues[] = [];
-		const revised: {
-			materialId: string;
-			previousRevisionId: string;
-			revision: number;
-			values: MaterialValues;
-		}[] = [];
-		a.rows.forEach((r, i) => {
-			const status = a.preview.rows[i].status;
-			if (status === 'new') added.push(r.values!);
-			else if (status === 'changed') {
-				const cur = a.existing.get(r.code)!;
-				revised.push({
-					materialId: cur.materialId,
-					previousRevisionId: cur.revisionId,
-					revision: cur.revision,
-					values: r.values!
-				});
-			}
-		});
-		await insertNewMaterials(trx, actor, added);
-		await insertNewRevisions(trx, actor, revised);
+		await insertNewMaterials(trx, actor, plan.added);
+		await insertNewRevisions(trx, actor, plan.revised);
 		let mappingSaved = false;
-		if (a.mappingSource === 'given' && (added.length > 0 || revised.length > 0 || counts.unchanged > 0)) {
+		if (
+			plan.mappingSource === 'given' &&
+			(plan.added.length > 0 || plan.revised.length > 0 || counts.unchanged > 0)
+		) {
 			await trx('import_mappings')
 				.insert({
 					organisation_id: actor.organisationId,
 					kind: 'materials',
-					header_signature: headerSignature(a.info.headers),
-					mapping: JSON.stringify(a.mapping)
+					header_signature: headerSignature(plan.headers),
+					mapping: JSON.stringify(plan.mapping)
 				})
 				.onConflict(['organisation_id', 'kind', 'header_signature'])
-				.merge({ mapping: JSON.stringify(a.mapping), updated_at: trx.fn.now() });
+				.merge({ mapping: JSON.stringify(plan.mapping), updated_at: trx.fn.now() });
 			mappingSaved = true;
 		}
 		const summary: ImportSummary = {
-			added: added.length,
-			changed: revised.length,
+			added: plan.added.length,
+			changed: plan.revised.length,
 			unchanged: counts.unchanged,
 			rejected: counts.rejected,
 			mappingSaved
@@ -609,13 +783,15 @@ export async function commitMaterialsImport(
 					action: 'import',
 					entity: 'material',
 					entityId: null,
-					details: { ...summary, file: opts.fileName ?? null, bytes: bytes.length, rows: a.info.rows }
+					details: { ...summary, file: opts.fileName ?? null, bytes: plan.bytes, rows: plan.rows }
 				},
 				trx
 			);
 		}
 		return summary;
 	});
+	previews.delete(`${actor.organisationId}:${opts.token}`);
+	return summary;
 }
 
 /** Export the current revision of every material, in the columns the import reads. */

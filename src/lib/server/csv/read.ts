@@ -2,8 +2,11 @@
  * Reading uploaded CSV files safely, for any import: size limit, refusal of binary and non-UTF-8
  * files, BOM, delimiter and decimal-comma detection, and row-by-row parsing with papaparse (step
  * callbacks, so no array of every row is built) with the physical line number of each record.
+ * `readCsvStream` does all of it on a stream of bytes, chunk by chunk, so the file is never held whole.
  * Relative imports only: the benchmark loads this file outside SvelteKit.
  */
+import { createHash } from 'node:crypto';
+import { Readable } from 'node:stream';
 import Papa from 'papaparse';
 
 export const DEFAULT_MAX_BYTES = 10 * 1024 * 1024;
@@ -87,17 +90,8 @@ function firstInvalidUtf8(b: Uint8Array): number {
 	return -1;
 }
 
-/**
- * Check the bytes of an upload and turn them into text: refuses empty, over-size, binary and
- * non-UTF-8 files with a message that says what to do. Strips a UTF-8 byte-order mark.
- */
-export function decodeUpload(
-	bytes: Uint8Array,
-	maxBytes = DEFAULT_MAX_BYTES
-): { text: string; bom: boolean } {
-	checkSize(bytes.length, maxBytes);
-	if (bytes.length === 0) throw new CsvFileError('The file is empty: it has no header and no rows.', 'empty');
-	const head = bytes.subarray(0, 8);
+/** Refuse a file by its first bytes: spreadsheet workbooks and UTF-16 text. */
+function refuseByHead(head: Uint8Array): void {
 	if (head[0] === 0x50 && head[1] === 0x4b && head[2] === 0x03 && head[3] === 0x04) {
 		throw new CsvFileError(
 			'This is a spreadsheet workbook (a zip file), not CSV text. In the spreadsheet program, save it as "CSV UTF-8" and upload that.',
@@ -113,34 +107,323 @@ export function decodeUpload(
 	if ((head[0] === 0xff && head[1] === 0xfe) || (head[0] === 0xfe && head[1] === 0xff)) {
 		throw new CsvFileError('The file is UTF-16 text; save it as "CSV UTF-8" and upload again.', 'not-utf8');
 	}
+}
+
+const binaryError = (line: number) =>
+	new CsvFileError(
+		`This looks like a binary file, not CSV text (a zero byte at line ${line}). Save the data as "CSV UTF-8" and upload that.`,
+		'binary',
+		line
+	);
+
+function notUtf8Error(byte: number, line: number): CsvFileError {
+	const hex = byte.toString(16).toUpperCase().padStart(2, '0');
+	const latin1 = byte >= 0xa0 ? ` (in Latin-1 that byte is '${String.fromCharCode(byte)}')` : '';
+	return new CsvFileError(
+		`The file is not UTF-8 text: line ${line} has the byte 0x${hex}${latin1}. It was probably saved as Latin-1 or Windows-1252; save it as "CSV UTF-8" and upload again.`,
+		'not-utf8',
+		line
+	);
+}
+
+/**
+ * Check the bytes of an upload and turn them into text: refuses empty, over-size, binary and
+ * non-UTF-8 files with a message that says what to do. Strips a UTF-8 byte-order mark.
+ */
+export function decodeUpload(
+	bytes: Uint8Array,
+	maxBytes = DEFAULT_MAX_BYTES
+): { text: string; bom: boolean } {
+	checkSize(bytes.length, maxBytes);
+	if (bytes.length === 0) throw new CsvFileError('The file is empty: it has no header and no rows.', 'empty');
+	refuseByHead(bytes.subarray(0, 8));
 	const nul = bytes.indexOf(0);
-	if (nul >= 0) {
-		throw new CsvFileError(
-			`This looks like a binary file, not CSV text (a zero byte at line ${lineAt(bytes, nul)}). Save the data as "CSV UTF-8" and upload that.`,
-			'binary',
-			lineAt(bytes, nul)
-		);
-	}
+	if (nul >= 0) throw binaryError(lineAt(bytes, nul));
 	let bad = -1;
 	try {
 		new TextDecoder('utf-8', { fatal: true }).decode(bytes);
 	} catch {
 		bad = firstInvalidUtf8(bytes);
 	}
-	if (bad >= 0) {
-		const line = lineAt(bytes, bad);
-		const byte = bytes[bad].toString(16).toUpperCase().padStart(2, '0');
-		const latin1 =
-			bytes[bad] >= 0xa0 ? ` (in Latin-1 that byte is '${String.fromCharCode(bytes[bad])}')` : '';
-		throw new CsvFileError(
-			`The file is not UTF-8 text: line ${line} has the byte 0x${byte}${latin1}. It was probably saved as Latin-1 or Windows-1252; save it as "CSV UTF-8" and upload again.`,
-			'not-utf8',
-			line
-		);
-	}
+	if (bad >= 0) throw notUtf8Error(bytes[bad], lineAt(bytes, bad));
 	const bom = bytes[0] === 0xef && bytes[1] === 0xbb && bytes[2] === 0xbf;
 	const text = new TextDecoder('utf-8', { ignoreBOM: true }).decode(bom ? bytes.subarray(3) : bytes);
 	return { text, bom };
+}
+
+/** Bytes, or a stream of byte chunks (a Node stream, a web ReadableStream, an async generator). */
+export type ByteSource = Uint8Array | AsyncIterable<Uint8Array>;
+
+const CHUNK = 64 * 1024;
+
+async function* chunksOf(source: ByteSource): AsyncGenerator<Uint8Array> {
+	if (source instanceof Uint8Array) {
+		for (let i = 0; i < source.length; i += CHUNK) yield source.subarray(i, i + CHUNK);
+		return;
+	}
+	for await (const c of source) yield c instanceof Uint8Array ? c : new Uint8Array(c as ArrayBuffer);
+}
+
+/** The bytes at the end of `b` that start a UTF-8 sequence the next chunk completes (0 to 3 bytes). */
+function incompleteTail(b: Uint8Array): number {
+	for (let back = 1; back <= Math.min(3, b.length); back++) {
+		const c = b[b.length - back];
+		if ((c & 0xc0) === 0x80) continue; // a continuation byte: look further back
+		const need = c >= 0xf0 ? 4 : c >= 0xe0 ? 3 : c >= 0xc0 ? 2 : 1;
+		return need > back ? back : 0;
+	}
+	return 0;
+}
+
+function countByte(b: Uint8Array, byte: number): number {
+	let n = 0;
+	for (let i = b.indexOf(byte); i >= 0; i = b.indexOf(byte, i + 1)) n++;
+	return n;
+}
+
+/** What reading a file told, besides its rows. */
+export type StreamedFile = {
+	bytes: number;
+	bom: boolean;
+	delimiter: Delimiter;
+	headers: string[];
+	rows: number;
+	/** SHA-256 of the bytes as uploaded */
+	sha256: string;
+};
+
+/**
+ * Read a CSV upload from a stream of bytes, one chunk at a time: the size limit, binary and non-UTF-8
+ * files (with the line of the first bad byte), BOM, delimiter, then every record through papaparse.
+ * `onHeader` gets the header line (and may be async, e.g. to look up a saved mapping) before any row;
+ * `onRow` gets each data record and the physical line it starts on. Empty lines are skipped. A record
+ * with fewer cells than the header is passed on (the caller decides), except when it is the last
+ * record of a file that does not end with a newline: that file was cut short.
+ */
+export async function readCsvStream(
+	source: ByteSource,
+	opts: { maxBytes?: number },
+	onHeader: (headers: string[], delimiter: Delimiter) => void | Promise<void>,
+	onRow: RowHandler
+): Promise<StreamedFile> {
+	const maxBytes = opts.maxBytes ?? DEFAULT_MAX_BYTES;
+	const hash = createHash('sha256');
+	let total = 0;
+	let bom = false;
+	let tail = ''; // the last characters of the text, to tell whether it ends with a line end
+
+	// Bytes → checked text, chunk by chunk.
+	async function* text(): AsyncGenerator<string> {
+		const decoder = new TextDecoder('utf-8', { fatal: true }); // strips a leading BOM
+		const it = chunksOf(source)[Symbol.asyncIterator]();
+		let head = new Uint8Array(0);
+		let started = false;
+		let pending = new Uint8Array(0); // an incomplete UTF-8 sequence carried from the last chunk
+		let newlines = 0; // line ends before the current chunk
+		try {
+			for (;;) {
+				const next = await it.next();
+				if (next.done) break;
+				const chunk = next.value;
+				total += chunk.length;
+				if (total > maxBytes) {
+					// Count the rest (up to a bound) so the message can give the size.
+					for (let r = await it.next(); !r.done && total < maxBytes * 4; r = await it.next())
+						total += r.value.length;
+					checkSize(total, maxBytes);
+				}
+				hash.update(chunk);
+				let bytes = chunk;
+				if (!started) {
+					// Hold the first few bytes until the kind of file can be told from them.
+					const h = new Uint8Array(head.length + chunk.length);
+					h.set(head);
+					h.set(chunk, head.length);
+					if (h.length < 4) {
+						head = h;
+						continue;
+					}
+					refuseByHead(h.subarray(0, 8));
+					bom = h[0] === 0xef && h[1] === 0xbb && h[2] === 0xbf;
+					started = true;
+					bytes = h;
+				}
+				const nul = bytes.indexOf(0);
+				if (nul >= 0) throw binaryError(newlines + lineAt(bytes, nul));
+				let out: string;
+				try {
+					out = decoder.decode(bytes, { stream: true });
+				} catch {
+					const joined = new Uint8Array(pending.length + bytes.length);
+					joined.set(pending);
+					joined.set(bytes, pending.length);
+					const bad = Math.max(0, firstInvalidUtf8(joined));
+					throw notUtf8Error(joined[bad], newlines - countByte(pending, 0x0a) + lineAt(joined, bad));
+				}
+				const last = new Uint8Array(pending.length + Math.min(3, bytes.length));
+				last.set(pending);
+				last.set(bytes.subarray(bytes.length - Math.min(3, bytes.length)), pending.length);
+				const keep = incompleteTail(last);
+				pending = last.slice(last.length - keep);
+				newlines += countByte(bytes, 0x0a);
+				if (out) {
+					tail = (tail + out).slice(-4);
+					yield out;
+				}
+			}
+			if (!started && head.length > 0) {
+				refuseByHead(head);
+				const nul = head.indexOf(0);
+				if (nul >= 0) throw binaryError(lineAt(head, nul));
+				bom = head[0] === 0xef && head[1] === 0xbb && head[2] === 0xbf;
+				pending = head;
+			}
+			let out: string;
+			try {
+				out = decoder.decode(started ? undefined : head);
+			} catch {
+				const bad = Math.max(0, firstInvalidUtf8(pending));
+				throw notUtf8Error(pending[bad], newlines + lineAt(pending, bad));
+			}
+			if (out) {
+				tail = (tail + out).slice(-4);
+				yield out;
+			}
+		} finally {
+			await it.return?.(undefined);
+		}
+	}
+
+	// The header line decides the delimiter and the mapping before any row is read.
+	const chunks = text()[Symbol.asyncIterator]();
+	try {
+		return await readRecords(
+			chunks,
+			() => total,
+			() => bom,
+			() => tail,
+			() => hash.digest('hex'),
+			onHeader,
+			onRow
+		);
+	} finally {
+		await chunks.return?.(undefined);
+	}
+}
+
+async function readRecords(
+	chunks: AsyncIterator<string>,
+	total: () => number,
+	bom: () => boolean,
+	tail: () => string,
+	digest: () => string,
+	onHeader: (headers: string[], delimiter: Delimiter) => void | Promise<void>,
+	onRow: RowHandler
+): Promise<StreamedFile> {
+	// Read until the header line is complete (or the file ends); blank lines alone make an empty file.
+	let head = '';
+	let ended = false;
+	const headerDone = () => {
+		const at = head.search(/\S/);
+		return at >= 0 && /[\r\n]/.test(head.slice(at));
+	};
+	while (!ended && !headerDone()) {
+		const n = await chunks.next();
+		if (n.done) ended = true;
+		else head += n.value;
+	}
+	if (total() === 0) throw new CsvFileError('The file is empty: it has no header and no rows.', 'empty');
+	if (head.trim() === '') throw new CsvFileError('The file is empty: it has only blank lines.', 'empty');
+	const delimiter = detectDelimiter(head);
+	const newline = head.includes('\r\n')
+		? '\r\n'
+		: head.includes('\n')
+			? '\n'
+			: head.includes('\r')
+				? '\r'
+				: undefined;
+	const firstLine = head.slice(0, Math.max(0, head.search(/\r?\n|\r/)) || head.length);
+	const headers = Papa.parse<string[]>(firstLine, { delimiter }).data[0]?.map((h) => h.trim()) ?? [];
+	await onHeader(headers, delimiter);
+
+	const nlChar = newline === '\r' ? '\r' : '\n';
+	let line = 1; // the physical line the next record starts on
+	let seenHeader = false;
+	let rows = 0;
+	let pendingShort: { line: number; cells: number } | null = null;
+	let quoteError: { line: number; message: string } | null = null;
+	let failed: unknown = null;
+
+	const input = Readable.from(
+		(async function* () {
+			yield head;
+			for (;;) {
+				const n = await chunks.next();
+				if (n.done) return;
+				yield n.value;
+			}
+		})(),
+		{ objectMode: true }
+	);
+	await new Promise<void>((resolve, reject) => {
+		Papa.parse<string[]>(input as unknown as File, {
+			delimiter,
+			newline: newline as '\r\n' | '\n' | '\r' | undefined,
+			quoteChar: '"',
+			skipEmptyLines: false,
+			step: (res, parser) => {
+				try {
+					const cells = res.data;
+					const start = line;
+					let spans = 1;
+					for (const c of cells) {
+						for (let i = c.indexOf(nlChar); i >= 0; i = c.indexOf(nlChar, i + 1)) spans++;
+					}
+					line += spans;
+					for (const e of res.errors) {
+						if (e.type === 'Quotes' && !quoteError) {
+							quoteError = {
+								line: start,
+								message: `Line ${start} opens a quoted field that is never closed (a missing " ); the rest of the file cannot be read reliably.`
+							};
+						}
+					}
+					if (cells.length === 1 && cells[0] === '') return; // an empty line
+					if (!seenHeader) {
+						seenHeader = true;
+						return;
+					}
+					rows++;
+					pendingShort = cells.length < headers.length ? { line: start, cells: cells.length } : null;
+					onRow(cells, start);
+				} catch (e) {
+					failed = e;
+					parser.abort();
+					input.destroy();
+				}
+			},
+			complete: () => resolve(),
+			error: (e: unknown) => reject(e)
+		});
+	});
+	if (failed) throw failed;
+	if (quoteError) {
+		const q = quoteError as { line: number; message: string };
+		throw new CsvFileError(q.message, 'quotes', q.line);
+	}
+	const endsWithNewline = /\r?\n\s*$|\r\s*$/.test(tail());
+	const short = pendingShort as { line: number; cells: number } | null;
+	if (short && !endsWithNewline) {
+		throw new CsvFileError(
+			`Line ${short.line}, the last line, has ${short.cells} of ${headers.length} columns and no line end: the file looks cut short. Export it again and upload the whole file.`,
+			'truncated',
+			short.line
+		);
+	}
+	if (rows === 0) {
+		throw new CsvFileError('The file has a header line but no data rows.', 'header-only', 1);
+	}
+	return { bytes: total(), bom: bom(), delimiter, headers, rows, sha256: digest() };
 }
 
 /** Count a character outside double quotes in one line of text. */
@@ -210,82 +493,3 @@ export function parseNumber(raw: string, delimiter: Delimiter): NumberResult {
 }
 
 export type RowHandler = (cells: string[], line: number) => void;
-
-/**
- * Parse CSV text row by row with papaparse. Calls `onHeader` once with the first record, then
- * `onRow` with each data record and the physical line it starts on. Empty lines are skipped.
- * A record with fewer cells than the header is passed on (the caller decides), except when it is
- * the last record of a file that does not end with a newline: that file was cut short.
- */
-export function parseCsv(
-	text: string,
-	delimiter: Delimiter,
-	onHeader: (headers: string[]) => void,
-	onRow: RowHandler
-): { rows: number } {
-	let prev = 0;
-	let linesBefore = 1; // the line number at offset `prev`
-	let headers: string[] | null = null;
-	let rows = 0;
-	let pendingShort: { line: number; cells: number } | null = null;
-	let quoteError: { line: number; message: string } | null = null;
-
-	Papa.parse<string[]>(text, {
-		delimiter,
-		newline: text.includes('\r\n')
-			? '\r\n'
-			: text.includes('\n')
-				? '\n'
-				: text.includes('\r')
-					? '\r'
-					: undefined,
-		quoteChar: '"',
-		skipEmptyLines: true,
-		step: (res) => {
-			const cursor = res.meta.cursor;
-			let i = prev;
-			while (i < cursor && (text.charCodeAt(i) === 10 || text.charCodeAt(i) === 13)) {
-				if (text.charCodeAt(i) === 10) linesBefore++;
-				i++;
-			}
-			const startLine = linesBefore;
-			for (; i < cursor; i++) if (text.charCodeAt(i) === 10) linesBefore++;
-			prev = cursor;
-			for (const e of res.errors) {
-				if (e.type === 'Quotes' && !quoteError) {
-					quoteError = {
-						line: startLine,
-						message: `Line ${startLine} opens a quoted field that is never closed (a missing " ); the rest of the file cannot be read reliably.`
-					};
-				}
-			}
-			const cells = res.data;
-			if (!headers) {
-				headers = cells;
-				onHeader(cells);
-				return;
-			}
-			rows++;
-			pendingShort = cells.length < headers.length ? { line: startLine, cells: cells.length } : null;
-			onRow(cells, startLine);
-		}
-	});
-	if (quoteError) {
-		const q = quoteError as { line: number; message: string };
-		throw new CsvFileError(q.message, 'quotes', q.line);
-	}
-	if (!headers) throw new CsvFileError('The file is empty: it has no header and no rows.', 'empty');
-	const endsWithNewline = /\r?\n\s*$/.test(text.slice(-4));
-	const short = pendingShort as { line: number; cells: number } | null;
-	if (short && !endsWithNewline) {
-		throw new CsvFileError(
-			`Line ${short.line}, the last line, has ${short.cells} of ${(headers as string[]).length} columns and no line end: the file looks cut short. Export it again and upload the whole file.`,
-			'truncated',
-			short.line
-		);
-	}
-	if (rows === 0) {
-		throw new CsvFileError('The file has a header line but no data rows.', 'header-only', 1);
-	}
-	return { rows };
-}

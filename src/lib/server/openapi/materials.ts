@@ -218,10 +218,16 @@ export const paths: Record<string, unknown> = {
 	'/api/v1/materials/import': {
 		post: {
 			summary: 'CSV import: preview (dry run, nothing written) or commit (one transaction)',
+			description:
+				'The file is read as it arrives. In multipart/form-data, put the fields before the file part. ' +
+				'Or send the file as the body (Content-Type: text/csv) with mode, token, confirmWarnings and mapping ' +
+				'in the query string. A commit whose preview the server still keeps needs no file; otherwise it ' +
+				'reads the file again and checks it gives the same token.',
 			tags: ['Library'],
 			requestBody: {
 				required: true,
 				content: {
+					'text/csv': { schema: { type: 'string', format: 'binary' } },
 					'multipart/form-data': {
 						schema: {
 							type: 'object',
@@ -238,8 +244,7 @@ export const paths: Record<string, unknown> = {
 								},
 								token: { type: 'string', description: 'from the preview; required to commit' },
 								confirmWarnings: { enum: ['yes', 'no'] }
-							},
-							required: ['file']
+							}
 						}
 					}
 				}

@@ -1,8 +1,10 @@
 import { json } from '@sveltejs/kit';
+import { z } from 'zod';
 import { requireRole } from '$lib/server/guard';
 import { db } from '$lib/server/db';
 import { logActivity } from '$lib/server/activity';
 import { checkSize, DEFAULT_MAX_BYTES } from '$lib/server/csv/read';
+import { readUpload, UploadError, type Upload } from '$lib/server/csv/upload';
 import {
 	commitMaterialsImport,
 	IMPORT_FIELDS,
@@ -11,10 +13,27 @@ import {
 } from '$lib/server/csv/materials';
 import { failure } from '../respond';
 
+const paramsSchema = z.object({
+	mode: z.enum(['preview', 'commit'], { error: 'mode must be preview or commit' }).default('preview'),
+	token: z.string().max(200).optional(),
+	confirmWarnings: z
+		.enum(['yes', 'no', 'true', 'false'], { error: 'confirmWarnings must be yes or no' })
+		.optional(),
+	mapping: z
+		.string()
+		.max(64 * 1024)
+		.optional()
+});
+const mappingSchema = z.record(z.string(), z.enum(IMPORT_FIELDS).nullable());
+
+const bad = (message: string) => json({ message }, { status: 400 });
+
 /**
- * Import a CSV file (multipart/form-data): `file`, `mode` = preview (default; nothing is written) or
- * commit (with the preview's `token`, and `confirmWarnings` = yes when rows have warnings), and
- * optionally `mapping` (JSON: { fileHeader: field | null }).
+ * Import a CSV file, read as it arrives. Either multipart/form-data with the fields first and the file
+ * last (field `file`), or the file as the body with Content-Type: text/csv and the fields in the query
+ * string. Fields: `mode` = preview (default; nothing is written) or commit (with the preview's `token`,
+ * and `confirmWarnings` = yes when rows have warnings), and optionally `mapping` (JSON:
+ * { fileHeader: field | null }). A commit whose preview the server still keeps does not read the file.
  */
 export const POST = async (event) => {
 	const member = requireRole(event, 'assessor', 'admin');
@@ -24,56 +43,69 @@ export const POST = async (event) => {
 	} catch (e) {
 		return failure(e);
 	}
-	if (!(event.request.headers.get('content-type') ?? '').startsWith('multipart/form-data')) {
-		return json({ message: 'Send the file as multipart/form-data, in a field named file.' }, { status: 400 });
-	}
-	let form: FormData;
+	let upload: Upload;
 	try {
-		form = await event.request.formData();
-	} catch {
-		return json({ message: 'The upload could not be read; try again.' }, { status: 400 });
-	}
-	const file = form.get('file');
-	if (!(file instanceof File))
-		return json({ message: 'Choose a CSV file to upload (field "file").' }, { status: 400 });
-	let mapping: ColumnMapping | null = null;
-	const rawMapping = form.get('mapping');
-	if (typeof rawMapping === 'string' && rawMapping.trim() !== '') {
-		try {
-			const m = JSON.parse(rawMapping);
-			if (!m || typeof m !== 'object' || Array.isArray(m)) throw new Error();
-			for (const v of Object.values(m))
-				if (v !== null && !(IMPORT_FIELDS as readonly unknown[]).includes(v)) throw new Error();
-			mapping = m;
-		} catch {
-			return json(
-				{ message: 'The column mapping must be JSON: { "file header": "field" or null }.' },
-				{ status: 400 }
-			);
-		}
+		upload = await readUpload(event.request, event.url);
+	} catch (e) {
+		if (e instanceof UploadError) return bad(e.message);
+		throw e;
 	}
 	try {
-		const bytes = new Uint8Array(await file.arrayBuffer());
-		if (form.get('mode') === 'commit') {
-			const token = form.get('token');
-			if (typeof token !== 'string' || token === '') {
-				return json(
-					{ message: 'Preview the file first; the commit needs the preview token.' },
-					{ status: 400 }
+		return await handle(upload);
+	} finally {
+		await upload.finish();
+	}
+
+	async function handle(upload: Upload): Promise<Response> {
+		const params = paramsSchema.safeParse(Object.fromEntries(upload.fields));
+		if (!params.success) return bad(params.error.issues.map((i) => i.message).join('; '));
+		const { mode, token, confirmWarnings } = params.data;
+		let mapping: ColumnMapping | null = null;
+		if (params.data.mapping && params.data.mapping.trim() !== '') {
+			let raw: unknown;
+			try {
+				raw = JSON.parse(params.data.mapping);
+			} catch {
+				raw = undefined;
+			}
+			const m = mappingSchema.safeParse(raw);
+			if (!m.success) {
+				return bad(
+					`The column mapping must be JSON: { "file header": one of ${IMPORT_FIELDS.join(', ')}, or null }.`
 				);
 			}
-			const confirm = form.get('confirmWarnings');
-			const summary = await commitMaterialsImport(
-				db,
-				{ userId: member.user.id, organisationId: member.organisationId },
-				bytes,
-				{ mapping, token, confirmWarnings: confirm === 'yes' || confirm === 'true', fileName: file.name },
-				(entry, trx) => logActivity(entry, trx)
-			);
-			return json({ kind: 'summary', ...summary });
+			mapping = m.data;
 		}
-		return json(await previewMaterialsImport(db, member.organisationId, bytes, { mapping }));
-	} catch (e) {
-		return failure(e);
+		const file = upload.file;
+		try {
+			if (mode === 'commit') {
+				if (!token) return bad('Preview the file first; the commit needs the preview token.');
+				const summary = await commitMaterialsImport(
+					db,
+					{ userId: member.user.id, organisationId: member.organisationId },
+					file?.chunks ?? null,
+					{
+						mapping,
+						token,
+						confirmWarnings: confirmWarnings === 'yes' || confirmWarnings === 'true',
+						fileName: file?.name
+					},
+					(entry, trx) => logActivity(entry, trx)
+				);
+				return json({ kind: 'summary', ...summary });
+			}
+			if (!file) return bad('Choose a CSV file to upload (field "file").');
+			const preview = await previewMaterialsImport(db, member.organisationId, file.chunks, { mapping });
+			const late = upload.lateFields().filter((f) => f in paramsSchema.shape);
+			if (late.length) {
+				return bad(
+					`The form field${late.length === 1 ? '' : 's'} ${late.join(', ')} came after the file and could not be used: put the fields before the file, or in the query string.`
+				);
+			}
+			return json(preview);
+		} catch (e) {
+			if (e instanceof UploadError) return bad(e.message);
+			return failure(e);
+		}
 	}
 };
