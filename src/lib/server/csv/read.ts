@@ -325,7 +325,10 @@ async function readRecords(
 	let ended = false;
 	const headerDone = () => {
 		const at = head.search(/\S/);
-		return at >= 0 && /[\r\n]/.test(head.slice(at));
+		if (at < 0) return false;
+		const end = head.slice(at).search(/[\r\n]/);
+		// A '\r' that ends what has come so far may be the first half of '\r\n': wait for the next chunk.
+		return end >= 0 && !(head[at + end] === '\r' && at + end === head.length - 1);
 	};
 	while (!ended && !headerDone()) {
 		const n = await chunks.next();

@@ -112,6 +112,7 @@ export async function readUpload(request: Request, url: URL, fileField = 'file')
 								},
 								// Stopped early (a bad file): drain the rest so the request still ends.
 								return: async (v?: unknown) => {
+									await it.return?.(); // detaches the iterator without destroying the stream
 									stream.resume();
 									return { done: true as const, value: v as Uint8Array };
 								}

@@ -1,0 +1,163 @@
+// Reading a CSV upload as a stream (src/lib/server/csv/read.ts). The reference for the records is
+// papaparse 5 itself (a general-purpose CSV library from npm) parsing the whole text in one call; the
+// reference for line numbers is counting line ends in the text by hand. Whatever the chunk size, and
+// wherever a chunk boundary falls (inside a multi-byte character, between \r and \n, inside a quoted
+// field), the streamed reader must give the same records on the same lines, and refuse a bad file
+// with the same message as when it arrives in one piece. No database needed.
+import { describe, expect, it } from 'vitest';
+import Papa from 'papaparse';
+import { readCsvStream, type ByteSource } from '../../src/lib/server/csv/read';
+import { fixture } from '../factories-library';
+
+const enc = (s: string) => new TextEncoder().encode(s);
+
+async function* inChunks(bytes: Uint8Array, size: number) {
+	for (let i = 0; i < bytes.length; i += size) yield bytes.slice(i, i + size);
+}
+
+async function read(source: ByteSource) {
+	const rows: { line: number; cells: string[] }[] = [];
+	let header: string[] = [];
+	const file = await readCsvStream(
+		source,
+		{},
+		(h) => {
+			header = h;
+		},
+		(cells, line) => rows.push({ line, cells })
+	);
+	return { header, rows, file };
+}
+
+/** What the reader must give: papaparse on the whole text, with each record's first line counted by hand. */
+function reference(text: string) {
+	const body = text.replace(/^\uFEFF/, '');
+	const records = Papa.parse<string[]>(body, { skipEmptyLines: true }).data;
+	// The first line of each record: walk the text, skipping quoted sections.
+	const starts: number[] = [];
+	let line = 1;
+	let inQuotes = false;
+	let atStart = true;
+	for (let i = 0; i < body.length; i++) {
+		const c = body[i];
+		if (atStart && c !== '\n' && c !== '\r') {
+			starts.push(line);
+			atStart = false;
+		}
+		if (c === '"') inQuotes = !inQuotes;
+		if (c === '\n') {
+			line++;
+			if (!inQuotes) atStart = true;
+		}
+	}
+	return records.slice(1).map((cells, i) => ({ line: starts[i + 1], cells }));
+}
+
+const awkward =
+	'\uFEFFcode,name,notes\r\n' +
+	'A-1,"Mineral wool, λ 0.035","two\r\nlines"\r\n' +
+	'\r\n' +
+	'A-2,Dämmplatte μ 1,"quote "" inside"\r\n' +
+	'A-3,Holzfaser 𝜆 (a four-byte letter),\r\n' +
+	'A-4,"ends\nwith a bare newline inside",x\r\n';
+
+describe('reading a CSV upload as a stream', () => {
+	for (const size of [1, 2, 3, 5, 7, 64, 65536]) {
+		it(`gives papaparse's records on the right lines in chunks of ${size} bytes`, async () => {
+			const got = await read(inChunks(enc(awkward), size));
+			expect(got.header).toEqual(['code', 'name', 'notes']);
+			expect(got.rows).toEqual(reference(awkward));
+			expect(got.rows.map((r) => r.line)).toEqual([2, 5, 6, 7]);
+			expect(got.file).toMatchObject({ bom: true, delimiter: ',', rows: 4 });
+		});
+	}
+
+	it('reads the demo library in 1-byte and 64 KB chunks alike, as papaparse reads it whole', async () => {
+		const bytes = fixture('materials/demo-library.csv');
+		const text = new TextDecoder().decode(bytes);
+		const whole = await read(bytes);
+		const bytewise = await read(inChunks(bytes, 1));
+		expect(whole.rows).toEqual(reference(text));
+		expect(bytewise.rows).toEqual(whole.rows);
+		expect(bytewise.file.sha256).toBe(whole.file.sha256);
+		expect(whole.file.rows).toBe(44);
+	});
+
+	it('takes a semicolon-separated file', async () => {
+		const got = await read(inChunks(enc('code;name;lambda\nB-1;Board;0,035\n'), 4));
+		expect(got.file.delimiter).toBe(';');
+		expect(got.rows).toEqual([{ line: 2, cells: ['B-1', 'Board', '0,035'] }]);
+	});
+
+	const bad: [string, RegExp][] = [
+		['bad-csv/latin1.csv', /not UTF-8 text: line 2 has the byte 0xE2 \(in Latin-1 that byte is 'â'\)/],
+		['bad-csv/binary.csv', /binary file, not CSV text/],
+		['bad-csv/empty.csv', /The file is empty/],
+		['bad-csv/header-only.csv', /a header line but no data rows/],
+		['bad-csv/wrong-delimiter.csv', /Line 1 separates its columns with tabs/],
+		[
+			'bad-csv/truncated-last-line.csv',
+			/Line 4, the last line, has 4 of 19 columns and no line end: the file looks cut short/
+		],
+		['bad-csv/unclosed-quote.csv', /Line 2 opens a quoted field that is never closed/]
+	];
+	for (const [file, message] of bad) {
+		it(`refuses ${file} with the same message whole and byte by byte`, async () => {
+			const bytes = fixture(file);
+			await expect(read(bytes)).rejects.toThrow(message);
+			await expect(read(inChunks(bytes, 1))).rejects.toThrow(message);
+			await expect(read(inChunks(bytes, 3))).rejects.toThrow(message);
+		});
+	}
+
+	it('places a bad byte after a multi-byte character split across chunks', async () => {
+		// 'λ' is 0xCE 0xBB in UTF-8; the lone 0xE9 on line 3 is 'é' in Latin-1.
+		const bytes = new Uint8Array([...enc('code,name\nA-1,λ board\nA-2,caf'), 0xe9, ...enc(',x\n')]);
+		for (const size of [1, 2, 3, 4, 64]) {
+			await expect(read(inChunks(bytes, size))).rejects.toThrow(/line 3 has the byte 0xE9/);
+		}
+	});
+
+	it('refuses a file that ends inside a multi-byte character', async () => {
+		const bytes = new Uint8Array([...enc('code,name\nA-1,board '), 0xce]);
+		await expect(read(inChunks(bytes, 5))).rejects.toThrow(/line 2 has the byte 0xCE/);
+	});
+
+	it('refuses an over-size stream with its size, without waiting to hold it', async () => {
+		const line = enc('X-1,Board,' + 'x'.repeat(1000) + '\n');
+		async function* big() {
+			yield enc('code,name,notes\n');
+			for (let i = 0; i < 2200; i++) yield line; // about 2.1 MB
+		}
+		await expect(
+			readCsvStream(
+				big(),
+				{ maxBytes: 1024 * 1024 },
+				() => {},
+				() => {}
+			)
+		).rejects.toThrow(/The file is 2\.1 MB; the limit is 1\.0 MB/);
+	});
+
+	it('stops reading when a row handler fails, and says why', async () => {
+		let pulled = 0;
+		async function* rows() {
+			yield enc('code,name\n');
+			for (let i = 0; i < 1000; i++) {
+				pulled++;
+				yield enc(`C-${i},Board\n`);
+			}
+		}
+		await expect(
+			readCsvStream(
+				rows(),
+				{},
+				() => {},
+				(_cells, line) => {
+					if (line === 3) throw new Error('stop at line 3');
+				}
+			)
+		).rejects.toThrow('stop at line 3');
+		expect(pulled).toBeLessThan(1000);
+	});
+});
