@@ -640,7 +640,7 @@ async function analyse(
  */
 const PREVIEW_TTL_MS = 30 * 60 * 1000;
 const PREVIEW_MAX = 16;
-const PREVIEW_MAX_ROWS = 200_000;
+const PREVIEW_MAX_ROWS = 100_000;
 const previews = new Map<string, CommitPlan>();
 
 function keep(plan: CommitPlan): void {
