@@ -33,6 +33,10 @@ test('upload a CSV, read the preview, confirm, and find the new materials in the
 	await expect(preview).toContainText('separated by semicolons');
 	await expect(preview).toContainText('decimal comma');
 	await expect(preview).toContainText('byte-order mark');
+	// The rows that need a look come first; "All" shows every row.
+	await expect(page.getByRole('button', { name: 'Needs a look 2' })).toHaveAttribute('aria-pressed', 'true');
+	await expect(page.getByTestId('preview-row')).toHaveCount(2);
+	await page.getByRole('button', { name: 'All 4' }).click();
 	await expect(page.getByTestId('preview-row')).toHaveCount(4);
 	await expect(preview).toContainText("line 4, lambda: 'O.035' is not a number");
 	// a row whose cells cannot be placed: no column name, the code it seems to carry

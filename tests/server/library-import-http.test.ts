@@ -29,7 +29,8 @@ describe.skipIf(!hasDatabase)('POST /api/v1/materials/import', async () => {
 			const fd = new FormData();
 			for (const [name, value] of body.parts) {
 				if (typeof value === 'string') fd.append(name, value);
-				else fd.append(name, new Blob([value], { type: 'text/csv' }), 'library.csv');
+				else
+					fd.append(name, new Blob([value as Uint8Array<ArrayBuffer>], { type: 'text/csv' }), 'library.csv');
 			}
 			url = new URL('http://127.0.0.1/api/v1/materials/import');
 			request = new Request(url, { method: 'POST', body: fd });

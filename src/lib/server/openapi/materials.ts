@@ -222,7 +222,8 @@ export const paths: Record<string, unknown> = {
 				'The file is read as it arrives. In multipart/form-data, put the fields before the file part. ' +
 				'Or send the file as the body (Content-Type: text/csv) with mode, token, confirmWarnings and mapping ' +
 				'in the query string. A commit whose preview the server still keeps needs no file; otherwise it ' +
-				'reads the file again and checks it gives the same token.',
+				'reads the file again and checks it gives the same token. A multipart request from outside a browser ' +
+				'must send the Origin header of this site (cross-site form posts are refused).',
 			tags: ['Library'],
 			requestBody: {
 				required: true,
