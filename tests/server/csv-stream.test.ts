@@ -83,6 +83,13 @@ describe('reading a CSV upload as a stream', () => {
 		expect(whole.file.rows).toBe(44);
 	});
 
+	it('takes the line end from the header line, not from a quoted field further on', async () => {
+		const text = 'code,notes\nN-1,"a\r\nb"\nN-2,plain\n';
+		const got = await read(inChunks(enc(text), 64));
+		expect(got.rows).toEqual(reference(text));
+		expect(got.rows.map((r) => r.line)).toEqual([2, 4]);
+	});
+
 	it('takes a semicolon-separated file', async () => {
 		const got = await read(inChunks(enc('code;name;lambda\nB-1;Board;0,035\n'), 4));
 		expect(got.file.delimiter).toBe(';');

@@ -303,6 +303,31 @@ describe.skipIf(!hasDatabase)('material library CSV', async () => {
 		]);
 	});
 
+	it('keeps backslashes, tabs and line breaks in text exactly as written (bulk write escaping)', async () => {
+		// PostgreSQL 15 documentation, COPY, "Text Format": backslash, tab, newline and carriage return
+		// must be escaped in the data; \N is null.
+		const t = await makeTeam();
+		const notes = 'C:\\data\\λ.pdf\tpage 2\r\nsecond line \\N not null';
+		const csv =
+			'code,name,category,lambda,lambda_kind,source,notes\n' +
+			`ESC-1,"Board \\ with\ttab",insulation,0.035,declared,Test,"${notes}"\n`;
+		const bytes = enc(csv);
+		const p = await preview(t.org.id, bytes);
+		if (p.kind !== 'preview') throw new Error(p.message);
+		expect(p.counts.new).toBe(1);
+		await commit(t, bytes, p.token);
+		const row = await tdb()('material_revisions as r')
+			.join('materials as m', 'm.current_revision_id', 'r.id')
+			.where({ 'm.organisation_id': t.org.id, 'm.code': 'ESC-1' })
+			.first('r.name', 'r.notes', 'r.resistance', 'r.indicative');
+		expect(row).toEqual({
+			name: 'Board \\ with\ttab',
+			notes,
+			resistance: null,
+			indicative: false
+		});
+	});
+
 	it('2,000 generated rows preview and commit in one go', async () => {
 		const t = await makeTeam();
 		const bytes = enc(generatedCsv(2000));

@@ -304,17 +304,25 @@ const REVISION_COPY_COLUMNS = [
 	'created_by'
 ];
 
+const COPY_SPECIAL = /[\\\t\n\r]/;
+const COPY_ESCAPES: Record<string, string> = { '\\': '\\\\', '\t': '\\t', '\n': '\\n', '\r': '\\r' };
+
 /** One value in PostgreSQL's COPY text format: \N for null, backslash escapes for the rest. */
 function copyValue(v: unknown): string {
 	if (v === null || v === undefined) return '\\N';
-	if (typeof v === 'boolean') return v ? 't' : 'f';
-	if (typeof v === 'number') return String(v);
-	const s = String(v);
-	return /[\\\t\n\r]/.test(s)
-		? s.replace(/\\/g, '\\\\').replace(/\t/g, '\\t').replace(/\n/g, '\\n').replace(/\r/g, '\\r')
-		: s;
+	switch (typeof v) {
+		case 'string':
+			return COPY_SPECIAL.test(v) ? v.replace(/[\\\t\n\r]/g, (c) => COPY_ESCAPES[c]) : v;
+		case 'number':
+			return String(v);
+		case 'boolean':
+			return v ? 't' : 'f';
+		default:
+			return copyValue(String(v));
+	}
 }
 
+/** A revision as one COPY line (without its line end), in REVISION_COPY_COLUMNS order. */
 function revisionLine(
 	id: string,
 	organisationId: string,
@@ -323,7 +331,7 @@ function revisionLine(
 	v: MaterialValues,
 	createdBy: string
 ): string {
-	let line = `${id}\t${organisationId}\t${materialId}\t${revision}`;
+	const cells = [id, organisationId, materialId, String(revision)];
 	for (const f of REVISION_FIELDS) {
 		const value =
 			f === 'manufacturer'
@@ -333,14 +341,16 @@ function revisionLine(
 					: v[f] === ''
 						? null
 						: v[f];
-		line += '\t' + copyValue(value);
+		cells.push(copyValue(value));
 	}
-	return `${line}\tunverified\t${createdBy}\n`;
+	cells.push('unverified', createdBy);
+	return cells.join('\t');
 }
 
 /**
  * Bulk-write rows with COPY … FROM STDIN on the transaction's own connection: the quickest way into
- * PostgreSQL, with every constraint and trigger still checked. `lines` are COPY text lines.
+ * PostgreSQL, with every constraint and trigger still checked. `lines` are COPY text lines, without
+ * their line ends.
  */
 async function copyInto(
 	trx: Db,
@@ -362,7 +372,7 @@ async function copyInto(
 	const cols = columns.map((c) => `"${c}"`).join(', ');
 	const sink = connection.query(copyFrom(`COPY ${table} (${cols}) FROM STDIN`));
 	async function* batches() {
-		for (let i = 0; i < lines.length; i += 1000) yield lines.slice(i, i + 1000).join('');
+		for (let i = 0; i < lines.length; i += 1000) yield lines.slice(i, i + 1000).join('\n') + '\n';
 	}
 	await pipeline(Readable.from(batches()), sink);
 }
@@ -380,7 +390,7 @@ export async function insertNewMaterials(
 		const materialId = randomUUID();
 		const revisionId = randomUUID();
 		// materials.current_revision_id is checked at commit (deferred), so both rows go in at once.
-		mats.push(`${materialId}\t${actor.organisationId}\t${copyValue(v.code)}\t${revisionId}\n`);
+		mats.push(`${materialId}\t${actor.organisationId}\t${copyValue(v.code)}\t${revisionId}`);
 		revs.push(revisionLine(revisionId, actor.organisationId, materialId, 1, v, actor.userId));
 		out.set(v.code, { materialId, revisionId });
 	}

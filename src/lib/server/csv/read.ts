@@ -338,13 +338,10 @@ async function readRecords(
 	if (total() === 0) throw new CsvFileError('The file is empty: it has no header and no rows.', 'empty');
 	if (head.trim() === '') throw new CsvFileError('The file is empty: it has only blank lines.', 'empty');
 	const delimiter = detectDelimiter(head);
-	const newline = head.includes('\r\n')
-		? '\r\n'
-		: head.includes('\n')
-			? '\n'
-			: head.includes('\r')
-				? '\r'
-				: undefined;
+	// The line end is the header line's own: a quoted field further on may hold another kind.
+	const firstEnd = head.search(/[\r\n]/);
+	const newline =
+		firstEnd < 0 ? undefined : head[firstEnd] === '\n' ? '\n' : head[firstEnd + 1] === '\n' ? '\r\n' : '\r';
 	const firstLine = head.slice(0, Math.max(0, head.search(/\r?\n|\r/)) || head.length);
 	const headers = Papa.parse<string[]>(firstLine, { delimiter }).data[0]?.map((h) => h.trim()) ?? [];
 	await onHeader(headers, delimiter);
