@@ -130,20 +130,77 @@ describe('reading a CSV upload as a stream', () => {
 		await expect(read(inChunks(bytes, 5))).rejects.toThrow(/line 2 has the byte 0xCE/);
 	});
 
-	it('refuses an over-size stream with its size, without waiting to hold it', async () => {
+	it('refuses an over-size stream as soon as it passes the limit, without reading the rest', async () => {
 		const line = enc('X-1,Board,' + 'x'.repeat(1000) + '\n');
+		let pulled = 0;
 		async function* big() {
 			yield enc('code,name,notes\n');
-			for (let i = 0; i < 2200; i++) yield line; // about 2.1 MB
+			for (let i = 0; i < 2200; i++) {
+				pulled++;
+				yield line; // about 2.1 MB in all
+			}
+		}
+		const none = () => {};
+		await expect(readCsvStream(big(), { maxBytes: 1024 * 1024 }, none, none)).rejects.toThrow(
+			/The file is larger than 1\.0 MB, the limit/
+		);
+		expect(pulled).toBeLessThan(1100);
+		// When the sender declares the size, the message gives it, before anything is read.
+		pulled = 0;
+		await expect(
+			readCsvStream(big(), { maxBytes: 1024 * 1024, size: 2.1 * 1024 * 1024 }, none, none)
+		).rejects.toThrow(/The file is 2\.1 MB; the limit is 1\.0 MB/);
+		expect(pulled).toBe(0);
+	});
+
+	it('refuses a quoted field that never closes once the row passes 256 kB, without reading on', async () => {
+		let pulled = 0;
+		async function* open() {
+			yield enc('code,name,notes\nQ-1,Board,"an opening quote and then\n');
+			for (let i = 0; i < 10_000; i++) {
+				pulled++;
+				yield enc('more text of the same never-ending field, on and on\n');
+			}
 		}
 		await expect(
 			readCsvStream(
-				big(),
-				{ maxBytes: 1024 * 1024 },
+				open(),
+				{},
 				() => {},
 				() => {}
 			)
-		).rejects.toThrow(/The file is 2\.1 MB; the limit is 1\.0 MB/);
+		).rejects.toThrow(
+			/Line 2: one row runs on past 256 kB of text, most likely because a quoted field is never closed/
+		);
+		expect(pulled).toBeLessThan(6000);
+	});
+
+	it('refuses a first line with no line end within 64 kB, without reading on', async () => {
+		let pulled = 0;
+		async function* noLines() {
+			for (let i = 0; i < 10_000; i++) {
+				pulled++;
+				yield enc('a,b,c,d,e,f,g,h,'.repeat(64));
+			}
+		}
+		await expect(
+			readCsvStream(
+				noLines(),
+				{},
+				() => {},
+				() => {}
+			)
+		).rejects.toThrow(/Line 1 has no line end within its first 64 kB/);
+		expect(pulled).toBeLessThan(100);
+	});
+
+	it('says so when the first line is blank, and when text follows a closing quote', async () => {
+		await expect(read(enc('\ncode,name\nA-1,Board\n'))).rejects.toThrow(
+			/Line 1 is blank: the first line must be the header/
+		);
+		await expect(read(enc('code,name\nA-1,"5"" board"x\n'))).rejects.toThrow(
+			/Line 2 opens a quoted field that is never closed properly: a closing quote is missing, or text follows it/
+		);
 	});
 
 	it('stops reading when a row handler fails, and says why', async () => {

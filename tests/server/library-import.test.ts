@@ -328,6 +328,37 @@ describe.skipIf(!hasDatabase)('material library CSV', async () => {
 		});
 	});
 
+	it("treats a header named like a built-in name ('constructor', 'toString') as any unknown column", async () => {
+		const t = await makeTeam();
+		const p = await preview(
+			t.org.id,
+			enc(
+				'code,name,category,lambda,lambda_kind,Constructor,toString\nK-1,Board,insulation,0.035,declared,x,y\n'
+			)
+		);
+		expect(p.kind).toBe('mapping');
+		if (p.kind !== 'mapping') return;
+		expect(p.message).toMatch(/does not know these columns: 'Constructor', 'toString'/);
+		expect(p.suggested).toMatchObject({ Constructor: null, toString: null, code: 'code' });
+	});
+
+	it('refuses an invisible control character in text with the field named (PostgreSQL stores no zero byte)', async () => {
+		const t = await makeTeam();
+		const err = await lib
+			.createMaterial(
+				{ userId: t.assessor.id, organisationId: t.org.id },
+				{ code: 'NUL-1', name: 'Board\u0000', category: 'insulation', lambda: 0.035, lambdaKind: 'declared' },
+				{ confirmWarnings: true }
+			)
+			.catch((e) => e);
+		expect(err).toBeInstanceOf(lib.LibraryError);
+		expect(err.status).toBe(400);
+		expect(err.issues).toContainEqual({
+			field: 'name',
+			message: expect.stringMatching(/invisible control character/)
+		});
+	});
+
 	it('2,000 generated rows preview and commit in one go', async () => {
 		const t = await makeTeam();
 		const bytes = enc(generatedCsv(2000));

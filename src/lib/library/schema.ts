@@ -36,6 +36,9 @@ const number = (what = 'a number') =>
 			iss.input === undefined || iss.input === null ? 'is required' : `${describe(iss.input)} is not ${what}`
 	});
 
+/** Control characters other than tab and line breaks: PostgreSQL refuses a zero byte in text. */
+const CONTROL_CHARACTER = /[\u0000-\u0008\u000B\u000C\u000E-\u001F\u007F]/;
+
 /** Free text that a spreadsheet will not run as a formula. */
 const safeText = (max: number) =>
 	z
@@ -44,6 +47,9 @@ const safeText = (max: number) =>
 		.max(max, `must be at most ${max} characters`)
 		.refine((s) => !FORMULA_START.test(s), {
 			message: 'begins with =, +, - or @ and would run as a spreadsheet formula; remove that first character'
+		})
+		.refine((s) => !CONTROL_CHARACTER.test(s), {
+			message: 'holds an invisible control character (such as a zero byte); remove it'
 		});
 
 const isoDate = z

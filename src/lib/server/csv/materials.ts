@@ -87,9 +87,9 @@ export function normaliseHeader(h: string): string {
 		.replace(/^_+|_+$/g, '');
 }
 
-const ALIASES: Record<string, ImportField> = {};
+const ALIASES = new Map<string, ImportField>();
 const alias = (field: ImportField, ...names: string[]) => {
-	for (const n of names) ALIASES[normaliseHeader(n)] = field;
+	for (const n of names) ALIASES.set(normaliseHeader(n), field);
 };
 for (const f of IMPORT_FIELDS) alias(f, CSV_COLUMNS[f], f, FIELD_LABELS[f]);
 alias('code', 'material code', 'material_code', 'id', 'ref', 'reference', 'product code');
@@ -114,6 +114,10 @@ alias('notes', 'note', 'comments', 'comment', 'remarks');
 /** fileHeader → field, or null to ignore that column. */
 export type ColumnMapping = Record<string, ImportField | null>;
 
+/** The field a header is mapped to: own keys only (a header named 'constructor' is just a header). */
+const fieldOf = (mapping: ColumnMapping, header: string): ImportField | null =>
+	Object.hasOwn(mapping, header) ? (mapping[header] ?? null) : null;
+
 export function headerSignature(headers: string[]): string {
 	return headers.map(normaliseHeader).join('|');
 }
@@ -124,7 +128,7 @@ export function recogniseHeaders(headers: string[]): { mapping: ColumnMapping; u
 	const unknown: string[] = [];
 	const used = new Set<ImportField>();
 	for (const h of headers) {
-		const f = ALIASES[normaliseHeader(h)];
+		const f = ALIASES.get(normaliseHeader(h));
 		if (f && !used.has(f)) {
 			mapping[h] = f;
 			used.add(f);
@@ -141,7 +145,7 @@ export function mappingProblems(headers: string[], mapping: ColumnMapping): stri
 	const problems: string[] = [];
 	const seen = new Map<ImportField, string>();
 	for (const h of headers) {
-		const f = mapping[h];
+		const f = fieldOf(mapping, h);
 		if (f === undefined || f === null) continue;
 		if (!(IMPORT_FIELDS as readonly string[]).includes(f)) {
 			problems.push(`column '${h}' is mapped to '${f}', which is not a library field`);
@@ -266,7 +270,7 @@ function planOf(headers: string[], mapping: ColumnMapping, delimiter: Delimiter,
 	const columns: Plan['columns'] = [];
 	const columnOf: Partial<Record<string, string>> = {};
 	headers.forEach((h, index) => {
-		const field = mapping[h];
+		const field = fieldOf(mapping, h);
 		if (!field) return;
 		columns.push({ index, field, header: h, kind: kindOf(field) });
 		columnOf[field] = h;
@@ -274,12 +278,15 @@ function planOf(headers: string[], mapping: ColumnMapping, delimiter: Delimiter,
 	return {
 		headers,
 		columns,
-		codeAt: headers.findIndex((h) => mapping[h] === 'code'),
+		codeAt: headers.findIndex((h) => fieldOf(mapping, h) === 'code'),
 		columnName: (f) => columnOf[f] ?? CSV_COLUMNS[f as ImportField] ?? f,
 		delimiter,
 		today
 	};
 }
+
+/** The empty list every row without issues shares (never written to: lists are replaced, not pushed). */
+const NONE: never[] = Object.freeze([]) as unknown as never[];
 
 /** One record → values and per-column issues. */
 function readRow(cells: string[], line: number, plan: Plan): ParsedRow {
@@ -298,11 +305,11 @@ function readRow(cells: string[], line: number, plan: Plan): ParsedRow {
 			category: '',
 			values: null,
 			errors: [{ column: '', message }],
-			warnings: []
+			warnings: NONE
 		};
 	}
 	const raw: Record<string, unknown> = {};
-	const errors: RowIssue[] = [];
+	let errors: RowIssue[] = NONE;
 	let failed: Set<string> | null = null;
 	for (const { index, field, header, kind } of plan.columns) {
 		const cell = unneutralise(cells[index].trim());
@@ -311,7 +318,7 @@ function readRow(cells: string[], line: number, plan: Plan): ParsedRow {
 				const n = parseNumber(cell, plan.delimiter);
 				if (n.ok) raw[field] = n.value;
 				else {
-					errors.push({ column: header, message: n.message });
+					errors = [...errors, { column: header, message: n.message }];
 					(failed ??= new Set()).add(field);
 				}
 				break;
@@ -327,7 +334,7 @@ function readRow(cells: string[], line: number, plan: Plan): ParsedRow {
 				if (YES.has(t)) raw[field] = true;
 				else if (NO.has(t)) raw[field] = false;
 				else {
-					errors.push({ column: header, message: `'${cell}' is not yes or no` });
+					errors = [...errors, { column: header, message: `'${cell}' is not yes or no` }];
 					(failed ??= new Set()).add(field);
 				}
 				break;
@@ -356,16 +363,13 @@ function readRow(cells: string[], line: number, plan: Plan): ParsedRow {
 			if (failed?.has(f)) continue;
 			if (lambdaOrRFailed && (f === 'lambda' || f === 'resistance' || f === 'lambdaKind')) continue;
 			if (f === 'muDry' && failed?.has('muWet')) continue;
-			errors.push({ column: plan.columnName(f), message: iss.message });
+			errors = [...errors, { column: plan.columnName(f), message: iss.message }];
 		}
 	}
 	const values = parsed.success && errors.length === 0 ? parsed.data : null;
-	const warnings = values
-		? plausibilityWarnings(values, plan.today).map((w) => ({
-				column: plan.columnName(w.field),
-				message: w.message
-			}))
-		: [];
+	const found = values ? plausibilityWarnings(values, plan.today) : [];
+	const warnings =
+		found.length === 0 ? NONE : found.map((w) => ({ column: plan.columnName(w.field), message: w.message }));
 	return {
 		line,
 		code: String(raw.code ?? ''),
@@ -542,16 +546,19 @@ async function analyse(
 		if (lines) lines.push(r.line);
 		else linesByCode.set(r.code, [r.line]);
 	}
-	const codeColumn = headers.find((h) => mapping[h] === 'code') ?? 'code';
+	const codeColumn = headers.find((h) => fieldOf(mapping, h) === 'code') ?? 'code';
 	for (const r of rows) {
 		const lines = linesByCode.get(r.code);
 		if (r.code && lines && lines.length > 1) {
-			r.errors.push({
-				column: codeColumn,
-				message: `code '${r.code}' appears on lines ${lines.join(', ')}; keep one of them`
-			});
+			r.errors = [
+				...r.errors,
+				{
+					column: codeColumn,
+					message: `code '${r.code}' appears on lines ${lines.join(', ')}; keep one of them`
+				}
+			];
 			r.values = null;
-			r.warnings = [];
+			r.warnings = NONE;
 		}
 	}
 
@@ -573,7 +580,7 @@ async function analyse(
 		};
 		if (!r.values) {
 			counts.rejected++;
-			return { ...base, status: 'rejected', warnings: [], changes: [] };
+			return { ...base, status: 'rejected', warnings: NONE, changes: NONE };
 		}
 		const cur = existing.get(r.code);
 		compared.set(r.code, cur?.revisionId ?? null);
@@ -581,12 +588,12 @@ async function analyse(
 			counts.new++;
 			if (r.warnings.length) counts.warnings++;
 			added.push(r.values);
-			return { ...base, status: 'new', changes: [] };
+			return { ...base, status: 'new', changes: NONE };
 		}
 		const changes = diffValues(cur.values, r.values);
 		if (changes.length === 0) {
 			counts.unchanged++;
-			return { ...base, status: 'unchanged', warnings: [], changes };
+			return { ...base, status: 'unchanged', warnings: NONE, changes };
 		}
 		counts.changed++;
 		if (r.warnings.length) counts.warnings++;
@@ -603,7 +610,7 @@ async function analyse(
 	const hash = createHash('sha256')
 		.update(organisationId)
 		.update(file.sha256)
-		.update(JSON.stringify(headers.map((h) => [h, mapping[h] ?? null])));
+		.update(JSON.stringify(headers.map((h) => [h, fieldOf(mapping, h)])));
 	for (const code of [...existing.keys()].sort()) hash.update(`${code}=${existing.get(code)!.revisionId};`);
 	const token = hash.digest('hex');
 	return {
@@ -643,16 +650,21 @@ const PREVIEW_MAX = 16;
 const PREVIEW_MAX_ROWS = 100_000;
 const previews = new Map<string, CommitPlan>();
 
+/** How much a kept plan holds: every code it compared (new, changed and unchanged rows). */
+const sizeOf = (p: CommitPlan) => Math.max(p.compared.size, p.added.length + p.revised.length);
+
 function keep(plan: CommitPlan): void {
 	const key = `${plan.organisationId}:${plan.token}`;
 	previews.delete(key);
+	if (sizeOf(plan) > PREVIEW_MAX_ROWS) return; // too big to keep: its commit reads the file again
 	previews.set(key, plan);
 	let rows = 0;
-	for (const p of previews.values()) rows += p.added.length + p.revised.length;
+	for (const p of previews.values()) rows += sizeOf(p);
+	// Oldest first: past their time, then as many as the bounds need.
 	for (const [k, p] of previews) {
 		if (previews.size <= PREVIEW_MAX && rows <= PREVIEW_MAX_ROWS && Date.now() - p.at < PREVIEW_TTL_MS) break;
 		previews.delete(k);
-		rows -= p.added.length + p.revised.length;
+		rows -= sizeOf(p);
 	}
 }
 
@@ -698,100 +710,150 @@ export class ImportRefused extends Error {
 const CHANGED_SINCE_PREVIEW =
 	'The file or the library changed since the preview; preview the file again before you confirm.';
 
+export type { CommitPlan };
+
+type ImportLog = (
+	entry: {
+		organisationId: string;
+		userId: string;
+		action: string;
+		entity: string;
+		entityId: string | null;
+		details: Record<string, unknown>;
+	},
+	trx: Db
+) => Promise<void>;
+
 /**
- * Commit: take the preview the user saw (kept by token, or else read the same file again and check it
- * gives that token), check the library has not changed since, and write every accepted row — new
- * materials and new revisions — in one transaction; rejected rows are left out. A mapping the user gave
- * is remembered for the next file with the same header. `source` may be null when the preview is kept.
+ * What a commit will write: the preview kept for this token, or else the same file read again (and it
+ * must give the same token). Reads the file outside any transaction, so a slow upload holds no lock.
  */
+export async function planCommit(
+	k: Db,
+	organisationId: string,
+	source: ByteSource | null,
+	opts: ImportOptions & { token: string }
+): Promise<CommitPlan> {
+	const plan = kept(organisationId, opts.token);
+	if (plan) return plan;
+	if (!source) {
+		throw new ImportRefused(
+			'The preview is no longer kept on the server; send the file again with the confirmation, or preview it again.',
+			409
+		);
+	}
+	const a = await analyse(k, organisationId, source, opts);
+	if ('kind' in a) throw new ImportRefused(a.message, 400);
+	if (a.plan.token !== opts.token) throw new ImportRefused(CHANGED_SINCE_PREVIEW, 409);
+	return a.plan;
+}
+
+const RACED_CONSTRAINTS = new Set([
+	'materials_organisation_id_code_unique',
+	'material_revisions_material_id_revision_unique'
+]);
+
+/**
+ * Write a commit plan in one transaction: the library must still be as the preview saw it (the same
+ * current revision for every code, checked with the materials to be revised locked), then every new
+ * material and new revision goes in; rejected rows are left out. A mapping the user gave is remembered
+ * for the next file with the same header.
+ */
+export async function applyCommit(
+	k: Db,
+	actor: Actor,
+	plan: CommitPlan,
+	opts: { confirmWarnings?: boolean; fileName?: string },
+	log?: ImportLog
+): Promise<ImportSummary> {
+	if (plan.organisationId !== actor.organisationId) throw new ImportRefused(CHANGED_SINCE_PREVIEW, 409);
+	const { counts } = plan;
+	if (counts.warnings > 0 && !opts.confirmWarnings) {
+		throw new ImportRefused(
+			`${counts.warnings} ${counts.warnings === 1 ? 'row has' : 'rows have'} warnings; confirm them to import.`,
+			422
+		);
+	}
+	let summary: ImportSummary;
+	try {
+		summary = await k.transaction(async (trx) => {
+			// One import at a time per organisation; the materials about to be revised are locked, so an
+			// edit of one of them waits for this commit (and then finds it).
+			await trx.raw('SELECT pg_advisory_xact_lock(hashtext(?))', [
+				`materials-import:${actor.organisationId}`
+			]);
+			if (plan.revised.length > 0) {
+				await trx.raw(
+					'SELECT id FROM materials WHERE organisation_id = ? AND id = ANY(?::uuid[]) FOR UPDATE',
+					[actor.organisationId, plan.revised.map((r) => r.materialId)]
+				);
+			}
+			const now = await currentRevisionIds(trx, actor.organisationId, [...plan.compared.keys()]);
+			for (const [code, revisionId] of plan.compared) {
+				if ((now.get(code) ?? null) !== revisionId) throw new ImportRefused(CHANGED_SINCE_PREVIEW, 409);
+			}
+			await insertNewMaterials(trx, actor, plan.added);
+			await insertNewRevisions(trx, actor, plan.revised);
+			let mappingSaved = false;
+			if (
+				plan.mappingSource === 'given' &&
+				(plan.added.length > 0 || plan.revised.length > 0 || counts.unchanged > 0)
+			) {
+				await trx('import_mappings')
+					.insert({
+						organisation_id: actor.organisationId,
+						kind: 'materials',
+						header_signature: headerSignature(plan.headers),
+						mapping: JSON.stringify(plan.mapping)
+					})
+					.onConflict(['organisation_id', 'kind', 'header_signature'])
+					.merge({ mapping: JSON.stringify(plan.mapping), updated_at: trx.fn.now() });
+				mappingSaved = true;
+			}
+			const done: ImportSummary = {
+				added: plan.added.length,
+				changed: plan.revised.length,
+				unchanged: counts.unchanged,
+				rejected: counts.rejected,
+				mappingSaved
+			};
+			if (log) {
+				await log(
+					{
+						organisationId: actor.organisationId,
+						userId: actor.userId,
+						action: 'import',
+						entity: 'material',
+						entityId: null,
+						details: { ...done, file: opts.fileName ?? null, bytes: plan.bytes, rows: plan.rows }
+					},
+					trx
+				);
+			}
+			return done;
+		});
+	} catch (e) {
+		// A material of the same code created meanwhile (outside any import) lands here.
+		const pg = e as { code?: string; constraint?: string };
+		if (pg.code === '23505' && pg.constraint && RACED_CONSTRAINTS.has(pg.constraint)) {
+			throw new ImportRefused(CHANGED_SINCE_PREVIEW, 409);
+		}
+		throw e;
+	}
+	previews.delete(`${plan.organisationId}:${plan.token}`);
+	return summary;
+}
+
+/** Commit in one call: `planCommit` then `applyCommit`. `source` may be null when the preview is kept. */
 export async function commitMaterialsImport(
 	k: Db,
 	actor: Actor,
 	source: ByteSource | null,
 	opts: ImportOptions & { token: string; confirmWarnings?: boolean; fileName?: string },
-	log?: (
-		entry: {
-			organisationId: string;
-			userId: string;
-			action: string;
-			entity: string;
-			entityId: string | null;
-			details: Record<string, unknown>;
-		},
-		trx: Db
-	) => Promise<void>
+	log?: ImportLog
 ): Promise<ImportSummary> {
-	const summary = await k.transaction(async (trx) => {
-		// One import at a time per organisation, so two commits cannot both add the same code.
-		await trx.raw('SELECT pg_advisory_xact_lock(hashtext(?))', [`materials-import:${actor.organisationId}`]);
-		let plan = kept(actor.organisationId, opts.token);
-		if (plan) {
-			// The library must still be as the preview saw it: the same current revision for every code.
-			const now = await currentRevisionIds(trx, actor.organisationId, [...plan.compared.keys()]);
-			for (const [code, revisionId] of plan.compared) {
-				if ((now.get(code) ?? null) !== revisionId) throw new ImportRefused(CHANGED_SINCE_PREVIEW, 409);
-			}
-		} else {
-			if (!source) {
-				throw new ImportRefused(
-					'The preview is no longer kept on the server; send the file again with the confirmation, or preview it again.',
-					409
-				);
-			}
-			const a = await analyse(trx, actor.organisationId, source, opts);
-			if ('kind' in a) throw new ImportRefused(a.message, 400);
-			if (a.plan.token !== opts.token) throw new ImportRefused(CHANGED_SINCE_PREVIEW, 409);
-			plan = a.plan;
-		}
-		const { counts } = plan;
-		if (counts.warnings > 0 && !opts.confirmWarnings) {
-			throw new ImportRefused(
-				`${counts.warnings} ${counts.warnings === 1 ? 'row has' : 'rows have'} warnings; confirm them to import.`,
-				422
-			);
-		}
-		await insertNewMaterials(trx, actor, plan.added);
-		await insertNewRevisions(trx, actor, plan.revised);
-		let mappingSaved = false;
-		if (
-			plan.mappingSource === 'given' &&
-			(plan.added.length > 0 || plan.revised.length > 0 || counts.unchanged > 0)
-		) {
-			await trx('import_mappings')
-				.insert({
-					organisation_id: actor.organisationId,
-					kind: 'materials',
-					header_signature: headerSignature(plan.headers),
-					mapping: JSON.stringify(plan.mapping)
-				})
-				.onConflict(['organisation_id', 'kind', 'header_signature'])
-				.merge({ mapping: JSON.stringify(plan.mapping), updated_at: trx.fn.now() });
-			mappingSaved = true;
-		}
-		const summary: ImportSummary = {
-			added: plan.added.length,
-			changed: plan.revised.length,
-			unchanged: counts.unchanged,
-			rejected: counts.rejected,
-			mappingSaved
-		};
-		if (log) {
-			await log(
-				{
-					organisationId: actor.organisationId,
-					userId: actor.userId,
-					action: 'import',
-					entity: 'material',
-					entityId: null,
-					details: { ...summary, file: opts.fileName ?? null, bytes: plan.bytes, rows: plan.rows }
-				},
-				trx
-			);
-		}
-		return summary;
-	});
-	previews.delete(`${actor.organisationId}:${opts.token}`);
-	return summary;
+	const plan = await planCommit(k, actor.organisationId, source, opts);
+	return applyCommit(k, actor, plan, opts, log);
 }
 
 /** Export the current revision of every material, in the columns the import reads. */

@@ -34,6 +34,10 @@ export class CsvFileError extends Error {
 
 export type Delimiter = ',' | ';';
 
+/** The longest header line and the longest single record read before the file is refused. */
+const HEADER_MAX = 64 * 1024;
+const RECORD_MAX = 256 * 1024;
+
 export type CsvInfo = {
 	bytes: number;
 	bom: boolean;
@@ -202,11 +206,13 @@ export type StreamedFile = {
  */
 export async function readCsvStream(
 	source: ByteSource,
-	opts: { maxBytes?: number },
+	opts: { maxBytes?: number; /** the size the sender declared, when known */ size?: number },
 	onHeader: (headers: string[], delimiter: Delimiter) => void | Promise<void>,
 	onRow: RowHandler
 ): Promise<StreamedFile> {
 	const maxBytes = opts.maxBytes ?? DEFAULT_MAX_BYTES;
+	const size = source instanceof Uint8Array ? source.length : opts.size;
+	if (size !== undefined) checkSize(size, maxBytes);
 	const hash = createHash('sha256');
 	let total = 0;
 	let bom = false;
@@ -227,10 +233,12 @@ export async function readCsvStream(
 				const chunk = next.value;
 				total += chunk.length;
 				if (total > maxBytes) {
-					// Count the rest (up to a bound) so the message can give the size.
-					for (let r = await it.next(); !r.done && total < maxBytes * 4; r = await it.next())
-						total += r.value.length;
-					checkSize(total, maxBytes);
+					// Refused at once: the rest is not read (the caller drains the request).
+					if (size !== undefined && size > maxBytes) checkSize(size, maxBytes);
+					throw new CsvFileError(
+						`The file is larger than ${mb(maxBytes)}, the limit. Split it into smaller files and import them one after another.`,
+						'too-large'
+					);
 				}
 				hash.update(chunk);
 				let bytes = chunk;
@@ -323,20 +331,47 @@ async function readRecords(
 	// Read until the header line is complete (or the file ends); blank lines alone make an empty file.
 	let head = '';
 	let ended = false;
+	let scanned = 0; // what of `head` is known to hold no end of the header line
+	let at = -1; // where the first non-blank character is
 	const headerDone = () => {
-		const at = head.search(/\S/);
-		if (at < 0) return false;
-		const end = head.slice(at).search(/[\r\n]/);
+		if (at < 0) {
+			at = head.slice(scanned).search(/\S/);
+			if (at < 0) {
+				scanned = head.length;
+				return false;
+			}
+			at += scanned;
+			scanned = at;
+		}
+		const end = head.slice(scanned).search(/[\r\n]/);
+		if (end < 0) {
+			scanned = head.length;
+			return false;
+		}
 		// A '\r' that ends what has come so far may be the first half of '\r\n': wait for the next chunk.
-		return end >= 0 && !(head[at + end] === '\r' && at + end === head.length - 1);
+		return !(head[scanned + end] === '\r' && scanned + end === head.length - 1);
 	};
 	while (!ended && !headerDone()) {
+		if (head.length > HEADER_MAX) {
+			throw new CsvFileError(
+				`Line 1 has no line end within its first ${HEADER_MAX / 1024} kB: the header line should hold only the column names. Check that this is a CSV file.`,
+				'header',
+				1
+			);
+		}
 		const n = await chunks.next();
 		if (n.done) ended = true;
 		else head += n.value;
 	}
 	if (total() === 0) throw new CsvFileError('The file is empty: it has no header and no rows.', 'empty');
 	if (head.trim() === '') throw new CsvFileError('The file is empty: it has only blank lines.', 'empty');
+	if (/^[ \t]*[\r\n]/.test(head)) {
+		throw new CsvFileError(
+			'Line 1 is blank: the first line must be the header, the names of the columns. Remove the blank lines at the top of the file.',
+			'header',
+			1
+		);
+	}
 	const delimiter = detectDelimiter(head);
 	// The line end is the header line's own: a quoted field further on may hold another kind.
 	const firstEnd = head.search(/[\r\n]/);
@@ -352,14 +387,25 @@ async function readRecords(
 	let rows = 0;
 	let pendingShort: { line: number; cells: number } | null = null;
 	let quoteError: { line: number; message: string } | null = null;
+	let pendingChars = 0; // text handed to papaparse since it last finished a record
 	let failed: unknown = null;
 
 	const input = Readable.from(
 		(async function* () {
+			pendingChars = head.length;
 			yield head;
 			for (;;) {
+				// papaparse reads an unfinished record again with every chunk: bound how far one may run.
+				if (pendingChars > RECORD_MAX) {
+					throw new CsvFileError(
+						`Line ${line}: one row runs on past ${RECORD_MAX / 1024} kB of text, most likely because a quoted field is never closed (a missing " ). The rest of the file cannot be read reliably.`,
+						'quotes',
+						line
+					);
+				}
 				const n = await chunks.next();
 				if (n.done) return;
+				pendingChars += n.value.length;
 				yield n.value;
 			}
 		})(),
@@ -380,11 +426,15 @@ async function readRecords(
 						for (let i = c.indexOf(nlChar); i >= 0; i = c.indexOf(nlChar, i + 1)) spans++;
 					}
 					line += spans;
+					pendingChars = 0;
 					for (const e of res.errors) {
 						if (e.type === 'Quotes' && !quoteError) {
 							quoteError = {
 								line: start,
-								message: `Line ${start} opens a quoted field that is never closed (a missing " ); the rest of the file cannot be read reliably.`
+								message:
+									e.code === 'InvalidQuotes'
+										? `Line ${start} opens a quoted field that is never closed properly: a closing quote is missing, or text follows it (inside quotes, write a quote as two: ""). The rest of the file cannot be read reliably.`
+										: `Line ${start} opens a quoted field that is never closed (a missing " ); the rest of the file cannot be read reliably.`
 							};
 						}
 					}

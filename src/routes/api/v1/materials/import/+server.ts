@@ -6,8 +6,9 @@ import { logActivity } from '$lib/server/activity';
 import { checkSize, DEFAULT_MAX_BYTES } from '$lib/server/csv/read';
 import { readUpload, UploadError, type Upload } from '$lib/server/csv/upload';
 import {
-	commitMaterialsImport,
+	applyCommit,
 	IMPORT_FIELDS,
+	planCommit,
 	previewMaterialsImport,
 	type ColumnMapping
 } from '$lib/server/csv/materials';
@@ -52,8 +53,21 @@ export const POST = async (event) => {
 	}
 	try {
 		return await handle(upload);
+	} catch (e) {
+		if (e instanceof UploadError) return bad(e.message);
+		return failure(e);
 	} finally {
 		await upload.finish();
+	}
+
+	/** Fields that came after the file, once the whole request has been read. */
+	async function tooLate(upload: Upload): Promise<Response | null> {
+		await upload.finish();
+		const late = upload.lateFields().filter((f) => f in paramsSchema.shape);
+		if (late.length === 0) return null;
+		return bad(
+			`The form field${late.length === 1 ? '' : 's'} ${late.join(', ')} came after the file and could not be used: put the fields before the file, or in the query string.`
+		);
 	}
 
 	async function handle(upload: Upload): Promise<Response> {
@@ -77,35 +91,25 @@ export const POST = async (event) => {
 			mapping = m.data;
 		}
 		const file = upload.file;
-		try {
-			if (mode === 'commit') {
-				if (!token) return bad('Preview the file first; the commit needs the preview token.');
-				const summary = await commitMaterialsImport(
-					db,
-					{ userId: member.user.id, organisationId: member.organisationId },
-					file?.chunks ?? null,
-					{
-						mapping,
-						token,
-						confirmWarnings: confirmWarnings === 'yes' || confirmWarnings === 'true',
-						fileName: file?.name
-					},
-					(entry, trx) => logActivity(entry, trx)
-				);
-				return json({ kind: 'summary', ...summary });
+		if (mode === 'commit') {
+			if (!token) {
+				return (await tooLate(upload)) ?? bad('Preview the file first; the commit needs the preview token.');
 			}
-			if (!file) return bad('Choose a CSV file to upload (field "file").');
-			const preview = await previewMaterialsImport(db, member.organisationId, file.chunks, { mapping });
-			const late = upload.lateFields().filter((f) => f in paramsSchema.shape);
-			if (late.length) {
-				return bad(
-					`The form field${late.length === 1 ? '' : 's'} ${late.join(', ')} came after the file and could not be used: put the fields before the file, or in the query string.`
-				);
-			}
-			return json(preview);
-		} catch (e) {
-			if (e instanceof UploadError) return bad(e.message);
-			return failure(e);
+			// The file is read (when the preview is no longer kept) before the transaction begins.
+			const plan = await planCommit(db, member.organisationId, file?.chunks ?? null, { mapping, token });
+			const late = await tooLate(upload);
+			if (late) return late;
+			const summary = await applyCommit(
+				db,
+				{ userId: member.user.id, organisationId: member.organisationId },
+				plan,
+				{ confirmWarnings: confirmWarnings === 'yes' || confirmWarnings === 'true', fileName: file?.name },
+				(entry, trx) => logActivity(entry, trx)
+			);
+			return json({ kind: 'summary', ...summary });
 		}
+		if (!file) return bad('Choose a CSV file to upload (field "file").');
+		const preview = await previewMaterialsImport(db, member.organisationId, file.chunks, { mapping });
+		return (await tooLate(upload)) ?? json(preview);
 	}
 };
