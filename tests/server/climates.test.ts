@@ -55,7 +55,7 @@ describe.skipIf(!hasDatabase)('climates', async () => {
 			['month-13.csv', /^line 11, month: '13' is not a month/],
 			['empty.csv', /empty/],
 			['header-only.csv', /header but no months/],
-			['latin1.csv', /not UTF-8/]
+			['latin1.csv', /^The file is not UTF-8 text: line \d+ has the byte 0x[0-9A-F]{2}/]
 		];
 		for (const [file, message] of BAD) {
 			it(`refuses ${file} with a specific message`, () => {
@@ -77,8 +77,13 @@ describe.skipIf(!hasDatabase)('climates', async () => {
 		});
 
 		it('refuses a binary file and an over-large one', () => {
-			const bin = parseClimateCsv(new Uint8Array([0x50, 0x4b, 0x03, 0x04, 0x00, 0x00]));
-			expect(!bin.ok && bin.problems[0].message).toMatch(/binary/);
+			const zip = parseClimateCsv(new Uint8Array([0x50, 0x4b, 0x03, 0x04, 0x00, 0x00]));
+			expect(!zip.ok && zip.problems[0].message).toMatch(/spreadsheet workbook \(a zip file\), not CSV text/);
+			const bin = parseClimateCsv(new Uint8Array([0x6d, 0x6f, 0x6e, 0x74, 0x68, 0x0a, 0x00, 0x01]));
+			expect(!bin.ok && bin.problems[0]).toMatchObject({
+				line: 2,
+				message: expect.stringMatching(/binary file/)
+			});
 			const big = parseClimateCsv(new Uint8Array(70 * 1024).fill(0x41));
 			expect(!big.ok && big.problems[0].message).toMatch(/must be under 64 KB/);
 		});

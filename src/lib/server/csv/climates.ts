@@ -1,4 +1,5 @@
 import Papa from 'papaparse';
+import { CsvFileError, decodeUpload } from './read';
 import { MONTH_NAMES } from '$lib/climates/schema';
 
 /**
@@ -74,22 +75,16 @@ export function parseClimateCsv(input: string | Uint8Array): ClimateCsvResult {
 		if (input.byteLength > CLIMATE_CSV_MAX_BYTES) {
 			return tooLarge(input.byteLength);
 		}
-		if (input.includes(0)) {
-			return {
-				ok: false,
-				problems: [
-					{ message: 'This is not a text file (it contains binary data); export the climate as CSV.' }
-				]
-			};
-		}
-		try {
-			text = new TextDecoder('utf-8', { fatal: true }).decode(input);
-		} catch {
-			return {
-				ok: false,
-				problems: [{ message: 'The file is not UTF-8 text; save it as "CSV UTF-8" and try again.' }]
-			};
-		}
+		if (input.byteLength > 0) {
+			// The same refusals, with the same messages, as every other upload: workbooks, binary data,
+			// UTF-16, and text that is not UTF-8 (with the line of the first bad byte).
+			try {
+				text = decodeUpload(input, CLIMATE_CSV_MAX_BYTES).text;
+			} catch (e) {
+				if (e instanceof CsvFileError) return { ok: false, problems: [{ line: e.line, message: e.message }] };
+				throw e;
+			}
+		} else text = '';
 	}
 	if (text.length > CLIMATE_CSV_MAX_BYTES) return tooLarge(text.length);
 	text = text.replace(/^\uFEFF/, '');
