@@ -194,6 +194,28 @@ describe('reading a CSV upload as a stream', () => {
 		expect(pulled).toBeLessThan(100);
 	});
 
+	it('places a bad byte on the right line in a file whose lines end with CR alone', async () => {
+		const bytes = new Uint8Array([...enc('code,name\rA,b\rB,b\rC,b\rD,'), 0x8a, ...enc('\r')]);
+		for (const size of [1, 3, 64]) {
+			await expect(read(inChunks(bytes, size))).rejects.toThrow(/line 5 has the byte 0x8A/);
+		}
+		const nul = new Uint8Array([...enc('code,name\r\nA,b\rB,'), 0x00]);
+		await expect(read(inChunks(nul, 2))).rejects.toThrow(/a zero byte at line 3/);
+	});
+
+	it('says line 1 is blank however many blank lines come first', async () => {
+		const blanks = enc('\n'.repeat(200_000) + 'code,name\nA-1,Board\n');
+		await expect(read(inChunks(blanks, 64 * 1024))).rejects.toThrow(/Line 1 is blank/);
+		await expect(read(inChunks(enc('\r\n'.repeat(100_000)), 64 * 1024))).rejects.toThrow(/only blank lines/);
+	});
+
+	it('names a file that mixes CR LF and LF line ends', async () => {
+		const text = 'code,name,category\r\nM-1,Board,insulation\nM-2,Board,insulation\nM-3,Board,insulation\r\n';
+		await expect(read(enc(text))).rejects.toThrow(
+			/Line 2 ends with a line feed alone while the header line ends with CR LF: the file mixes two kinds of line end/
+		);
+	});
+
 	it('says so when the first line is blank, and when text follows a closing quote', async () => {
 		await expect(read(enc('\ncode,name\nA-1,Board\n'))).rejects.toThrow(
 			/Line 1 is blank: the first line must be the header/

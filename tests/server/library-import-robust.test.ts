@@ -204,6 +204,43 @@ describe.skipIf(!hasDatabase)('material import under awkward conditions', async 
 		expect(await tdb()('materials').where({ organisation_id: t.org.id }).pluck('code')).toEqual(['RACE-1']);
 	});
 
+	it('a material created by hand while an import of the same code commits: the form gets a 409, not a 500', async () => {
+		const t = await makeTeam();
+		const actor = { userId: t.assessor.id, organisationId: t.org.id };
+		const p = await imp.previewMaterialsImport(
+			db,
+			t.org.id,
+			enc(`${HEAD}\nHAND-1,Board,insulation,0.035,declared\n`)
+		);
+		if (p.kind !== 'preview') throw new Error('expected a preview');
+		let release!: () => void;
+		const held = new Promise<void>((r) => (release = r));
+		let written!: () => void;
+		const inside = new Promise<void>((r) => (written = r));
+		// The import's transaction stays open (its log entry waits) while the form saves the same code.
+		const importing = imp.commitMaterialsImport(
+			db,
+			actor,
+			null,
+			{ token: p.token, confirmWarnings: true },
+			async () => {
+				written();
+				await held;
+			}
+		);
+		await inside;
+		const creating = lib
+			.createMaterial(actor, boardValues({ code: 'HAND-1' }), { confirmWarnings: true })
+			.catch((e: unknown) => e);
+		await new Promise((r) => setTimeout(r, 200));
+		release();
+		expect(await importing).toMatchObject({ added: 1 });
+		const err = (await creating) as InstanceType<typeof lib.LibraryError>;
+		expect(err).toBeInstanceOf(lib.LibraryError);
+		expect(err.status).toBe(409);
+		expect(err.message).toBe('The code HAND-1 is already in the library.');
+	});
+
 	it('a material revised by hand while the commit runs: the commit waits, then is refused (409)', async () => {
 		const t = await makeTeam();
 		const actor = { userId: t.assessor.id, organisationId: t.org.id };

@@ -1,6 +1,6 @@
 import { describe, it, expect, afterAll } from 'vitest';
 import { hasDatabase, makeTeam, tdb } from '../factories';
-import { fixture, generatedCsv, librarySnapshot } from '../factories-library';
+import { boardValues, fixture, generatedCsv, librarySnapshot } from '../factories-library';
 
 // The CSV import and export against a real PostgreSQL. The behaviour checked is our own (common
 // practice, no source) unless a document is named beside the check. Every bad file gets its specific
@@ -192,6 +192,16 @@ describe.skipIf(!hasDatabase)('material library CSV', async () => {
 			enc('Artikel,Bezeichnung,Gruppe,WLF,Art,Quelle\nMP-2,Board,insulation,0.035,declared,Test\n')
 		);
 		expect(next.kind === 'preview' && next.mappingSource).toBe('saved');
+		// The same header spelt otherwise (case, units in brackets) finds the saved mapping too.
+		const respelt = await preview(
+			t.org.id,
+			enc(
+				'ARTIKEL,bezeichnung,Gruppe (Kategorie),WLF [W/mK],art,QUELLE\nMP-3,Board,insulation,0.035,declared,Test\n'
+			)
+		);
+		if (respelt.kind !== 'preview') throw new Error(respelt.message);
+		expect(respelt.mappingSource).toBe('saved');
+		expect(respelt.counts.new).toBe(1);
 	});
 
 	const large = () => {
@@ -357,6 +367,64 @@ describe.skipIf(!hasDatabase)('material library CSV', async () => {
 			field: 'name',
 			message: expect.stringMatching(/invisible control character/)
 		});
+	});
+
+	it('refuses a date the database cannot hold, at the preview, with the column named', async () => {
+		const t = await makeTeam();
+		const p = await preview(
+			t.org.id,
+			enc(
+				'code,name,category,lambda,lambda_kind,source,source_issued\nD-1,Board,insulation,0.035,declared,Test,0000-06-01\nD-2,Board,insulation,0.035,declared,Test,1.6.2024\n'
+			)
+		);
+		expect(issues(p)).toEqual([
+			'line 2: rejected | source_issued: must be a date between the years 1900 and 2200',
+			'line 3: new'
+		]);
+	});
+
+	it('a header cell with a line break in it (as spreadsheets write) stays one column', async () => {
+		const t = await makeTeam();
+		const p = await preview(
+			t.org.id,
+			enc(
+				'code,name,category,"lambda\n(W/mK)",lambda_kind,source\nH-1,Board,insulation,0.035,declared,Test\n'
+			)
+		);
+		if (p.kind !== 'preview') throw new Error(p.message);
+		expect(p.file.headers).toEqual(['code', 'name', 'category', 'lambda\n(W/mK)', 'lambda_kind', 'source']);
+		expect(issues(p)).toEqual(['line 3: new']);
+	});
+
+	it('changing a superseded material asks for confirmation; a status change after the preview refuses the commit', async () => {
+		const t = await makeTeam();
+		const actor = { userId: t.assessor.id, organisationId: t.org.id };
+		const supervisor = { userId: t.supervisor.id, organisationId: t.org.id };
+		const head = 'code,name,category,lambda,lambda_kind,mu_dry,density,specific_heat,source\n';
+		const a = await lib.createMaterial(actor, boardValues({ code: 'SUP-1' }), { confirmWarnings: true });
+		const b = await lib.createMaterial(actor, boardValues({ code: 'SUP-2' }), { confirmWarnings: true });
+		await lib.setMaterialStatus(supervisor, a.id, 'supersede');
+		const file = enc(
+			head +
+				'SUP-1,Board corrected,insulation,0.035,declared,1,30,1030,Invented\n' +
+				'SUP-2,Board corrected,insulation,0.035,declared,1,30,1030,Invented\n'
+		);
+		const p = await preview(t.org.id, file);
+		if (p.kind !== 'preview') throw new Error(p.message);
+		expect(p.rows[0].warnings.map((w) => w.message)).toContainEqual(
+			expect.stringMatching(
+				/marks this material superseded .* importing makes a new, unverified revision current/
+			)
+		);
+		expect(p.counts.warnings).toBeGreaterThanOrEqual(1);
+		await expect(commit(t, file, p.token)).rejects.toThrow(/warnings; confirm them to import/);
+		// Meanwhile a supervisor verifies SUP-2: the preview no longer shows the library as it is.
+		await lib.setMaterialStatus(supervisor, b.id, 'verify');
+		const before = await librarySnapshot(t.org.id);
+		await expect(commit(t, file, p.token, { confirmWarnings: true })).rejects.toThrow(
+			/changed since the preview/
+		);
+		expect(await librarySnapshot(t.org.id)).toBe(before);
 	});
 
 	it('2,000 generated rows preview and commit in one go', async () => {

@@ -58,7 +58,11 @@ const isoDate = z
 	.refine((s) => {
 		const d = new Date(`${s}T00:00:00Z`);
 		return !Number.isNaN(d.getTime()) && d.toISOString().slice(0, 10) === s;
-	}, 'is not a real calendar date');
+	}, 'is not a real calendar date')
+	.refine((s) => {
+		const year = Number(s.slice(0, 4));
+		return year >= 1900 && year <= 2200;
+	}, 'must be a date between the years 1900 and 2200');
 
 const optionalNumber = (schema: z.ZodNumber) => schema.nullable().optional();
 

@@ -253,11 +253,14 @@ export async function currentByCodes(
 	organisationId: string,
 	codes: string[]
 ): Promise<
-	Map<string, { materialId: string; revisionId: string; revision: number; values: MaterialValues }>
+	Map<
+		string,
+		{ materialId: string; revisionId: string; revision: number; status: string; values: MaterialValues }
+	>
 > {
 	const out = new Map<
 		string,
-		{ materialId: string; revisionId: string; revision: number; values: MaterialValues }
+		{ materialId: string; revisionId: string; revision: number; status: string; values: MaterialValues }
 	>();
 	if (codes.length === 0) return out;
 	// One array parameter, however many codes: no statement with thousands of bindings, and a plan that
@@ -272,14 +275,18 @@ export async function currentByCodes(
 			materialId: r.material_id,
 			revisionId: r.id,
 			revision: r.revision,
+			status: r.status,
 			values: valuesOfRow(r)
 		});
 	}
 	return out;
 }
 
-/** The current revision id of each of these codes that exists in the organisation's library. */
-export async function currentRevisionIds(
+/** What an import compares a code by: its current revision and that revision's status. */
+export const revisionState = (revisionId: string, status: string) => `${revisionId}:${status}`;
+
+/** The state (`revisionState`) of each of these codes that exists in the organisation's library. */
+export async function currentRevisionStates(
 	k: Db,
 	organisationId: string,
 	codes: string[]
@@ -287,10 +294,11 @@ export async function currentRevisionIds(
 	const out = new Map<string, string>();
 	if (codes.length === 0) return out;
 	const { rows } = await k.raw(
-		'SELECT code, current_revision_id FROM materials WHERE organisation_id = ? AND code = ANY(?::text[])',
+		`SELECT m.code, r.id, r.status FROM materials m JOIN material_revisions r ON r.id = m.current_revision_id
+		 WHERE m.organisation_id = ? AND m.code = ANY(?::text[])`,
 		[organisationId, codes]
 	);
-	for (const r of rows) out.set(r.code, r.current_revision_id);
+	for (const r of rows) out.set(r.code, revisionState(r.id, r.status));
 	return out;
 }
 
@@ -455,15 +463,22 @@ export async function createMaterial(
 	opts: { confirmWarnings?: boolean } = {}
 ): Promise<MaterialRevision> {
 	const values = checkValues(raw, Boolean(opts.confirmWarnings));
+	const taken = () =>
+		new LibraryError(`The code ${values.code} is already in the library.`, 409, [
+			{ field: 'code', message: 'is already in the library' }
+		]);
 	const materialId = await db.transaction(async (trx) => {
 		const exists = await trx('materials')
 			.where({ organisation_id: actor.organisationId, code: values.code })
 			.first('id');
-		if (exists)
-			throw new LibraryError(`The code ${values.code} is already in the library.`, 409, [
-				{ field: 'code', message: 'is already in the library' }
-			]);
-		const ids = await insertNewMaterials(trx, actor, [values]);
+		if (exists) throw taken();
+		// Someone else (an import, another form) may add the same code meanwhile: the unique key decides.
+		const ids = await insertNewMaterials(trx, actor, [values]).catch(
+			(e: { code?: string; constraint?: string }) => {
+				if (e?.code === '23505' && e.constraint === 'materials_organisation_id_code_unique') throw taken();
+				throw e;
+			}
+		);
 		const id = ids.get(values.code)!;
 		await logActivity(
 			{

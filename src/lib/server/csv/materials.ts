@@ -31,7 +31,8 @@ import {
 import { plausibilityWarnings } from '../../library/ranges';
 import {
 	currentByCodes,
-	currentRevisionIds,
+	currentRevisionStates,
+	revisionState,
 	insertNewMaterials,
 	insertNewRevisions,
 	type Actor
@@ -394,7 +395,7 @@ type CommitPlan = {
 	bytes: number;
 	added: MaterialValues[];
 	revised: { materialId: string; previousRevisionId: string; revision: number; values: MaterialValues }[];
-	/** every code the file offers (valid rows) → the current revision it was compared with, or null */
+	/** every code the file offers (valid rows) → the state (revision and status) it was compared with, or null */
 	compared: Map<string, string | null>;
 	at: number;
 };
@@ -453,7 +454,11 @@ async function mappingFor(
 			})
 			.first('mapping');
 		if (saved) {
-			mapping = saved.mapping as ColumnMapping;
+			// Saved for the same header signature, perhaps spelt otherwise ('Code' for 'code', other units in
+			// brackets): carry it over header by header, by the same normalised key.
+			const byKey = new Map<string, ImportField | null>();
+			for (const [h, f] of Object.entries(saved.mapping as ColumnMapping)) byKey.set(normaliseHeader(h), f);
+			mapping = Object.fromEntries(headers.map((h) => [h, byKey.get(normaliseHeader(h)) ?? null]));
 			source = 'saved';
 		} else {
 			const rec = recogniseHeaders(headers);
@@ -583,7 +588,7 @@ async function analyse(
 			return { ...base, status: 'rejected', warnings: NONE, changes: NONE };
 		}
 		const cur = existing.get(r.code);
-		compared.set(r.code, cur?.revisionId ?? null);
+		compared.set(r.code, cur ? revisionState(cur.revisionId, cur.status) : null);
 		if (!cur) {
 			counts.new++;
 			if (r.warnings.length) counts.warnings++;
@@ -596,14 +601,25 @@ async function analyse(
 			return { ...base, status: 'unchanged', warnings: NONE, changes };
 		}
 		counts.changed++;
-		if (r.warnings.length) counts.warnings++;
+		const warnings =
+			cur.status === 'superseded'
+				? [
+						...r.warnings,
+						{
+							column: '',
+							message:
+								'the library marks this material superseded (not for new work); importing makes a new, unverified revision current'
+						}
+					]
+				: r.warnings;
+		if (warnings.length) counts.warnings++;
 		revised.push({
 			materialId: cur.materialId,
 			previousRevisionId: cur.revisionId,
 			revision: cur.revision,
 			values: r.values
 		});
-		return { ...base, status: 'changed', changes };
+		return { ...base, warnings, status: 'changed', changes };
 	});
 
 	// The same file, mapping and library state give the same token, in any process.
@@ -611,7 +627,10 @@ async function analyse(
 		.update(organisationId)
 		.update(file.sha256)
 		.update(JSON.stringify(headers.map((h) => [h, fieldOf(mapping, h)])));
-	for (const code of [...existing.keys()].sort()) hash.update(`${code}=${existing.get(code)!.revisionId};`);
+	for (const code of [...existing.keys()].sort()) {
+		const e = existing.get(code)!;
+		hash.update(`${code}=${revisionState(e.revisionId, e.status)};`);
+	}
 	const token = hash.digest('hex');
 	return {
 		preview: {
@@ -788,9 +807,9 @@ export async function applyCommit(
 					[actor.organisationId, plan.revised.map((r) => r.materialId)]
 				);
 			}
-			const now = await currentRevisionIds(trx, actor.organisationId, [...plan.compared.keys()]);
-			for (const [code, revisionId] of plan.compared) {
-				if ((now.get(code) ?? null) !== revisionId) throw new ImportRefused(CHANGED_SINCE_PREVIEW, 409);
+			const now = await currentRevisionStates(trx, actor.organisationId, [...plan.compared.keys()]);
+			for (const [code, state] of plan.compared) {
+				if ((now.get(code) ?? null) !== state) throw new ImportRefused(CHANGED_SINCE_PREVIEW, 409);
 			}
 			await insertNewMaterials(trx, actor, plan.added);
 			await insertNewRevisions(trx, actor, plan.revised);

@@ -24,7 +24,8 @@ export class CsvFileError extends Error {
 			| 'header-only'
 			| 'header'
 			| 'truncated'
-			| 'quotes',
+			| 'quotes'
+			| 'line-ends',
 		readonly line?: number
 	) {
 		super(message);
@@ -33,6 +34,13 @@ export class CsvFileError extends Error {
 }
 
 export type Delimiter = ',' | ';';
+
+const blankFirstLine = () =>
+	new CsvFileError(
+		'Line 1 is blank: the first line must be the header, the names of the columns. Remove the blank lines at the top of the file.',
+		'header',
+		1
+	);
 
 /** The longest header line and the longest single record read before the file is refused. */
 const HEADER_MAX = 64 * 1024;
@@ -60,10 +68,23 @@ export function checkSize(bytes: number, maxBytes = DEFAULT_MAX_BYTES): void {
 	}
 }
 
+/**
+ * Line ends in bytes[0, end): a LF, or a CR not followed by LF (files saved with CR alone, as some
+ * spreadsheet programs do). A CR that is the last byte is left for the caller to place.
+ */
+function lineEnds(b: Uint8Array, end: number): number {
+	let n = 0;
+	for (let i = 0; i < end && i < b.length; i++) {
+		const c = b[i];
+		if (c === 0x0a) n++;
+		else if (c === 0x0d && i + 1 < b.length && b[i + 1] !== 0x0a) n++;
+	}
+	return n;
+}
+
+/** The line (from 1) that the byte at `index` is on. */
 function lineAt(bytes: Uint8Array, index: number): number {
-	let line = 1;
-	for (let i = 0; i < index && i < bytes.length; i++) if (bytes[i] === 0x0a) line++;
-	return line;
+	return 1 + lineEnds(bytes, index);
 }
 
 /** Find the first byte sequence that is not valid UTF-8 (RFC 3629), or -1. */
@@ -179,12 +200,6 @@ function incompleteTail(b: Uint8Array): number {
 	return 0;
 }
 
-function countByte(b: Uint8Array, byte: number): number {
-	let n = 0;
-	for (let i = b.indexOf(byte); i >= 0; i = b.indexOf(byte, i + 1)) n++;
-	return n;
-}
-
 /** What reading a file told, besides its rows. */
 export type StreamedFile = {
 	bytes: number;
@@ -226,6 +241,7 @@ export async function readCsvStream(
 		let started = false;
 		let pending = new Uint8Array(0); // an incomplete UTF-8 sequence carried from the last chunk
 		let newlines = 0; // line ends before the current chunk
+		let endedWithCR = false; // the last chunk ended with a CR: a line end unless this one starts with LF
 		try {
 			for (;;) {
 				const next = await it.next();
@@ -256,6 +272,8 @@ export async function readCsvStream(
 					started = true;
 					bytes = h;
 				}
+				if (endedWithCR && bytes[0] !== 0x0a) newlines++;
+				endedWithCR = bytes[bytes.length - 1] === 0x0d;
 				const nul = bytes.indexOf(0);
 				if (nul >= 0) throw binaryError(newlines + lineAt(bytes, nul));
 				let out: string;
@@ -266,14 +284,15 @@ export async function readCsvStream(
 					joined.set(pending);
 					joined.set(bytes, pending.length);
 					const bad = Math.max(0, firstInvalidUtf8(joined));
-					throw notUtf8Error(joined[bad], newlines - countByte(pending, 0x0a) + lineAt(joined, bad));
+					// `pending` holds only bytes of a multi-byte character, no line ends
+					throw notUtf8Error(joined[bad], newlines + lineAt(joined, bad));
 				}
 				const last = new Uint8Array(pending.length + Math.min(3, bytes.length));
 				last.set(pending);
 				last.set(bytes.subarray(bytes.length - Math.min(3, bytes.length)), pending.length);
 				const keep = incompleteTail(last);
 				pending = last.slice(last.length - keep);
-				newlines += countByte(bytes, 0x0a);
+				newlines += lineEnds(bytes, bytes.length);
 				if (out) {
 					tail = (tail + out).slice(-4);
 					yield out;
@@ -328,30 +347,35 @@ async function readRecords(
 	onHeader: (headers: string[], delimiter: Delimiter) => void | Promise<void>,
 	onRow: RowHandler
 ): Promise<StreamedFile> {
-	// Read until the header line is complete (or the file ends); blank lines alone make an empty file.
+	// Read until the header record is complete (or the file ends): up to its first line end outside
+	// quotes, so a header cell with a line break in it (as spreadsheets allow) stays one cell.
 	let head = '';
 	let ended = false;
-	let scanned = 0; // what of `head` is known to hold no end of the header line
-	let at = -1; // where the first non-blank character is
-	const headerDone = () => {
-		if (at < 0) {
-			at = head.slice(scanned).search(/\S/);
-			if (at < 0) {
-				scanned = head.length;
-				return false;
-			}
-			at += scanned;
-			scanned = at;
+	let scanned = 0;
+	let inQuotes = false;
+	let nonBlank = false;
+	let headerEnd = -1; // index of the line end that closes the header record
+	const scan = () => {
+		for (; scanned < head.length; scanned++) {
+			const c = head[scanned];
+			if (c === '"') inQuotes = !inQuotes;
+			else if ((c === '\n' || c === '\r') && !inQuotes) {
+				if (!nonBlank) continue; // blank so far: the file may hold nothing else
+				// A '\r' that ends what has come so far may be the first half of '\r\n': wait for more.
+				if (c === '\r' && scanned === head.length - 1 && !ended) return false;
+				headerEnd = scanned;
+				return true;
+			} else if (c !== ' ' && c !== '\t') nonBlank = true;
 		}
-		const end = head.slice(scanned).search(/[\r\n]/);
-		if (end < 0) {
-			scanned = head.length;
-			return false;
-		}
-		// A '\r' that ends what has come so far may be the first half of '\r\n': wait for the next chunk.
-		return !(head[scanned + end] === '\r' && scanned + end === head.length - 1);
+		return false;
 	};
-	while (!ended && !headerDone()) {
+	while (!scan()) {
+		if (ended) break;
+		if (!nonBlank && head.length > HEADER_MAX) {
+			// Only blank lines so far: keep one, to say so (or that the file is empty) at the end.
+			head = '\n';
+			scanned = 1;
+		}
 		if (head.length > HEADER_MAX) {
 			throw new CsvFileError(
 				`Line 1 has no line end within its first ${HEADER_MAX / 1024} kB: the header line should hold only the column names. Check that this is a CSV file.`,
@@ -365,20 +389,22 @@ async function readRecords(
 	}
 	if (total() === 0) throw new CsvFileError('The file is empty: it has no header and no rows.', 'empty');
 	if (head.trim() === '') throw new CsvFileError('The file is empty: it has only blank lines.', 'empty');
-	if (/^[ \t]*[\r\n]/.test(head)) {
-		throw new CsvFileError(
-			'Line 1 is blank: the first line must be the header, the names of the columns. Remove the blank lines at the top of the file.',
-			'header',
-			1
-		);
-	}
-	const delimiter = detectDelimiter(head);
-	// The line end is the header line's own: a quoted field further on may hold another kind.
-	const firstEnd = head.search(/[\r\n]/);
+	if (/^[ \t]*[\r\n]/.test(head)) throw blankFirstLine();
+	// The line end is the header record's own: a quoted field further on may hold another kind.
 	const newline =
-		firstEnd < 0 ? undefined : head[firstEnd] === '\n' ? '\n' : head[firstEnd + 1] === '\n' ? '\r\n' : '\r';
-	const firstLine = head.slice(0, Math.max(0, head.search(/\r?\n|\r/)) || head.length);
-	const headers = Papa.parse<string[]>(firstLine, { delimiter }).data[0]?.map((h) => h.trim()) ?? [];
+		headerEnd < 0
+			? undefined
+			: head[headerEnd] === '\n'
+				? '\n'
+				: head[headerEnd + 1] === '\n'
+					? '\r\n'
+					: '\r';
+	const firstLine = headerEnd < 0 ? head : head.slice(0, headerEnd);
+	const delimiter = detectDelimiter(firstLine);
+	const headers =
+		Papa.parse<string[]>(firstLine, { delimiter, newline: newline as '\n' | undefined }).data[0]?.map((h) =>
+			h.trim()
+		) ?? [];
 	await onHeader(headers, delimiter);
 
 	const nlChar = newline === '\r' ? '\r' : '\n';
@@ -443,6 +469,14 @@ async function readRecords(
 						seenHeader = true;
 						return;
 					}
+					if (newline === '\r\n' && cells.length > headers.length && cells.some((c) => c.includes('\n'))) {
+						// Rows that end with LF alone run together when the header ends with CR LF.
+						throw new CsvFileError(
+							`Line ${start} ends with a line feed alone while the header line ends with CR LF: the file mixes two kinds of line end. Save it again from the spreadsheet program (or convert its line ends) and upload again.`,
+							'line-ends',
+							start
+						);
+					}
 					rows++;
 					pendingShort = cells.length < headers.length ? { line: start, cells: cells.length } : null;
 					onRow(cells, start);
@@ -488,9 +522,8 @@ function countOutsideQuotes(line: string, ch: string): number {
 }
 
 /** The delimiter of the header line: comma or semicolon; anything else is refused with its name. */
-export function detectDelimiter(text: string): Delimiter {
-	const end = text.search(/\r?\n/);
-	const first = end < 0 ? text : text.slice(0, end);
+export function detectDelimiter(headerLine: string): Delimiter {
+	const first = headerLine;
 	const commas = countOutsideQuotes(first, ',');
 	const semis = countOutsideQuotes(first, ';');
 	if (semis > commas) return ';';
