@@ -391,6 +391,13 @@ describe.skipIf(!hasDatabase)('reports', async () => {
 		expect(old!.revision).toBe(1);
 		expect(old!.supersededBy).toEqual({ revision: 2, issuedAt: second.issuedAt });
 		expect((await reports.verifyCode(second.verificationCode))!.supersededBy).toBeNull();
+		// Only the revision in force is e-mailed to the client (common practice, no source).
+		await expect(
+			reports.emailReport(s.caller, first.id, { to: 'client@example.test' })
+		).rejects.toMatchObject({
+			status: 409,
+			message: expect.stringMatching(/revision 1 was replaced by revision 2; send revision 2 instead/)
+		});
 
 		// The public page: its load gives the same facts for the grouped and the plain form of the code.
 		const page = await import('../../src/routes/(public)/verify/[code]/+page.server');

@@ -682,6 +682,16 @@ export async function emailReport(
 				'snapshot'
 			);
 		if (!report) throw new ReportError(404, 'No such report.');
+		// A replaced revision stays readable and verifiable, but the client is sent the one in force.
+		const newer = await t('reports')
+			.where({ supersedes_id: report.id, organisation_id: caller.organisationId })
+			.first('revision');
+		if (newer) {
+			throw new ReportError(
+				409,
+				`Report ${report.number} revision ${report.revision} was replaced by revision ${newer.revision}; send revision ${newer.revision} instead.`
+			);
+		}
 		const snap = report.snapshot as ReportSnapshot;
 		const sender = await callerName(t, caller.userId);
 		const what =
