@@ -116,8 +116,15 @@ test('an admin keeps limit tables: field errors, a new table made default', asyn
 	await form.getByRole('button', { name: 'Save limit table' }).click();
 	await expect(page.getByRole('heading', { level: 1, name })).toBeVisible();
 	await expect(page.getByTestId('limits')).toContainText('0.15');
+	// Making a table the default asks first: it changes how every dwelling without its own table is judged.
+	let asked = '';
+	page.once('dialog', (d) => {
+		asked = d.message();
+		void d.accept();
+	});
 	await page.getByRole('button', { name: 'Make default' }).click();
 	await expect(page.getByTestId('default-badge')).toBeVisible();
+	expect(asked).toMatch(/the organisation's default\? Every dwelling without a limit table of its own/);
 	await page.goto('/organisation/limit-tables', { waitUntil: 'networkidle' });
 	await page.screenshot({ path: shot('limit-tables'), fullPage: true });
 
@@ -126,6 +133,7 @@ test('an admin keeps limit tables: field errors, a new table made default', asyn
 		.where({ organisation_id: NORTHFIELD, name: 'Demo scheme fabric limits' })
 		.first('id');
 	await page.goto(`/organisation/limit-tables/${demo.id}`, { waitUntil: 'networkidle' });
+	page.once('dialog', (d) => void d.accept());
 	await page.getByRole('button', { name: 'Make default' }).click();
 	await expect(page.getByTestId('default-badge')).toBeVisible();
 
