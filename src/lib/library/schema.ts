@@ -189,6 +189,32 @@ export const PHYSICAL_FIELDS = [
 	'specificHeat'
 ] as const;
 
+/**
+ * The snake_case name of every field: the database column of a revision, and the CSV column the
+ * export writes and the import reads first (so an export imports back unchanged).
+ */
+export const FIELD_COLUMNS: Record<'code' | RevisionField, string> = {
+	code: 'code',
+	name: 'name',
+	manufacturer: 'manufacturer',
+	category: 'category',
+	lambda: 'lambda',
+	lambdaKind: 'lambda_kind',
+	resistance: 'resistance',
+	muDry: 'mu_dry',
+	muWet: 'mu_wet',
+	sd: 'sd',
+	density: 'density',
+	specificHeat: 'specific_heat',
+	thicknessMinMm: 'thickness_min_mm',
+	thicknessMaxMm: 'thickness_max_mm',
+	source: 'source',
+	sourceIssued: 'source_issued',
+	sourceExpires: 'source_expires',
+	indicative: 'indicative',
+	notes: 'notes'
+};
+
 export const FIELD_LABELS: Record<'code' | RevisionField, string> = {
 	code: 'Code',
 	name: 'Name',

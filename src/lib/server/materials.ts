@@ -13,6 +13,7 @@ import { db, type Db } from './db';
 import { logActivity } from './activity';
 import {
 	diffValues,
+	FIELD_COLUMNS,
 	materialValuesSchema,
 	fieldIssues,
 	REVISION_FIELDS,
@@ -50,27 +51,6 @@ export class LibraryError extends Error {
 		this.name = 'LibraryError';
 	}
 }
-
-const COLUMN: Record<(typeof REVISION_FIELDS)[number], string> = {
-	name: 'name',
-	manufacturer: 'manufacturer',
-	category: 'category',
-	lambda: 'lambda',
-	lambdaKind: 'lambda_kind',
-	resistance: 'resistance',
-	muDry: 'mu_dry',
-	muWet: 'mu_wet',
-	sd: 'sd',
-	density: 'density',
-	specificHeat: 'specific_heat',
-	thicknessMinMm: 'thickness_min_mm',
-	thicknessMaxMm: 'thickness_max_mm',
-	source: 'source',
-	sourceIssued: 'source_issued',
-	sourceExpires: 'source_expires',
-	indicative: 'indicative',
-	notes: 'notes'
-};
 
 const dateText = (d: unknown): string | null => {
 	if (d === null || d === undefined) return null;
@@ -307,7 +287,7 @@ const REVISION_COPY_COLUMNS = [
 	'organisation_id',
 	'material_id',
 	'revision',
-	...REVISION_FIELDS.map((f) => COLUMN[f]),
+	...REVISION_FIELDS.map((f) => FIELD_COLUMNS[f]),
 	'status',
 	'created_by'
 ];

@@ -18,6 +18,7 @@ import {
 import { toCsv, unneutralise, type Cell } from './write';
 import {
 	diffValues,
+	FIELD_COLUMNS,
 	FIELD_LABELS,
 	LAMBDA_KIND_LABELS,
 	LAMBDA_KINDS,
@@ -44,27 +45,7 @@ export const IMPORT_FIELDS = ['code', ...REVISION_FIELDS] as const;
 export type ImportField = (typeof IMPORT_FIELDS)[number];
 
 /** The column names the export writes and the import reads first. */
-export const CSV_COLUMNS: Record<ImportField, string> = {
-	code: 'code',
-	name: 'name',
-	manufacturer: 'manufacturer',
-	category: 'category',
-	lambda: 'lambda',
-	lambdaKind: 'lambda_kind',
-	resistance: 'resistance',
-	muDry: 'mu_dry',
-	muWet: 'mu_wet',
-	sd: 'sd',
-	density: 'density',
-	specificHeat: 'specific_heat',
-	thicknessMinMm: 'thickness_min_mm',
-	thicknessMaxMm: 'thickness_max_mm',
-	source: 'source',
-	sourceIssued: 'source_issued',
-	sourceExpires: 'source_expires',
-	indicative: 'indicative',
-	notes: 'notes'
-};
+export const CSV_COLUMNS: Record<ImportField, string> = FIELD_COLUMNS;
 
 const NUMERIC = new Set<ImportField>([
 	'lambda',
