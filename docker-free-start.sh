@@ -66,7 +66,7 @@ run_start() {
 		chmod 600 "$ROOT/.data/auth-secret"
 	fi
 	export AUTH_SECRET="$(cat "$ROOT/.data/auth-secret")"
-	export ORIGIN="http://127.0.0.1:$app_port" AUTH_TRUST_HOST=true
+	export ORIGIN="http://127.0.0.1:$app_port"
 	export SMTP_HOST=127.0.0.1 SMTP_PORT="$smtp_port" MAIL_FROM="Envelo <no-reply@envelo.example.test>"
 	export HOST=127.0.0.1 PORT="$app_port" BODY_SIZE_LIMIT="${BODY_SIZE_LIMIT:-25M}"
 
@@ -78,7 +78,7 @@ run_start() {
 
 	if [ ! -f build/index.js ] || [ -n "$(find src static svelte.config.js vite.config.ts tailwind.config.js package-lock.json -newer build/index.js -print -quit 2>/dev/null)" ]; then
 		log "building Envelo"
-		node_modules/.bin/vite build >"$ROOT/.data/build.log" 2>&1 || { tail -30 "$ROOT/.data/build.log"; die "build failed (.data/build.log)"; }
+		build_app "$ROOT/.data/build.log" || { tail -30 "$ROOT/.data/build.log"; die "build failed (.data/build.log)"; }
 	fi
 	node build &
 	PIDS+=($!)
@@ -148,7 +148,7 @@ run_test() {
 		# Inside the project (packages resolve from node_modules), one folder per run.
 		TEST_BUILD="$ROOT/.test-builds/$(basename "$TEST_TMP")"
 		export BUILD_DIR="$TEST_BUILD/build" KIT_OUT_DIR="$TEST_BUILD/kit"
-		node_modules/.bin/vite build >"$TEST_TMP/build.log" 2>&1 || { tail -40 "$TEST_TMP/build.log"; die "build failed"; }
+		build_app "$TEST_TMP/build.log" || { tail -40 "$TEST_TMP/build.log"; die "build failed"; }
 		log "end-to-end tests (Playwright, Debian's Chromium)"
 		DATABASE_URL="$E2E_DATABASE_URL" node_modules/.bin/knex --knexfile knexfile.js migrate:latest >/dev/null
 		DATABASE_URL="$E2E_DATABASE_URL" node_modules/.bin/knex --knexfile knexfile.js seed:run >/dev/null
@@ -194,7 +194,7 @@ run_bench() {
 	TEST_BUILD="$ROOT/.test-builds/$(basename "$TEST_TMP")"
 	export BUILD_DIR="$TEST_BUILD/build" KIT_OUT_DIR="$TEST_BUILD/kit" BENCH_BUILD_DIR="$TEST_BUILD/build"
 	log "building for the HTTP benchmarks"
-	node_modules/.bin/vite build >"$TEST_TMP/build.log" 2>&1 || { tail -40 "$TEST_TMP/build.log"; die "build failed"; }
+	build_app "$TEST_TMP/build.log" || { tail -40 "$TEST_TMP/build.log"; die "build failed"; }
 	node scripts/bench.js "$@"
 }
 

@@ -46,6 +46,13 @@ ensure_node_modules() {
 	fi
 }
 
+# Build the app into $BUILD_DIR (or build/), logging to $1. SvelteKit's generated files
+# (.svelte-kit/tsconfig.json, the route types) are made first: a fresh clone has none.
+build_app() {
+	local logfile="$1"
+	node_modules/.bin/svelte-kit sync >"$logfile" 2>&1 && node_modules/.bin/vite build >>"$logfile" 2>&1
+}
+
 # PostgreSQL refuses to run as root: when we are root, the cluster belongs to Debian's postgres user.
 pg_user_run() {
 	if [ "$(id -u)" -eq 0 ]; then runuser -u postgres -- "$@"; else "$@"; fi
