@@ -44,7 +44,6 @@ export default defineConfig({
 			ORIGIN: origin,
 			// CSV uploads and PDF checks on the verification page are larger than adapter-node's 512 kB default.
 			BODY_SIZE_LIMIT: '25M',
-			AUTH_TRUST_HOST: 'true',
 			AUTH_SECRET: process.env.AUTH_SECRET ?? 'e2e-secret-not-for-production',
 			DATABASE_URL: process.env.DATABASE_URL ?? '',
 			SMTP_HOST: process.env.SMTP_HOST ?? '127.0.0.1',

@@ -1,7 +1,9 @@
 import type { Handle, HandleServerError, ServerInit } from '@sveltejs/kit';
 import { sequence } from '@sveltejs/kit/hooks';
 import { randomUUID } from 'node:crypto';
+import { dev } from '$app/environment';
 import { authHandle } from '$lib/server/auth';
+import { behindProxy, configuredOrigin } from '$lib/server/config';
 import { getSignedInMember } from '$lib/server/members';
 import { startWorkers } from '$lib/server/workers';
 // Background workers register themselves when their module is imported (one line each, below).
@@ -130,6 +132,34 @@ function json(body: unknown, status: number) {
 }
 
 /**
+ * Requests must name Envelo's configured origin. The Host header (or, behind a proxy that the deployment
+ * declares with BEHIND_PROXY=true, the first X-Forwarded-Host) must be the host of ORIGIN; anything else
+ * is refused before it reaches a route, so no link, redirect or cookie can ever be made for another host.
+ * A page asked for under another name (say "localhost" for "127.0.0.1") is sent to the configured origin.
+ */
+const checkHost: Handle = async ({ event, resolve }) => {
+	const origin = configuredOrigin();
+	// vite dev without ORIGIN (production refuses to start without it, see init); a page's own fetch
+	// during server rendering is answered in-process and carries no Host of its own.
+	if (!origin || event.isSubRequest) return resolve(event);
+	const expected = new URL(origin).host.toLowerCase();
+	const headers = event.request.headers;
+	const forwarded = behindProxy() ? headers.get('x-forwarded-host')?.split(',')[0]?.trim() : undefined;
+	const host = (forwarded || headers.get('host') || '').toLowerCase();
+	if (host === expected || event.url.pathname === '/healthz') return resolve(event);
+	if (event.request.method === 'GET' || event.request.method === 'HEAD') {
+		return new Response(null, {
+			status: 308,
+			headers: { location: new URL(event.url.pathname + event.url.search, origin).toString() }
+		});
+	}
+	return new Response(`This server answers as ${origin} only.`, {
+		status: 421,
+		headers: { 'content-type': 'text/plain; charset=utf-8' }
+	});
+};
+
+/**
  * Auth.js only answers its own routes (/auth/…: the sign-in link, the callback, sign-out); elsewhere its
  * handle would only build its configuration again for each request. Nothing reads `locals.auth`: who is
  * asking comes from `identify`, and the sign-in and sign-out forms call Auth.js's signIn and signOut.
@@ -137,7 +167,7 @@ function json(body: unknown, status: number) {
 const auth: Handle = (input) =>
 	input.event.url.pathname.startsWith('/auth/') ? authHandle(input) : input.resolve(input.event);
 
-export const handle = sequence(forgetAfterChanges, auth, identify, guard);
+export const handle = sequence(checkHost, forgetAfterChanges, auth, identify, guard);
 
 export const handleError: HandleServerError = ({ error, event, status, message }) => {
 	if (status === 404) return { message };
@@ -147,5 +177,10 @@ export const handleError: HandleServerError = ({ error, event, status, message }
 };
 
 export const init: ServerInit = async () => {
+	if (!dev && !configuredOrigin()) {
+		throw new Error(
+			'Set ORIGIN to the address people open Envelo at (e.g. https://envelo.example.test): every link Envelo e-mails is built from it.'
+		);
+	}
 	await startWorkers();
 };

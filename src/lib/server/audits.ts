@@ -5,7 +5,7 @@
 import { db, type Db } from './db';
 import { logActivity } from './activity';
 import { enqueueMail } from './outbox';
-import { setting } from './config';
+import { appUrl } from './config';
 import type { Member } from './guard';
 import type { DwellingAudit } from '$lib/audit/assess';
 import { sampleDwellings, newSeed, type Candidate, type SamplingRule } from '$lib/audit/sampling';
@@ -415,11 +415,6 @@ export const auditDwellings = (orgId: string, ids: string[]) => auditDwellingsWi
 /* ------------------------------------------------------------------ decisions */
 
 const DECIDERS = ['supervisor', 'admin'];
-
-function appUrl(path: string): string {
-	const origin = setting('ORIGIN') ?? setting('PUBLIC_ORIGIN') ?? 'http://127.0.0.1:3000';
-	return origin.replace(/\/$/, '') + path;
-}
 
 /**
  * Record a supervisor's decision on one dwelling: the item, the dwelling's status and a log row in one

@@ -1,7 +1,8 @@
 import { SvelteKitAuth, type SvelteKitAuthConfig } from '@auth/sveltekit';
 import Nodemailer from '@auth/sveltekit/providers/nodemailer';
 import PostgresAdapter from '@auth/pg-adapter';
-import { setting } from './config';
+import type { RequestEvent } from '@sveltejs/kit';
+import { publicOrigin, setting } from './config';
 import { authPool } from './db';
 import { createTransport, mailFrom, smtpSettings } from './mail';
 import { SESSION_MAX_AGE_S, SESSION_UPDATE_AGE_S } from './members';
@@ -37,6 +38,9 @@ export const {
 } = SvelteKitAuth(async (): Promise<SvelteKitAuthConfig> => ({
 	adapter: PostgresAdapter(authPool),
 	secret: setting('AUTH_SECRET'),
+	// Auth.js builds its links from the request it is given. Envelo only ever gives it requests made by
+	// onPublicOrigin() (sign-in, sign-out) or ones whose Host the hooks have checked (/auth/…), so the
+	// host it "trusts" is always the configured origin.
 	trustHost: true,
 	providers: [
 		Nodemailer({
@@ -58,3 +62,22 @@ export const {
 		}
 	}
 }));
+
+/** Headers that name a host or a scheme: never passed on to Auth.js from the request. */
+const HOST_HEADERS = ['host', 'x-forwarded-host', 'x-forwarded-proto', 'x-forwarded-port', 'forwarded'];
+
+/**
+ * The event that Auth.js's signIn()/signOut() are called with: a form POST to `path` on the configured
+ * public origin, carrying the caller's cookies but none of its host headers. Auth.js makes the sign-in
+ * link from this request, so the link always points at Envelo's own origin, whatever Host or
+ * X-Forwarded-Host the caller sent.
+ */
+export function onPublicOrigin(event: RequestEvent, path: string, body: URLSearchParams): RequestEvent {
+	const origin = publicOrigin();
+	const url = new URL(path, origin);
+	const headers = new Headers(event.request.headers);
+	for (const name of HOST_HEADERS) headers.delete(name);
+	headers.set('host', url.host);
+	headers.set('content-type', 'application/x-www-form-urlencoded');
+	return { ...event, url, request: new Request(url, { method: 'POST', headers, body }) };
+}

@@ -7,3 +7,39 @@ import { env } from '$env/dynamic/private';
 export function setting(name: string): string | undefined {
 	return env[name] ?? process.env[name];
 }
+
+/** Where Envelo answers when nothing is configured: the start script's default, for tests and `vite dev`. */
+const FALLBACK_ORIGIN = 'http://127.0.0.1:3000';
+
+/** The configured public origin (`ORIGIN`), or null when none is set. */
+export function configuredOrigin(): string | null {
+	const raw = setting('ORIGIN') ?? setting('PUBLIC_ORIGIN');
+	if (!raw) return null;
+	try {
+		return new URL(raw).origin;
+	} catch {
+		throw new Error(`ORIGIN must be an absolute URL such as https://envelo.example.test, not "${raw}".`);
+	}
+}
+
+/**
+ * The one origin every absolute URL Envelo makes is built from: sign-in and invitation links, report
+ * verification links, links in e-mails. Never the request's Host or X-Forwarded-* headers, which anyone
+ * can set.
+ */
+export function publicOrigin(): string {
+	return configuredOrigin() ?? FALLBACK_ORIGIN;
+}
+
+/** An absolute URL on the public origin. */
+export function appUrl(path: string): string {
+	return new URL(path, publicOrigin()).toString();
+}
+
+/**
+ * Whether the deployment says it sits behind a reverse proxy (`BEHIND_PROXY=true`). Only then is
+ * X-Forwarded-Host read, and even then it must name the configured origin's host.
+ */
+export function behindProxy(): boolean {
+	return /^(1|true|yes)$/i.test(setting('BEHIND_PROXY') ?? '');
+}

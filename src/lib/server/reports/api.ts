@@ -1,7 +1,6 @@
 /** Request schemas and replies shared by the report pages and the JSON API. */
 import { json, error } from '@sveltejs/kit';
 import { z } from 'zod';
-import { setting } from '../config';
 import { ReportError } from '../reports';
 import type { Role } from '$lib/roles';
 
@@ -15,10 +14,7 @@ export function zodIssues(e: z.ZodError) {
 	return e.issues.map((i) => ({ path: i.path.map(String).join('.') || '(body)', message: i.message }));
 }
 
-/** The origin printed in verification URLs: the configured ORIGIN, else the request's. */
-export function publicOrigin(url: URL): string {
-	return (setting('ORIGIN') ?? url.origin).replace(/\/$/, '');
-}
+export { publicOrigin } from '../config';
 
 /** Expected refusals as JSON; anything else goes on to handleError (500 with an error id). */
 export function apiFailure(e: unknown): Response {

@@ -9,6 +9,7 @@ import {
 	MembershipError,
 	removeMember
 } from '$lib/server/members';
+import { appUrl } from '$lib/server/config';
 import { sendMail } from '$lib/server/mail';
 import { inviteSchema, removeSchema, roleSchema } from './schema';
 
@@ -33,7 +34,7 @@ export const actions = {
 			if (e instanceof MembershipError) return setError(form, 'email', e.message);
 			throw e;
 		}
-		const signInUrl = new URL('/signin', event.url.origin).toString();
+		const signInUrl = appUrl('/signin');
 		try {
 			await sendMail({
 				to: form.data.email.toLowerCase(),

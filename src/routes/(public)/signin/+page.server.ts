@@ -1,7 +1,7 @@
 import { fail, redirect } from '@sveltejs/kit';
 import { superValidate, message } from 'sveltekit-superforms';
 import { zod4 } from 'sveltekit-superforms/adapters';
-import { signIn } from '$lib/server/auth';
+import { onPublicOrigin, signIn } from '$lib/server/auth';
 import { isKnownAddress } from '$lib/server/members';
 import { allowSignInAttempt } from '$lib/server/rate-limit';
 import { signInSchema } from './schema';
@@ -41,8 +41,6 @@ export const actions = {
 			email,
 			redirectTo: safeNext(form.data.next)
 		});
-		const headers = new Headers(event.request.headers);
-		headers.set('content-type', 'application/x-www-form-urlencoded');
-		await signIn({ ...event, request: new Request(event.request.url, { method: 'POST', headers, body }) });
+		await signIn(onPublicOrigin(event, '/signin', body));
 	}
 };

@@ -39,7 +39,7 @@ export const POST = async (event) => {
 		const report = await issueReport(
 			{ userId: member.user.id, organisationId: member.organisationId },
 			parsed.data,
-			publicOrigin(event.url)
+			publicOrigin()
 		);
 		return json(report, { status: 201, headers: { location: `/api/v1/reports/${report.id}` } });
 	} catch (e) {

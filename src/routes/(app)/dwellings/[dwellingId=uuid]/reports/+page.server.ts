@@ -110,7 +110,7 @@ export const actions = {
 			const r = await issueReport(
 				{ userId: member.user.id, organisationId: member.organisationId },
 				{ dwellingId: event.params.dwellingId, elementId },
-				publicOrigin(event.url)
+				publicOrigin()
 			);
 			return { done: `Issued report ${r.number}, revision ${r.revision}.`, issuedId: r.id };
 		} catch (e) {

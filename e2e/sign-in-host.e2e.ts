@@ -1,0 +1,98 @@
+import { test, expect, request as newRequest } from '@playwright/test';
+import { DEMO, db, waitForMail, INBOX } from './helpers';
+
+// Host-header poisoning of the sign-in link (an account-takeover hole; OWASP Web Security Testing Guide
+// v4.2, WSTG-INPV-17 "Testing for Host Header Injection"). Every link Envelo e-mails must be built from
+// its configured origin (ORIGIN), never from the request's Host or X-Forwarded-* headers.
+
+const ORIGIN = `http://127.0.0.1:${process.env.APP_PORT ?? 4173}`;
+
+const created: string[] = [];
+
+/**
+ * A fresh member of the demo organisation, so these requests never meet another test's rate limit;
+ * removed again afterwards, so the organisation's member list is as the other suites expect.
+ */
+async function freshMember(tag: string): Promise<string> {
+	const email = `host-${tag}-${Date.now()}@northfield-retrofit.example.test`;
+	const [user] = await db()('users')
+		.insert({ email, name: `Host check ${tag}` })
+		.returning('id');
+	const org = await db()('users as u')
+		.join('memberships as m', 'm.user_id', 'u.id')
+		.where('u.email', DEMO.admin)
+		.first('m.organisation_id');
+	await db()('memberships').insert({
+		user_id: user.id,
+		organisation_id: org.organisation_id,
+		role: 'assessor'
+	});
+	created.push(email);
+	return email;
+}
+
+/** Ask for a sign-in link as a form post, with extra headers; returns the status. */
+async function askForLink(email: string, headers: Record<string, string>) {
+	const api = await newRequest.newContext({ baseURL: ORIGIN });
+	const res = await api.post('/signin', {
+		form: { email, next: '' },
+		headers: { origin: ORIGIN, ...headers },
+		maxRedirects: 0
+	});
+	await api.dispose();
+	return res.status();
+}
+
+async function linksIn(email: string, since: string): Promise<string[]> {
+	const mail = await waitForMail(email, /sign-in link/i, since);
+	return [...mail.text.matchAll(/https?:\/\/[^\s<>"]+/g)].map((m) => m[0]);
+}
+
+test.describe('the sign-in link names Envelo\u2019s own origin', () => {
+	test.afterAll(async () => {
+		if (created.length) await db()('users').whereIn('email', created).del();
+	});
+
+	const forged: [string, Record<string, string>][] = [
+		['x-forwarded-host', { 'x-forwarded-host': 'evil.example.test' }],
+		['x-forwarded-host-and-proto', { 'x-forwarded-host': 'evil.example.test', 'x-forwarded-proto': 'https' }],
+		['forwarded', { forwarded: 'host=evil.example.test;proto=https' }]
+	];
+	for (const [tag, headers] of forged) {
+		test(`a ${tag} header does not change the link`, async () => {
+			const email = await freshMember(tag);
+			const since = new Date(Date.now() - 1000).toISOString();
+			const status = await askForLink(email, headers);
+			expect(status).toBeLessThan(400);
+			const links = await linksIn(email, since);
+			expect(links.length).toBeGreaterThan(0);
+			for (const link of links) {
+				expect(new URL(link).origin).toBe(ORIGIN);
+				expect(link).not.toContain('evil.example.test');
+			}
+		});
+	}
+
+	test('a request naming another Host is refused, and no e-mail goes out', async () => {
+		const email = await freshMember('host');
+		const status = await askForLink(email, { host: 'evil.example.test' });
+		expect(status).toBe(421);
+		await new Promise((r) => setTimeout(r, 500));
+		const list = await (await fetch(`${INBOX}/api/messages?to=${encodeURIComponent(email)}`)).json();
+		expect(list).toHaveLength(0);
+		// Nothing was recorded either: the refusal came before the sign-in route.
+		const attempts = await db()('sign_in_attempts').where({ email }).count<{ count: string }[]>('* as count');
+		expect(Number(attempts[0].count)).toBe(0);
+	});
+
+	test('a page asked for under another host name is sent to the configured origin', async () => {
+		const api = await newRequest.newContext({ baseURL: ORIGIN });
+		const res = await api.get('/signin?next=%2Fdwellings', {
+			headers: { host: 'evil.example.test' },
+			maxRedirects: 0
+		});
+		expect(res.status()).toBe(308);
+		expect(res.headers()['location']).toBe(`${ORIGIN}/signin?next=%2Fdwellings`);
+		await api.dispose();
+	});
+});
