@@ -5,7 +5,7 @@
 import knex from 'knex';
 import { randomUUID, randomBytes, createHash } from 'node:crypto';
 import { analyseElement, ENGINE_VERSION } from '../src/lib/physics';
-import { toElementInput, type StoredLayer } from '../src/lib/element-input';
+import { toElementInput, type StoredLayer } from '../src/lib/dwellings/element-input';
 import { loadDwellingRows, recomputeBatchWith } from '../src/lib/server/audit/recompute';
 
 const url = process.env.BENCH_DATABASE_URL;

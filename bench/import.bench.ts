@@ -41,7 +41,7 @@ const mb = (kb: number) => (kb / 1024).toFixed(0);
 const ms = (t: number) => `${t.toFixed(0)} ms`;
 
 const { previewMaterialsImport, commitMaterialsImport, forgetKeptPreviews } =
-	await import('../src/lib/server/csv/materials');
+	await import('../src/lib/server/library/import');
 const { readCsvStream } = await import('../src/lib/server/csv/read');
 const { db, authPool } = await import('../src/lib/server/db');
 const k = knex({ client: 'pg', connection: url });

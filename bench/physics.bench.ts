@@ -17,7 +17,7 @@ import {
 	createSeriesWork,
 	solveSeries,
 	type ElementInput
-} from '../src/lib/physics/index';
+} from '../src/lib/physics';
 
 const TARGET_FULL_US = 50;
 const TARGET_KERNEL_RATIO = 3;

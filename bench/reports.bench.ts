@@ -2,11 +2,11 @@
 // one-page pdfmake document with the same embedded fonts — measured in the same run. Targets: element
 // report < 300 ms, dwelling report < 1.5 s. Build-ups and climate are invented for the benchmark.
 import { analyseElement, type ElementInput } from '../src/lib/physics';
-import { toElementInput, type StoredBuildUp } from '../src/lib/element-input';
+import { toElementInput, type StoredBuildUp } from '../src/lib/dwellings/element-input';
 import { reportDocument } from '../src/lib/server/reports/document';
 import { renderPdf, FONT } from '../src/lib/server/reports/fonts';
 import type { ReportSnapshot, SnapshotElement } from '../src/lib/server/reports/snapshot';
-import type { ElementKind } from '../src/lib/element-kinds';
+import type { ElementKind } from '../src/lib/dwellings/kinds';
 
 const months = [
 	[1, 4.5, 87],

@@ -1,5 +1,5 @@
 // See https://svelte.dev/docs/kit/types#app.d.ts
-import type { Role } from '$lib/roles';
+import type { Role } from '$lib/members/roles';
 
 declare global {
 	namespace App {

@@ -3,7 +3,7 @@
 import { randomUUID, randomBytes, createHash } from 'node:crypto';
 import { tdb } from './factories';
 import { analyseElement, ENGINE_VERSION } from '../src/lib/physics';
-import { toElementInput, type StoredBuildUp, type StoredLayer } from '../src/lib/element-input';
+import { toElementInput, type StoredBuildUp, type StoredLayer } from '../src/lib/dwellings/element-input';
 
 /** Twelve invented months (demo values, not a real place). */
 export const TEST_MONTHS = [-1, 0, 3, 7, 12, 15, 17, 17, 13, 9, 4, 1].map((t, i) => ({

@@ -2,7 +2,7 @@
 // on another's leftovers.
 import { randomUUID, randomBytes } from 'node:crypto';
 import knex, { type Knex } from 'knex';
-import type { Role } from '../src/lib/roles';
+import type { Role } from '../src/lib/members/roles';
 
 export const hasDatabase = Boolean(process.env.TEST_DATABASE_URL);
 

@@ -11,7 +11,7 @@ import {
 	combinedMethod,
 	fastenerCorrection,
 	type ElementInput
-} from '../../src/lib/physics/index';
+} from '../../src/lib/physics';
 
 const timberFrame = (): ElementInput => ({
 	heatFlow: 'horizontal',

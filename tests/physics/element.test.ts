@@ -9,7 +9,7 @@ import {
 	ENGINE_VERSION,
 	parseElementInput,
 	type ElementInput
-} from '../../src/lib/physics/index';
+} from '../../src/lib/physics';
 import { coolClimate, firstNonFinite, lcg } from './helpers';
 
 const wall = (): ElementInput => ({

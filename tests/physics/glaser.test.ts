@@ -4,7 +4,7 @@
 // (tests/physics/helpers.ts: closed-form temperatures, extreme-point hull, slope differences) and
 // mass-balance checks. Climates and build-ups here are constructed inputs, not real sites.
 import { describe, expect, it } from 'vitest';
-import { analyseElement, type ElementInput, type ElementResult } from '../../src/lib/physics/index';
+import { analyseElement, type ElementInput, type ElementResult } from '../../src/lib/physics';
 import {
 	coldClimate,
 	constantClimate,

@@ -13,7 +13,7 @@ import {
 	slabOnGroundU,
 	solveThickness,
 	type ElementInput
-} from '../../src/lib/physics/index';
+} from '../../src/lib/physics';
 import { coolClimate } from './helpers';
 
 const concrete = { name: 'concrete slab', thicknessMm: 150, lambda: 1.5, mu: 100 }; // R = 0.15/1.5 = 0.1

@@ -2,7 +2,7 @@
 // the engine: the references are written separately (closed-form sums, a brute-force hull, a dense
 // solve) so that they check the engine rather than repeat it.
 import { Matrix, solve } from 'ml-matrix';
-import type { ElementInput } from '../../src/lib/physics/index';
+import type { ElementInput } from '../../src/lib/physics';
 
 /** Twelve months of one constant condition (constructed input, not a real site). */
 export function constantClimate(

@@ -6,7 +6,7 @@ import {
 	solveThickness,
 	solveThicknessDetailed,
 	type ElementInput
-} from '../../src/lib/physics/index';
+} from '../../src/lib/physics';
 
 const cavityWall = (): ElementInput => ({
 	heatFlow: 'horizontal',

@@ -11,7 +11,7 @@ import {
 	saturationPressure,
 	saturationTemperature,
 	temperatureFactor
-} from '../../src/lib/physics/index';
+} from '../../src/lib/physics';
 import { coolClimate, constantClimate } from './helpers';
 
 psychrolib.SetUnitSystem(psychrolib.SI);

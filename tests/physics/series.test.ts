@@ -2,7 +2,7 @@
 // (ml-matrix, LU) and against the closed-form series sum (resistances in series: common practice,
 // no source needed — ISO 6946:2017 6.7.1 sums layer resistances this way).
 import { describe, expect, it } from 'vitest';
-import { createSeriesWork, DELTA_0, solveSeries } from '../../src/lib/physics/index';
+import { createSeriesWork, DELTA_0, solveSeries } from '../../src/lib/physics';
 import { closedFormSeries, denseSeries, lcg } from './helpers';
 
 describe('solveSeries (Thomas algorithm on the assembled tridiagonal system)', () => {

@@ -10,20 +10,20 @@ import {
 	type ElementInput,
 	type ElementResult,
 	type Layer
-} from '../physics';
+} from '$lib/physics';
 import {
 	ELEMENT_KIND_LABELS,
 	GIVEN_U_KINDS,
 	type ElementKind,
 	type MaterialCategory
-} from '../element-kinds';
+} from '$lib/dwellings/kinds';
 import {
 	toElementInput,
 	type ClimateMonthValues as ClimateMonthRow,
 	type StoredBuildUp,
 	type StoredInternal,
 	type StoredLayer
-} from '../element-input';
+} from '$lib/dwellings/element-input';
 import type { Flag } from './flags';
 import {
 	MAX_INSULATION_LAYER_MM,

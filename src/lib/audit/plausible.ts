@@ -1,4 +1,4 @@
-import type { ElementKind, MaterialCategory } from '../element-kinds';
+import type { ElementKind, MaterialCategory } from '$lib/dwellings/kinds';
 
 /**
  * Plausible ranges an auditor checks entered values against. A value outside a range is not wrong by

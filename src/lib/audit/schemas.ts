@@ -1,6 +1,6 @@
 import { z } from 'zod';
 import { DECISIONS } from './flags';
-import { DWELLING_STATUSES } from '../element-kinds';
+import { DWELLING_STATUSES } from '$lib/dwellings/kinds';
 
 const dateText = z
 	.string()

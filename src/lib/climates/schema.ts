@@ -4,7 +4,7 @@
  */
 import { z } from 'zod';
 import { climateMonthSchema, layerSchema } from '$lib/physics';
-import { ELEMENT_KINDS, GIVEN_U_KINDS, type ElementKind } from '$lib/element-kinds';
+import { ELEMENT_KINDS, GIVEN_U_KINDS, type ElementKind } from '$lib/dwellings/kinds';
 
 const text = (label: string, max: number) =>
 	z

@@ -3,7 +3,7 @@
  * numbers survive) to stored layers and back, and rows pasted from a spreadsheet.
  */
 import Papa from 'papaparse';
-import type { StoredBuildUp, StoredGround, StoredLayer } from '$lib/element-input';
+import type { StoredBuildUp, StoredGround, StoredLayer } from '$lib/dwellings/element-input';
 import type { RoofSpace } from '$lib/physics';
 
 export type LayerMode = 'lambda' | 'resistance' | 'air';

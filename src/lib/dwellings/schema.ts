@@ -11,9 +11,9 @@ import {
 	ELEMENT_KINDS,
 	GIVEN_U_KINDS,
 	type ElementKind
-} from '$lib/element-kinds';
+} from '$lib/dwellings/kinds';
 import { internalSchema, layerSchema, parseElementInput, roofSpaceSchema } from '$lib/physics';
-import { toElementInput, type ClimateMonthValues, type StoredBuildUp } from '$lib/element-input';
+import { toElementInput, type ClimateMonthValues, type StoredBuildUp } from '$lib/dwellings/element-input';
 
 const text = (max: number, what = 'text') =>
 	z

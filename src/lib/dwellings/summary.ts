@@ -2,7 +2,7 @@
  * Pure helpers for a dwelling's fabric: pass/fail of each element against its limit and the totals
  * ΣU·A (fabric heat-loss coefficient, W/K) and the area-weighted mean U (W/(m²·K)).
  */
-import type { ElementKind } from '$lib/element-kinds';
+import type { ElementKind } from '$lib/dwellings/kinds';
 
 export type ElementBrief = {
 	id: string;

@@ -3,7 +3,7 @@
  * import and the seed alike. Pure TypeScript (relative imports only, so the benchmark can load it).
  */
 import { z } from 'zod';
-import { MATERIAL_CATEGORIES, MATERIAL_CATEGORY_LABELS, type MaterialCategory } from '../element-kinds';
+import { MATERIAL_CATEGORIES, MATERIAL_CATEGORY_LABELS, type MaterialCategory } from '$lib/dwellings/kinds';
 
 export { MATERIAL_CATEGORIES, MATERIAL_CATEGORY_LABELS, type MaterialCategory };
 

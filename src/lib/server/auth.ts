@@ -5,7 +5,7 @@ import type { RequestEvent } from '@sveltejs/kit';
 import { publicOrigin, setting } from './config';
 import { authPool } from './db';
 import { createTransport, mailFrom, smtpSettings } from './mail';
-import { SESSION_MAX_AGE_S, SESSION_UPDATE_AGE_S } from './members';
+import { SESSION_MAX_AGE_S, SESSION_UPDATE_AGE_S } from '$lib/server/members';
 
 /** How long a sign-in link stays valid. */
 export const SIGN_IN_LINK_MINUTES = 15;

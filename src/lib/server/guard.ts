@@ -1,5 +1,5 @@
 import { error, redirect, type RequestEvent } from '@sveltejs/kit';
-import type { Role } from '$lib/roles';
+import type { Role } from '$lib/members/roles';
 
 export type Member = {
 	user: NonNullable<App.Locals['user']>;

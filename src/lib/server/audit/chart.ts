@@ -3,7 +3,7 @@
  * kind, a dot per element, the limit as a line across the column. Used by the page and the PDF alike.
  */
 import { scaleBand, scaleLinear } from 'd3-scale';
-import { ELEMENT_KIND_LABELS, type ElementKind } from '$lib/element-kinds';
+import { ELEMENT_KIND_LABELS, type ElementKind } from '$lib/dwellings/kinds';
 
 export type UByKind = { kind: ElementKind; limit: number | null; values: { u: number; over: boolean }[] }[];
 

@@ -1,8 +1,8 @@
 /** The batch summary as CSV, one row per dwelling; text cells are neutralised against formula injection. */
-import { toCsv } from '../csv/write';
+import { toCsv } from '$lib/server/csv/write';
 import { FLAG_LABELS, ITEM_STATE_LABELS } from '$lib/audit/flags';
-import { DWELLING_STATUS_LABELS, type DwellingStatus } from '$lib/element-kinds';
-import type { ItemRow } from '../audits';
+import { DWELLING_STATUS_LABELS, type DwellingStatus } from '$lib/dwellings/kinds';
+import type { ItemRow } from '$lib/server/audit';
 
 export function batchCsv(items: ItemRow[]): string {
 	const headers = [

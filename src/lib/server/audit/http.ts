@@ -1,6 +1,6 @@
 import { error, json } from '@sveltejs/kit';
 import type { z } from 'zod';
-import { AuditError } from '../audits';
+import { AuditError } from '$lib/server/audit';
 
 /** The JSON body of a request, or a 400 that says why it is not usable. */
 export async function readJson(request: Request): Promise<unknown> {

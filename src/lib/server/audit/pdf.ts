@@ -6,8 +6,8 @@ import pdfmake from 'pdfmake';
 import type { Content, TDocumentDefinitions } from 'pdfmake/interfaces';
 import { CAUTIONS } from '$lib/physics';
 import { FLAG_LABELS, ITEM_STATE_LABELS, SEVERITY_LABELS } from '$lib/audit/flags';
-import { DWELLING_STATUS_LABELS, type DwellingStatus } from '$lib/element-kinds';
-import type { Batch, BatchSummary, ItemRow } from '../audits';
+import { DWELLING_STATUS_LABELS, type DwellingStatus } from '$lib/dwellings/kinds';
+import type { Batch, BatchSummary, ItemRow } from '$lib/server/audit';
 import { uChartSvg } from './chart';
 import { whenUtc } from '$lib/components/reports/when';
 

@@ -11,12 +11,12 @@ import {
 	type DwellingAudit,
 	type LimitTableInfo,
 	type RevisionInfo
-} from '../../audit/assess';
-import { FLAG_LABELS, type Flag } from '../../audit/flags';
-import type { BatchFilter } from '../../audit/schemas';
-import type { SamplingRule } from '../../audit/sampling';
-import type { ClimateMonthValues } from '../../element-input';
-import type { ElementKind } from '../../element-kinds';
+} from '$lib/audit/assess';
+import { FLAG_LABELS, type Flag } from '$lib/audit/flags';
+import type { BatchFilter } from '$lib/audit/schemas';
+import type { SamplingRule } from '$lib/audit/sampling';
+import type { ClimateMonthValues } from '$lib/dwellings/element-input';
+import type { ElementKind } from '$lib/dwellings/kinds';
 
 type Db = Knex | Knex.Transaction;
 

@@ -3,7 +3,7 @@
  * headed "reference" in a wider file. Problems come back with their line numbers; nothing is guessed.
  */
 import Papa from 'papaparse';
-import { decodeUpload, CsvFileError } from '../csv/read';
+import { decodeUpload, CsvFileError } from '$lib/server/csv/read';
 
 export type ReferenceLine = { line: number; reference: string };
 export type ReferenceIssue = { path: string; line?: number; message: string };

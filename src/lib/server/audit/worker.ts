@@ -4,9 +4,9 @@
  * One queued and one running job per batch at most (the queue's "stately" policy, keyed by batch).
  */
 import PgBoss from 'pg-boss';
-import { registerWorker } from '../workers';
-import { setting } from '../config';
-import { markQueued, recomputeBatch } from '../audits';
+import { registerWorker } from '$lib/server/workers';
+import { setting } from '$lib/server/config';
+import { markQueued, recomputeBatch } from '$lib/server/audit';
 
 export const AUDIT_QUEUE = 'audit-recompute';
 

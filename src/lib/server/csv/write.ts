@@ -4,7 +4,7 @@
  * prefixed with an apostrophe so they are shown, not run ("CSV injection", OWASP; common practice).
  */
 import Papa from 'papaparse';
-import { FORMULA_START } from '../../library/schema';
+import { FORMULA_START } from '$lib/library/schema';
 
 export type Cell = string | number | boolean | null | undefined;
 

@@ -1,20 +1,20 @@
 /** Request schemas and replies shared by the report pages and the JSON API. */
 import { json, error } from '@sveltejs/kit';
 import { z } from 'zod';
-import { ReportError } from '../reports';
-import type { Role } from '$lib/roles';
+import { ReportError } from '$lib/server/reports';
+import type { Role } from '$lib/members/roles';
 
 /** Who may issue and e-mail reports; every member may read them. */
 export const ISSUE_ROLES: Role[] = ['assessor', 'admin'];
 
-export { issueSchema, emailSchema } from './schemas';
+export { issueSchema, emailSchema } from '$lib/reports/schema';
 
 /** Issues of a zod error as `{ path, message }`. */
 export function zodIssues(e: z.ZodError) {
 	return e.issues.map((i) => ({ path: i.path.map(String).join('.') || '(body)', message: i.message }));
 }
 
-export { publicOrigin } from '../config';
+export { publicOrigin } from '$lib/server/config';
 
 /** Expected refusals as JSON; anything else goes on to handleError (500 with an error id). */
 export function apiFailure(e: unknown): Response {

@@ -5,7 +5,7 @@
 import { scaleLinear } from 'd3-scale';
 import type { ElementResult } from '$lib/physics';
 import { FONT } from './fonts';
-import { fx, monthName, trim } from './format';
+import { fx, monthName, trim } from '$lib/format';
 
 export const CHART_COLOURS = {
 	ink: '#23211d',

@@ -5,11 +5,11 @@
  */
 import type { Content, TDocumentDefinitions, CustomTableLayout, TableCell } from 'pdfmake/interfaces';
 import { CAUTIONS, type ElementResult, type LayerResult } from '$lib/physics';
-import { ELEMENT_KIND_LABELS } from '$lib/element-kinds';
-import type { StoredLayer } from '$lib/element-input';
+import { ELEMENT_KIND_LABELS } from '$lib/dwellings/kinds';
+import type { StoredLayer } from '$lib/dwellings/element-input';
 import { FONT } from './fonts';
 import { temperatureChart, vapourChart, CHART_COLOURS } from './charts';
-import { fx, trim, pct, monthName, longDate, MONTHS } from './format';
+import { fx, trim, pct, monthName, longDate, MONTHS } from '$lib/format';
 import type { ReportSnapshot, SnapshotElement } from './snapshot';
 
 /** "ABCD-EFGH-JK": the code as the screens show it (the verify page takes it with or without dashes). */

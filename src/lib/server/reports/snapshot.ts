@@ -4,8 +4,8 @@
  * snapshot prints the same numbers.
  */
 import type { ElementInput, ElementResult } from '$lib/physics';
-import type { ElementKind } from '$lib/element-kinds';
-import type { StoredBuildUp, StoredInternal } from '$lib/element-input';
+import type { ElementKind } from '$lib/dwellings/kinds';
+import type { StoredBuildUp, StoredInternal } from '$lib/dwellings/element-input';
 
 export type ReportScope = 'element' | 'dwelling';
 

@@ -1,5 +1,5 @@
 import { requireMember } from '$lib/server/guard';
-import { listBatches, listReturned } from '$lib/server/audits';
+import { listBatches, listReturned } from '$lib/server/audit';
 
 export async function load(event) {
 	const member = requireMember(event);

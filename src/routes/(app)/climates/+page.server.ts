@@ -1,10 +1,10 @@
 import { fail, redirect } from '@sveltejs/kit';
 import { requireMember, requireRole } from '$lib/server/guard';
 import { createClimate, listClimates } from '$lib/server/climates';
-import { parseClimateCsv } from '$lib/server/csv/climates';
+import { parseClimateCsv } from '$lib/server/climates/import';
 import { climateInputSchema } from '$lib/climates/schema';
 import { climateFromForm, climateFormValues, formErrors } from '$lib/climates/form';
-import { ConflictError } from '$lib/climates/errors';
+import { ConflictError } from '$lib/server/errors';
 
 export const load = async (event) => {
 	const member = requireMember(event);

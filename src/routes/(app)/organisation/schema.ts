@@ -1,5 +1,5 @@
 import { z } from 'zod';
-import { ROLES } from '$lib/roles';
+import { ROLES } from '$lib/members/roles';
 
 export const inviteSchema = z.object({
 	email: z.email('Enter an e-mail address such as name@example.test.').max(254),

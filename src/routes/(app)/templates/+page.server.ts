@@ -1,7 +1,7 @@
 import { error } from '@sveltejs/kit';
 import { requireMember } from '$lib/server/guard';
 import { listTemplates } from '$lib/server/templates';
-import { ELEMENT_KINDS, type ElementKind } from '$lib/element-kinds';
+import { ELEMENT_KINDS, type ElementKind } from '$lib/dwellings/kinds';
 import { templateU } from './_u-value';
 
 export const load = async (event) => {

@@ -1,5 +1,5 @@
 import { analyseElement, parseElementInput } from '$lib/physics';
-import { DEFAULT_HEAT_FLOW, type ElementKind } from '$lib/element-kinds';
+import { DEFAULT_HEAT_FLOW, type ElementKind } from '$lib/dwellings/kinds';
 import type { BuildUp } from '$lib/climates/schema';
 
 /**

@@ -1,6 +1,6 @@
 import { error, fail } from '@sveltejs/kit';
 import { requireMember, requireRole } from '$lib/server/guard';
-import { batchSummary, getBatch, listItems } from '$lib/server/audits';
+import { batchSummary, getBatch, listItems } from '$lib/server/audit';
 import { enqueueRecompute } from '$lib/server/audit/worker';
 import { uChartSvg } from '$lib/server/audit/chart';
 

@@ -1,10 +1,10 @@
 import { fail, redirect } from '@sveltejs/kit';
 import { requireRole } from '$lib/server/guard';
-import { AuditError, createBatch, listAssessors, listProgrammes } from '$lib/server/audits';
+import { AuditError, createBatch, listAssessors, listProgrammes } from '$lib/server/audit';
 import { enqueueRecompute } from '$lib/server/audit/worker';
 import { parseReferenceFile, parseReferenceText, type ReferenceLine } from '$lib/server/audit/references';
 import { newBatchSchema } from '$lib/audit/schemas';
-import { DWELLING_STATUSES } from '$lib/element-kinds';
+import { DWELLING_STATUSES } from '$lib/dwellings/kinds';
 
 export async function load(event) {
 	const member = requireRole(event, 'supervisor', 'admin');

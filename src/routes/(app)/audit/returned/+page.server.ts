@@ -1,6 +1,6 @@
 import { fail } from '@sveltejs/kit';
 import { requireMember } from '$lib/server/guard';
-import { AuditError, listReturned, resubmitItem } from '$lib/server/audits';
+import { AuditError, listReturned, resubmitItem } from '$lib/server/audit';
 import { resubmitSchema } from '$lib/audit/schemas';
 
 export async function load(event) {

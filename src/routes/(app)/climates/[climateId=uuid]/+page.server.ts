@@ -3,7 +3,7 @@ import { requireMember, requireRole } from '$lib/server/guard';
 import { deleteClimate, getClimate, getClimateUsage, updateClimate } from '$lib/server/climates';
 import { climateInputSchema } from '$lib/climates/schema';
 import { climateFromForm, climateFormValues, formErrors } from '$lib/climates/form';
-import { ConflictError } from '$lib/climates/errors';
+import { ConflictError } from '$lib/server/errors';
 
 export const load = async (event) => {
 	const member = requireMember(event);

@@ -10,7 +10,12 @@ import {
 	updateDwelling,
 	WRITE_ROLES
 } from '$lib/server/dwellings';
-import { deleteElement, duplicateElement, listElementSummaries, reorderElements } from '$lib/server/elements';
+import {
+	deleteElement,
+	duplicateElement,
+	listElementSummaries,
+	reorderElements
+} from '$lib/server/dwellings/elements';
 import { copyFormSchema, dwellingFormSchema } from '$lib/dwellings/forms';
 import { ConflictError, NotFoundError, ValidationError } from '$lib/dwellings/errors';
 

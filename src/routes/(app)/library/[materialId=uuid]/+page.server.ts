@@ -1,11 +1,6 @@
 import { error, fail, type RequestEvent } from '@sveltejs/kit';
 import { requireMember, requireRole } from '$lib/server/guard';
-import {
-	getMaterial,
-	LibraryError,
-	listElementsUsingMaterial,
-	setMaterialStatus
-} from '$lib/server/materials';
+import { getMaterial, LibraryError, listElementsUsingMaterial, setMaterialStatus } from '$lib/server/library';
 
 export const load = async (event) => {
 	const member = requireMember(event);

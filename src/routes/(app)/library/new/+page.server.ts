@@ -1,6 +1,6 @@
 import { fail, redirect } from '@sveltejs/kit';
 import { requireRole } from '$lib/server/guard';
-import { createMaterial, LibraryError, valuesFromForm } from '$lib/server/materials';
+import { createMaterial, LibraryError, valuesFromForm } from '$lib/server/library';
 
 export const load = (event) => {
 	requireRole(event, 'assessor', 'admin');

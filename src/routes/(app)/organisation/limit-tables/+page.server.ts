@@ -3,7 +3,7 @@ import { requireMember, requireRole } from '$lib/server/guard';
 import { createLimitTable, listLimitTables } from '$lib/server/limit-tables';
 import { limitTableInputSchema } from '$lib/climates/schema';
 import { formErrors, limitTableFormValues, limitTableFromForm } from '$lib/climates/form';
-import { ConflictError } from '$lib/climates/errors';
+import { ConflictError } from '$lib/server/errors';
 
 export const load = async (event) => {
 	const member = requireMember(event);

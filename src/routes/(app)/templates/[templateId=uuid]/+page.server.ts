@@ -9,7 +9,7 @@ import {
 } from '$lib/server/templates';
 import { templatePatchSchema } from '$lib/climates/schema';
 import { formErrors } from '$lib/climates/form';
-import { ConflictError } from '$lib/climates/errors';
+import { ConflictError } from '$lib/server/errors';
 import { templateU } from '../_u-value';
 
 const NOT_FOUND = 'No such template in your organisation.';

@@ -1,9 +1,9 @@
 import { json } from '@sveltejs/kit';
 import { requireMember, requireRole } from '$lib/server/guard';
 import { createClimate, listClimates } from '$lib/server/climates';
-import { parseClimateCsv } from '$lib/server/csv/climates';
+import { parseClimateCsv } from '$lib/server/climates/import';
 import { climateInputSchema } from '$lib/climates/schema';
-import { invalid, readJson, refusal } from '$lib/climates/http';
+import { invalid, readJson, refusal } from '$lib/server/http';
 
 /** The organisation's climates. */
 export const GET = async (event) => {

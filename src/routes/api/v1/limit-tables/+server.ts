@@ -2,7 +2,7 @@ import { json } from '@sveltejs/kit';
 import { requireMember, requireRole } from '$lib/server/guard';
 import { createLimitTable, listLimitTables } from '$lib/server/limit-tables';
 import { limitTableInputSchema } from '$lib/climates/schema';
-import { invalid, readJson, refusal } from '$lib/climates/http';
+import { invalid, readJson, refusal } from '$lib/server/http';
 
 /** The organisation's limit tables, the default first. */
 export const GET = async (event) => {

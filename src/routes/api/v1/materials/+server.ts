@@ -1,6 +1,6 @@
 import { json } from '@sveltejs/kit';
 import { requireMember, requireRole } from '$lib/server/guard';
-import { createMaterial, listMaterials } from '$lib/server/materials';
+import { createMaterial, listMaterials } from '$lib/server/library';
 import { fieldIssues, listQuerySchema } from '$lib/library/schema';
 import { failure, readJson } from './respond';
 

@@ -1,7 +1,7 @@
 // Shared replies of the library API (not a route: no + prefix).
 import { json } from '@sveltejs/kit';
-import { LibraryError } from '$lib/server/materials';
-import { CsvFileError, ImportRefused } from '$lib/server/csv/materials';
+import { LibraryError } from '$lib/server/library';
+import { CsvFileError, ImportRefused } from '$lib/server/library/import';
 
 /** Turn an expected failure into its JSON reply; anything else is rethrown (500 with an error id). */
 export function failure(e: unknown): Response {

@@ -1,9 +1,9 @@
 import { error, json } from '@sveltejs/kit';
 import { requireMember, requireRole } from '$lib/server/guard';
 import { createTemplate, listTemplates } from '$lib/server/templates';
-import { ELEMENT_KINDS, type ElementKind } from '$lib/element-kinds';
+import { ELEMENT_KINDS, type ElementKind } from '$lib/dwellings/kinds';
 import { templateInputSchema } from '$lib/climates/schema';
-import { invalid, readJson, refusal } from '$lib/climates/http';
+import { invalid, readJson, refusal } from '$lib/server/http';
 
 /** The organisation's templates, optionally of one element kind (`?kind=`) or matching `?q=`. */
 export const GET = async (event) => {

@@ -1,6 +1,6 @@
 import { error } from '@sveltejs/kit';
 import { requireMember } from '$lib/server/guard';
-import { batchSummary, getBatch, listItems } from '$lib/server/audits';
+import { batchSummary, getBatch, listItems } from '$lib/server/audit';
 import { batchReportPdf } from '$lib/server/audit/pdf';
 import { logActivity } from '$lib/server/activity';
 

@@ -1,6 +1,6 @@
 import { error } from '@sveltejs/kit';
 import { requireMember } from '$lib/server/guard';
-import { getBatch, listItems } from '$lib/server/audits';
+import { getBatch, listItems } from '$lib/server/audit';
 import { batchCsv } from '$lib/server/audit/export';
 
 export async function GET(event) {

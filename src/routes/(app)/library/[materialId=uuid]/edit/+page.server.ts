@@ -1,6 +1,6 @@
 import { error, fail, redirect } from '@sveltejs/kit';
 import { requireRole } from '$lib/server/guard';
-import { getCurrentRevision, LibraryError, updateMaterial, valuesFromForm } from '$lib/server/materials';
+import { getCurrentRevision, LibraryError, updateMaterial, valuesFromForm } from '$lib/server/library';
 
 export const load = async (event) => {
 	const member = requireRole(event, 'assessor', 'admin');

@@ -12,7 +12,7 @@ import {
 } from '$lib/server/limit-tables';
 import { limitTableInputSchema } from '$lib/climates/schema';
 import { formErrors, limitTableFormValues, limitTableFromForm } from '$lib/climates/form';
-import { ConflictError } from '$lib/climates/errors';
+import { ConflictError } from '$lib/server/errors';
 
 const NOT_FOUND = 'No such limit table in your organisation.';
 

@@ -1,6 +1,6 @@
 import { json } from '@sveltejs/kit';
 import { requireMember, requireRole } from '$lib/server/guard';
-import { createBatch, listBatches } from '$lib/server/audits';
+import { createBatch, listBatches } from '$lib/server/audit';
 import { enqueueRecompute } from '$lib/server/audit/worker';
 import { newBatchSchema } from '$lib/audit/schemas';
 import { failure, readJson, validate } from '$lib/server/audit/http';

@@ -1,6 +1,6 @@
 import { json } from '@sveltejs/kit';
 import { requireMember } from '$lib/server/guard';
-import { listReturned } from '$lib/server/audits';
+import { listReturned } from '$lib/server/audit';
 
 /** Dwellings returned to the caller (admins: every returned dwelling of the organisation). */
 export async function GET(event) {

@@ -2,7 +2,7 @@ import { error, json } from '@sveltejs/kit';
 import { requireMember, requireRole } from '$lib/server/guard';
 import { deleteClimate, getClimate, getClimateUsage, updateClimate } from '$lib/server/climates';
 import { climateInputSchema } from '$lib/climates/schema';
-import { invalid, readJson, refusal } from '$lib/climates/http';
+import { invalid, readJson, refusal } from '$lib/server/http';
 
 const NOT_FOUND = 'No such climate in your organisation.';
 

@@ -1,7 +1,7 @@
 import { json } from '@sveltejs/kit';
 import { requireMember, requireRole } from '$lib/server/guard';
 import { WRITE_ROLES } from '$lib/server/dwellings';
-import { deleteElement, getElementContext, updateElement, withVerdict } from '$lib/server/elements';
+import { deleteElement, getElementContext, updateElement, withVerdict } from '$lib/server/dwellings/elements';
 import { handle, readJson, versionParam } from '$lib/dwellings/api';
 import { NotFoundError } from '$lib/dwellings/errors';
 

@@ -8,7 +8,7 @@ import {
 	updateLimitTable
 } from '$lib/server/limit-tables';
 import { limitTableInputSchema } from '$lib/climates/schema';
-import { invalid, readJson, refusal } from '$lib/climates/http';
+import { invalid, readJson, refusal } from '$lib/server/http';
 
 const NOT_FOUND = 'No such limit table in your organisation.';
 

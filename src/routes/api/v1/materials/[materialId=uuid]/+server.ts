@@ -1,6 +1,6 @@
 import { error, json } from '@sveltejs/kit';
 import { requireMember, requireRole } from '$lib/server/guard';
-import { getMaterial, updateMaterial } from '$lib/server/materials';
+import { getMaterial, updateMaterial } from '$lib/server/library';
 import { failure, readJson } from '../respond';
 
 /** One material: its current revision's values and every revision, newest first. */

@@ -1,6 +1,6 @@
 import { requireMember } from '$lib/server/guard';
-import { listAllCurrent } from '$lib/server/materials';
-import { materialsToCsv } from '$lib/server/csv/materials';
+import { listAllCurrent } from '$lib/server/library';
+import { materialsToCsv } from '$lib/server/library/import';
 
 /** The whole library (current revisions) as CSV, in the columns the import reads. */
 export const GET = async (event) => {

@@ -11,7 +11,7 @@ import {
 	planCommit,
 	previewMaterialsImport,
 	type ColumnMapping
-} from '$lib/server/csv/materials';
+} from '$lib/server/library/import';
 import { failure } from '../respond';
 
 const paramsSchema = z.object({

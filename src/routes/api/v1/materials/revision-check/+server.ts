@@ -1,7 +1,7 @@
 import { json } from '@sveltejs/kit';
 import { z } from 'zod';
 import { requireMember } from '$lib/server/guard';
-import { findNewerRevisions } from '$lib/server/materials';
+import { findNewerRevisions } from '$lib/server/library';
 import { fieldIssues } from '$lib/library/schema';
 import { readJson } from '../respond';
 

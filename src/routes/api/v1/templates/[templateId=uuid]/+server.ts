@@ -2,7 +2,7 @@ import { error, json } from '@sveltejs/kit';
 import { requireMember, requireRole } from '$lib/server/guard';
 import { deleteTemplate, getTemplate, updateTemplate } from '$lib/server/templates';
 import { templatePatchSchema } from '$lib/climates/schema';
-import { invalid, readJson, refusal } from '$lib/climates/http';
+import { invalid, readJson, refusal } from '$lib/server/http';
 
 const NOT_FOUND = 'No such template in your organisation.';
 

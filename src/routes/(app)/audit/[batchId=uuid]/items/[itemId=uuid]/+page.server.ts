@@ -1,6 +1,6 @@
 import { error, fail } from '@sveltejs/kit';
 import { requireMember, requireRole } from '$lib/server/guard';
-import { AuditError, decideItem, getItem, listItems, type ItemRow } from '$lib/server/audits';
+import { AuditError, decideItem, getItem, listItems, type ItemRow } from '$lib/server/audit';
 import { decisionSchema } from '$lib/audit/schemas';
 
 const rank: Record<string, number> = {

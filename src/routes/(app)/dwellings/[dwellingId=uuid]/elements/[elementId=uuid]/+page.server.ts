@@ -1,6 +1,6 @@
 import { error } from '@sveltejs/kit';
 import { requireMember } from '$lib/server/guard';
-import { getElementContext } from '$lib/server/elements';
+import { getElementContext } from '$lib/server/dwellings/elements';
 import { listEditorClimates } from '$lib/server/dwellings';
 
 export const load = async (event) => {

@@ -1,9 +1,9 @@
 import { error } from '@sveltejs/kit';
 import { requireRole } from '$lib/server/guard';
 import { WRITE_ROLES } from '$lib/server/dwellings';
-import { getDwellingContext } from '$lib/server/elements';
+import { getDwellingContext } from '$lib/server/dwellings/elements';
 import { listEditorClimates } from '$lib/server/dwellings';
-import { ELEMENT_KINDS, type ElementKind } from '$lib/element-kinds';
+import { ELEMENT_KINDS, type ElementKind } from '$lib/dwellings/kinds';
 import { NotFoundError } from '$lib/dwellings/errors';
 
 export const load = async (event) => {

@@ -1,6 +1,6 @@
 import { error, json } from '@sveltejs/kit';
 import { requireMember } from '$lib/server/guard';
-import { getBatch } from '$lib/server/audits';
+import { getBatch } from '$lib/server/audit';
 
 /** The batch with its progress (the page polls this every second while a recompute runs). */
 export async function GET(event) {

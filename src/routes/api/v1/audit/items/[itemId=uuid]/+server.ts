@@ -1,6 +1,6 @@
 import { error, json } from '@sveltejs/kit';
 import { requireMember } from '$lib/server/guard';
-import { getItem } from '$lib/server/audits';
+import { getItem } from '$lib/server/audit';
 
 /** One audited dwelling: flags, recomputed figures beside the issued ones, and its history. */
 export async function GET(event) {

@@ -1,7 +1,7 @@
 import { json } from '@sveltejs/kit';
 import { requireMember, requireRole } from '$lib/server/guard';
 import { getDwelling, WRITE_ROLES } from '$lib/server/dwellings';
-import { createElement, listElementSummaries } from '$lib/server/elements';
+import { createElement, listElementSummaries } from '$lib/server/dwellings/elements';
 import { handle, readJson } from '$lib/dwellings/api';
 import { NotFoundError } from '$lib/dwellings/errors';
 

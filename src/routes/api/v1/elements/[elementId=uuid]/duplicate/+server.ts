@@ -1,7 +1,7 @@
 import { json } from '@sveltejs/kit';
 import { requireRole } from '$lib/server/guard';
 import { WRITE_ROLES } from '$lib/server/dwellings';
-import { duplicateElement } from '$lib/server/elements';
+import { duplicateElement } from '$lib/server/dwellings/elements';
 import { handle } from '$lib/dwellings/api';
 
 /** A copy of the element in the same dwelling. */

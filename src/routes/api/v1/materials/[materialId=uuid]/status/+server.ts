@@ -1,7 +1,7 @@
 import { json } from '@sveltejs/kit';
 import { z } from 'zod';
 import { requireRole } from '$lib/server/guard';
-import { getCurrentRevision, setMaterialStatus } from '$lib/server/materials';
+import { getCurrentRevision, setMaterialStatus } from '$lib/server/library';
 import { fieldIssues } from '$lib/library/schema';
 import { failure, readJson } from '../../respond';
 

@@ -1,6 +1,6 @@
 import { error, json } from '@sveltejs/kit';
 import { requireMember } from '$lib/server/guard';
-import { getBatch, listItems } from '$lib/server/audits';
+import { getBatch, listItems } from '$lib/server/audit';
 
 export async function GET(event) {
 	const member = requireMember(event);

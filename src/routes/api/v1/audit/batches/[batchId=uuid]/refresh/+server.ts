@@ -1,6 +1,6 @@
 import { error, json } from '@sveltejs/kit';
 import { requireRole } from '$lib/server/guard';
-import { getBatch } from '$lib/server/audits';
+import { getBatch } from '$lib/server/audit';
 import { enqueueRecompute } from '$lib/server/audit/worker';
 
 /** Recompute the batch again with today's engine and library (queued). */

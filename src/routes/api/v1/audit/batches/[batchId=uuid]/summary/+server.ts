@@ -1,6 +1,6 @@
 import { error, json } from '@sveltejs/kit';
 import { requireMember } from '$lib/server/guard';
-import { batchSummary, getBatch } from '$lib/server/audits';
+import { batchSummary, getBatch } from '$lib/server/audit';
 
 export async function GET(event) {
 	const member = requireMember(event);

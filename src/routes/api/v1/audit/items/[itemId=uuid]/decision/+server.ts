@@ -1,6 +1,6 @@
 import { json } from '@sveltejs/kit';
 import { requireRole } from '$lib/server/guard';
-import { decideItem } from '$lib/server/audits';
+import { decideItem } from '$lib/server/audit';
 import { decisionSchema } from '$lib/audit/schemas';
 import { failure, readJson, validate } from '$lib/server/audit/http';
 

@@ -1,6 +1,6 @@
 import { json } from '@sveltejs/kit';
 import { requireMember } from '$lib/server/guard';
-import { resubmitItem } from '$lib/server/audits';
+import { resubmitItem } from '$lib/server/audit';
 import { resubmitSchema } from '$lib/audit/schemas';
 import { failure, readJson, validate } from '$lib/server/audit/http';
 

@@ -1,7 +1,7 @@
 import { json } from '@sveltejs/kit';
 import { requireRole } from '$lib/server/guard';
 import { WRITE_ROLES } from '$lib/server/dwellings';
-import { reorderElements } from '$lib/server/elements';
+import { reorderElements } from '$lib/server/dwellings/elements';
 import { handle, readJson } from '$lib/dwellings/api';
 
 /**

@@ -1,0 +1,179 @@
+import { db, type Db } from '$lib/server/db';
+import { logActivity } from '$lib/server/activity';
+import type { Member } from '$lib/server/guard';
+import { climateInputSchema, type ClimateInput } from '$lib/climates/schema';
+import { ConflictError, pgCode, PG_FOREIGN_KEY_VIOLATION, PG_UNIQUE_VIOLATION } from '$lib/server/errors';
+
+/** An organisation's climates: twelve months of external conditions with their source. */
+
+export async function listClimates(organisationId: string): Promise<ClimateSummary[]> {
+	const rows = await db('climates as c')
+		.where('c.organisation_id', organisationId)
+		.orderBy('c.name')
+		.select(
+			'c.*',
+			db.raw(
+				'(SELECT count(*) FROM dwellings d WHERE d.climate_id = c.id AND d.organisation_id = c.organisation_id) AS dwellings_using'
+			),
+			db.raw(
+				'(SELECT count(*) FROM elements e WHERE e.climate_id = c.id AND e.organisation_id = c.organisation_id) AS elements_using'
+			)
+		);
+	return rows.map((r) => ({
+		...toClimate(r),
+		usage: { dwellings: Number(r.dwellings_using), elements: Number(r.elements_using) }
+	}));
+}
+
+export async function getClimate(organisationId: string, id: string, trx: Db = db): Promise<Climate | null> {
+	const row = await trx('climates').where({ organisation_id: organisationId, id }).first();
+	return row ? toClimate(row) : null;
+}
+
+/** How many dwellings and elements name the climate. */
+export async function getClimateUsage(organisationId: string, id: string, trx: Db = db) {
+	const [d] = await trx('dwellings')
+		.where({ organisation_id: organisationId, climate_id: id })
+		.count({ n: '*' });
+	const [e] = await trx('elements')
+		.where({ organisation_id: organisationId, climate_id: id })
+		.count({ n: '*' });
+	return { dwellings: Number(d.n), elements: Number(e.n) };
+}
+
+export async function createClimate(member: Member, input: ClimateInput, trx?: Db): Promise<Climate> {
+	const data = climateInputSchema.parse(input);
+	const write = async (t: Db) => {
+		try {
+			const [row] = await t('climates')
+				.insert({
+					organisation_id: member.organisationId,
+					name: data.name,
+					source: data.source,
+					illustrative: data.illustrative,
+					months: JSON.stringify(data.months)
+				})
+				.returning('*');
+			await logActivity(
+				{
+					organisationId: member.organisationId,
+					userId: member.user.id,
+					action: 'create',
+					entity: 'climate',
+					entityId: row.id,
+					details: { name: data.name }
+				},
+				t
+			);
+			return toClimate(row);
+		} catch (e) {
+			throw nameTaken(e, data.name);
+		}
+	};
+	return trx ? write(trx) : db.transaction(write);
+}
+
+export async function updateClimate(
+	member: Member,
+	id: string,
+	input: ClimateInput
+): Promise<Climate | null> {
+	const data = climateInputSchema.parse(input);
+	return db.transaction(async (t) => {
+		try {
+			const [row] = await t('climates')
+				.where({ organisation_id: member.organisationId, id })
+				.update({
+					name: data.name,
+					source: data.source,
+					illustrative: data.illustrative,
+					months: JSON.stringify(data.months),
+					updated_at: t.fn.now()
+				})
+				.returning('*');
+			if (!row) return null;
+			await logActivity(
+				{
+					organisationId: member.organisationId,
+					userId: member.user.id,
+					action: 'update',
+					entity: 'climate',
+					entityId: id,
+					details: { name: data.name }
+				},
+				t
+			);
+			return toClimate(row);
+		} catch (e) {
+			throw nameTaken(e, data.name);
+		}
+	});
+}
+
+/** Deletes a climate no dwelling or element names; returns false when there is no such climate. */
+export async function deleteClimate(member: Member, id: string): Promise<boolean> {
+	return db.transaction(async (t) => {
+		const row = await t('climates').where({ organisation_id: member.organisationId, id }).forUpdate().first();
+		if (!row) return false;
+		const usage = await getClimateUsage(member.organisationId, id, t);
+		if (usage.dwellings + usage.elements > 0) throw inUse(row.name, usage);
+		try {
+			await t('climates').where({ organisation_id: member.organisationId, id }).delete();
+		} catch (e) {
+			if (pgCode(e) === PG_FOREIGN_KEY_VIOLATION) throw inUse(row.name, usage);
+			throw e;
+		}
+		await logActivity(
+			{
+				organisationId: member.organisationId,
+				userId: member.user.id,
+				action: 'delete',
+				entity: 'climate',
+				entityId: id,
+				details: { name: row.name }
+			},
+			t
+		);
+		return true;
+	});
+}
+
+function inUse(name: string, usage: { dwellings: number; elements: number }) {
+	const parts = [];
+	if (usage.dwellings) parts.push(`${usage.dwellings} dwelling${usage.dwellings === 1 ? '' : 's'}`);
+	if (usage.elements) parts.push(`${usage.elements} element${usage.elements === 1 ? '' : 's'}`);
+	return new ConflictError(
+		`The climate "${name}" is used by ${parts.join(' and ') || 'a dwelling or element'}; choose another climate for them before deleting it.`
+	);
+}
+
+function nameTaken(e: unknown, name: string) {
+	if (pgCode(e) === PG_UNIQUE_VIOLATION) {
+		return new ConflictError(`A climate named "${name}" already exists; choose another name.`);
+	}
+	return e;
+}
+
+function toClimate(r: Record<string, any>): Climate {
+	return {
+		id: r.id,
+		name: r.name,
+		source: r.source,
+		illustrative: r.illustrative,
+		months: r.months,
+		createdAt: new Date(r.created_at).toISOString(),
+		updatedAt: new Date(r.updated_at).toISOString()
+	};
+}
+
+export type ClimateMonth = { month: number; temperature: number; relativeHumidity: number };
+export type Climate = {
+	id: string;
+	name: string;
+	source: string;
+	illustrative: boolean;
+	months: ClimateMonth[];
+	createdAt: string;
+	updatedAt: string;
+};
+export type ClimateSummary = Climate & { usage: { dwellings: number; elements: number } };

@@ -1,0 +1,643 @@
+import { db, type Db } from '$lib/server/db';
+import { logActivity } from '$lib/server/activity';
+import type { Member } from '$lib/server/guard';
+import {
+	dwellingCopySchema,
+	dwellingFieldsSchema,
+	dwellingListQuerySchema,
+	dwellingUpdateSchema,
+	type DwellingListQuery
+} from '$lib/dwellings/schema';
+import {
+	ConflictError,
+	NotFoundError,
+	PG_UNIQUE_VIOLATION,
+	STALE_MESSAGE,
+	ValidationError,
+	pgCode,
+	type FieldIssue
+} from '$lib/dwellings/errors';
+import type { DwellingStatus, ElementKind } from '$lib/dwellings/kinds';
+import { summariseElements, type ElementSummaryRow } from '$lib/dwellings/summary';
+import { listElementSummaries, toElementBrief } from './elements';
+import { getClimate } from '$lib/server/climates';
+import { getDefaultLimitTable, getLimitTable } from '$lib/server/limit-tables';
+
+/** Roles that create and change dwellings and elements; supervisors read only. */
+export const WRITE_ROLES = ['assessor', 'admin'] as const;
+
+/* ------------------------------------------------------------ reads */
+
+const SORT_COLUMNS: Record<DwellingListQuery['sort'], string> = {
+	reference: 'd.reference',
+	address: 'd.address',
+	status: 'd.status',
+	updated: 'd.updated_at',
+	assessor: 'u.name'
+};
+
+/** A page of the organisation's dwellings, searched by reference, address, programme and client. */
+export async function listDwellings(organisationId: string, rawQuery: unknown): Promise<DwellingPage> {
+	const parsed = dwellingListQuerySchema.safeParse(rawQuery ?? {});
+	if (!parsed.success) throw new ValidationError(zodIssues(parsed.error.issues));
+	const q = parsed.data;
+	const base = db('dwellings as d')
+		.leftJoin('users as u', 'u.id', 'd.assessor_id')
+		.where('d.organisation_id', organisationId);
+	if (q.q) {
+		const like = `%${q.q.replace(/[\\%_]/g, (c) => '\\' + c)}%`;
+		base.andWhere((w) =>
+			w
+				.whereILike('d.reference', like)
+				.orWhereILike('d.address', like)
+				.orWhereILike('d.programme', like)
+				.orWhereILike('d.client_name', like)
+		);
+	}
+	if (q.status === 'active') base.andWhereNot('d.status', 'archived');
+	else if (q.status && q.status !== 'all') base.andWhere('d.status', q.status);
+	if (q.assessorId) base.andWhere('d.assessor_id', q.assessorId);
+
+	const [{ n }] = await base.clone().count({ n: '*' });
+	const rows = await base
+		.clone()
+		.select(
+			'd.*',
+			'u.name as assessor_name',
+			'u.email as assessor_email',
+			db.raw(
+				'(SELECT count(*) FROM elements e WHERE e.dwelling_id = d.id AND e.organisation_id = d.organisation_id) AS element_count'
+			)
+		)
+		.orderByRaw(`${SORT_COLUMNS[q.sort]} ${q.dir} NULLS LAST, d.reference ASC`)
+		.limit(q.pageSize)
+		.offset((q.page - 1) * q.pageSize);
+	return {
+		items: rows.map((r) => ({ ...toDwelling(r), elementCount: Number(r.element_count) })),
+		total: Number(n),
+		page: q.page,
+		pageSize: q.pageSize
+	};
+}
+
+export async function getDwelling(
+	organisationId: string,
+	id: string,
+	trx: Db = db
+): Promise<Dwelling | null> {
+	const row = await trx('dwellings as d')
+		.leftJoin('users as u', 'u.id', 'd.assessor_id')
+		.where({ 'd.organisation_id': organisationId, 'd.id': id })
+		.first('d.*', 'u.name as assessor_name', 'u.email as assessor_email');
+	return row ? toDwelling(row) : null;
+}
+
+/** The dwelling with its elements, limit table, climate and fabric totals (ΣU·A, area-weighted U). */
+export async function getDwellingOverview(
+	organisationId: string,
+	id: string
+): Promise<DwellingOverview | null> {
+	const dwelling = await getDwelling(organisationId, id);
+	if (!dwelling) return null;
+	const [elements, limitTable, climate] = await Promise.all([
+		listElementSummaries(organisationId, id),
+		getLimitTableFor(organisationId, dwelling.limitTableId),
+		dwelling.climateId ? getClimateBrief(organisationId, dwelling.climateId) : Promise.resolve(null)
+	]);
+	const { rows, totals } = summariseElements(elements, limitTable?.limits ?? null);
+	return { dwelling, elements: rows, totals, limitTable, climate };
+}
+
+/** The supervisor's latest return of the dwelling for correction (comment, who, when, which batch), or null. */
+export async function getReturnNote(organisationId: string, dwellingId: string, trx: Db = db) {
+	const row = await trx('audit_items as i')
+		.join('audit_batches as b', 'b.id', 'i.batch_id')
+		.leftJoin('users as u', 'u.id', 'i.decided_by')
+		.where({ 'i.organisation_id': organisationId, 'i.dwelling_id': dwellingId, 'i.decision': 'returned' })
+		.orderBy('i.decided_at', 'desc')
+		.first(
+			'i.id',
+			'i.batch_id',
+			'i.comment',
+			'i.decided_at',
+			'b.name as batch_name',
+			'u.name as decided_by_name',
+			'u.email as decided_by_email'
+		);
+	if (!row) return null;
+	return {
+		itemId: row.id as string,
+		batchId: row.batch_id as string,
+		batchName: row.batch_name as string,
+		comment: (row.comment ?? '') as string,
+		decidedByName: ((row.decided_by_name ?? row.decided_by_email) as string | null) ?? null,
+		decidedAt: row.decided_at ? new Date(row.decided_at).toISOString() : null
+	};
+}
+export type ReturnNote = NonNullable<Awaited<ReturnType<typeof getReturnNote>>>;
+
+/**
+ * Everything the dwelling page shows, in one round trip to PostgreSQL: the same answer as
+ * {@link getDwellingOverview} plus {@link listDwellingOptions}, read by one statement of sub-selects
+ * (the page is opened often; eight queries cost more than the page itself). Null when the dwelling is
+ * not the organisation's.
+ */
+export async function getDwellingPage(
+	organisationId: string,
+	id: string
+): Promise<(DwellingOverview & { options: Awaited<ReturnType<typeof listDwellingOptions>> }) | null> {
+	const { rows } = await db.raw(
+		`WITH d AS (
+			SELECT d.*, u.name AS assessor_name, u.email AS assessor_email
+			FROM dwellings d LEFT JOIN users u ON u.id = d.assessor_id
+			WHERE d.organisation_id = :org AND d.id = :id
+		)
+		SELECT
+			(SELECT to_jsonb(d) FROM d) AS dwelling,
+			(SELECT coalesce(jsonb_agg(e ORDER BY e.position, e.created_at), '[]'::jsonb) FROM (
+				SELECT x.id, x.position, x.name, x.kind, x.area, x.heat_flow, x.given_u, x.engine_version,
+					x.version, x.updated_at, x.created_at,
+					x.last_result->'uValue' AS u_value,
+					x.last_result->'uValueRounded' AS u_value_rounded,
+					x.last_result->'condensation'->'outcome' AS moisture,
+					x.last_result->'surface'->'pass' AS surface_pass
+				FROM elements x, d
+				WHERE x.organisation_id = :org AND x.dwelling_id = d.id
+			) e) AS elements,
+			(SELECT to_jsonb(t) FROM limit_tables t, d
+				WHERE t.organisation_id = :org
+					AND (CASE WHEN d.limit_table_id IS NULL THEN t.is_default ELSE t.id = d.limit_table_id END)
+				LIMIT 1) AS limit_table,
+			(SELECT jsonb_build_object('id', c.id, 'name', c.name, 'source', c.source,
+					'illustrative', c.illustrative, 'months', c.months)
+				FROM climates c, d WHERE c.organisation_id = :org AND c.id = d.climate_id) AS climate,
+			(SELECT coalesce(jsonb_agg(jsonb_build_object('id', c.id, 'name', c.name, 'illustrative', c.illustrative)
+					ORDER BY c.name), '[]'::jsonb)
+				FROM climates c WHERE c.organisation_id = :org AND EXISTS (SELECT 1 FROM d)) AS climates,
+			(SELECT coalesce(jsonb_agg(jsonb_build_object('id', t.id, 'name', t.name, 'edition', t.edition,
+					'is_default', t.is_default) ORDER BY t.name), '[]'::jsonb)
+				FROM limit_tables t WHERE t.organisation_id = :org AND EXISTS (SELECT 1 FROM d)) AS limit_tables,
+			(SELECT coalesce(jsonb_agg(jsonb_build_object('id', u.id, 'name', u.name, 'email', u.email)
+					ORDER BY u.name), '[]'::jsonb)
+				FROM memberships m JOIN users u ON u.id = m.user_id
+				WHERE m.organisation_id = :org AND m.role IN ('assessor', 'admin') AND EXISTS (SELECT 1 FROM d)) AS assessors`,
+		{ org: organisationId, id }
+	);
+	const r = rows[0] as Record<string, unknown> | undefined;
+	if (!r || !r.dwelling) return null;
+	const dwelling = toDwelling(r.dwelling as Record<string, unknown>);
+	const t = r.limit_table as Record<string, unknown> | null;
+	const limitTable: LimitTableBrief | null = t
+		? {
+				id: t.id as string,
+				name: t.name as string,
+				edition: t.edition as string,
+				source: (t.source ?? null) as string | null,
+				isDefault: Boolean(t.is_default),
+				chosen: Boolean(dwelling.limitTableId),
+				limits: (t.limits ?? {}) as Partial<Record<ElementKind, number>>
+			}
+		: null;
+	const c = r.climate as Record<string, unknown> | null;
+	const climate: ClimateBrief | null = c
+		? {
+				id: c.id as string,
+				name: c.name as string,
+				source: c.source as string,
+				illustrative: Boolean(c.illustrative),
+				months: c.months as ClimateBrief['months']
+			}
+		: null;
+	const briefs = (r.elements as Record<string, unknown>[]).map(toElementBrief);
+	const { rows: elements, totals } = summariseElements(briefs, limitTable?.limits ?? null);
+	const options = {
+		climates: (r.climates as Record<string, unknown>[]).map((x) => ({
+			id: x.id as string,
+			name: x.name as string,
+			illustrative: Boolean(x.illustrative)
+		})),
+		limitTables: (r.limit_tables as Record<string, unknown>[]).map((x) => ({
+			id: x.id as string,
+			name: `${x.name} (${x.edition})`,
+			isDefault: Boolean(x.is_default)
+		})),
+		assessors: (r.assessors as Record<string, unknown>[]).map((x) => ({
+			id: x.id as string,
+			name: (x.name ?? x.email) as string,
+			email: x.email as string
+		}))
+	};
+	return { dwelling, elements, totals, limitTable, climate, options };
+}
+
+/** Members of the organisation who can be named as the dwelling's assessor. */
+export async function listAssessors(organisationId: string) {
+	const rows = await db('memberships as m')
+		.join('users as u', 'u.id', 'm.user_id')
+		.where('m.organisation_id', organisationId)
+		.whereIn('m.role', ['assessor', 'admin'])
+		.orderBy('u.name')
+		.select('u.id', 'u.name', 'u.email', 'm.role');
+	return rows.map((r) => ({
+		id: r.id as string,
+		name: (r.name ?? r.email) as string,
+		email: r.email as string
+	}));
+}
+
+/** The limit table that applies: the dwelling's choice, else the organisation's default. */
+export async function getLimitTableFor(organisationId: string, limitTableId: string | null, trx: Db = db) {
+	const table = limitTableId
+		? await getLimitTable(organisationId, limitTableId, trx)
+		: await getDefaultLimitTable(organisationId, trx);
+	if (!table) return null;
+	const { id, name, edition, source, isDefault, limits } = table;
+	return { id, name, edition, source, isDefault: Boolean(isDefault), chosen: Boolean(limitTableId), limits };
+}
+
+/** The climate's name, source and months (the brief the dwelling and element pages show). */
+export async function getClimateBrief(organisationId: string, climateId: string, trx: Db = db) {
+	const climate = await getClimate(organisationId, climateId, trx);
+	if (!climate) return null;
+	const { id, name, source, illustrative, months } = climate;
+	return { id, name, source, illustrative: Boolean(illustrative), months };
+}
+
+/** Options for the dwelling form: climates and limit tables of the organisation. */
+export async function listDwellingOptions(organisationId: string) {
+	const [climates, limitTables, assessors] = await Promise.all([
+		db('climates')
+			.where('organisation_id', organisationId)
+			.orderBy('name')
+			.select('id', 'name', 'illustrative'),
+		db('limit_tables')
+			.where('organisation_id', organisationId)
+			.orderBy('name')
+			.select('id', 'name', 'edition', 'is_default'),
+		listAssessors(organisationId)
+	]);
+	return {
+		climates: climates.map((c) => ({
+			id: c.id as string,
+			name: c.name as string,
+			illustrative: Boolean(c.illustrative)
+		})),
+		limitTables: limitTables.map((t) => ({
+			id: t.id as string,
+			name: `${t.name} (${t.edition})`,
+			isDefault: Boolean(t.is_default)
+		})),
+		assessors
+	};
+}
+
+/* ------------------------------------------------------------ writes */
+
+async function checkReferences(
+	organisationId: string,
+	data: { assessorId?: string | null; limitTableId?: string | null; climateId?: string | null },
+	trx: Db
+) {
+	const issues: FieldIssue[] = [];
+	if (data.assessorId) {
+		const m = await trx('memberships')
+			.where({ organisation_id: organisationId, user_id: data.assessorId })
+			.first();
+		if (!m) issues.push({ path: 'assessorId', message: 'is not a member of your organisation' });
+	}
+	if (data.limitTableId) {
+		const t = await trx('limit_tables')
+			.where({ organisation_id: organisationId, id: data.limitTableId })
+			.first('id');
+		if (!t) issues.push({ path: 'limitTableId', message: 'is not one of your organisation’s limit tables' });
+	}
+	if (data.climateId) {
+		const c = await trx('climates')
+			.where({ organisation_id: organisationId, id: data.climateId })
+			.first('id');
+		if (!c) issues.push({ path: 'climateId', message: 'is not one of your organisation’s climates' });
+	}
+	if (issues.length) throw new ValidationError(issues);
+}
+
+const referenceTaken = (reference: string) =>
+	new ValidationError([{ path: 'reference', message: `“${reference}” is already used by another dwelling` }]);
+
+export async function createDwelling(member: Member, raw: unknown, trx?: Db): Promise<Dwelling> {
+	const parsed = dwellingFieldsSchema.safeParse(raw);
+	if (!parsed.success) throw new ValidationError(zodIssues(parsed.error.issues));
+	const data = parsed.data;
+	const write = async (t: Db) => {
+		await checkReferences(member.organisationId, data, t);
+		try {
+			const [row] = await t('dwellings')
+				.insert({
+					organisation_id: member.organisationId,
+					reference: data.reference,
+					address: data.address,
+					programme: data.programme,
+					client_name: data.clientName,
+					client_email: data.clientEmail,
+					assessor_id: data.assessorId ?? (member.role === 'assessor' ? member.user.id : null),
+					stage: data.stage,
+					limit_table_id: data.limitTableId,
+					climate_id: data.climateId
+				})
+				.returning('id');
+			await logActivity(
+				{
+					organisationId: member.organisationId,
+					userId: member.user.id,
+					action: 'create',
+					entity: 'dwelling',
+					entityId: row.id,
+					details: { reference: data.reference }
+				},
+				t
+			);
+			return (await getDwelling(member.organisationId, row.id, t)) as Dwelling;
+		} catch (e) {
+			if (pgCode(e) === PG_UNIQUE_VIOLATION) throw referenceTaken(data.reference);
+			throw e;
+		}
+	};
+	return trx ? write(trx) : db.transaction(write);
+}
+
+const COLUMN: Record<string, string> = {
+	reference: 'reference',
+	address: 'address',
+	programme: 'programme',
+	clientName: 'client_name',
+	clientEmail: 'client_email',
+	assessorId: 'assessor_id',
+	stage: 'stage',
+	limitTableId: 'limit_table_id',
+	climateId: 'climate_id'
+};
+
+/** Change the dwelling's details; `version` must be the one the caller loaded (else 409). */
+export async function updateDwelling(member: Member, id: string, raw: unknown): Promise<Dwelling> {
+	const parsed = dwellingUpdateSchema.safeParse(raw);
+	if (!parsed.success) throw new ValidationError(zodIssues(parsed.error.issues));
+	const { version, ...data } = parsed.data;
+	// Only the fields the caller sent: `partial()` leaves defaults out of absent keys.
+	const sent = new Set(Object.keys((raw ?? {}) as object));
+	return db.transaction(async (t) => {
+		const current = await lockDwelling(t, member.organisationId, id);
+		if (current.status === 'archived')
+			throw new ConflictError('This dwelling is archived; restore it before changing it.');
+		if (current.version !== version) throw new ConflictError(STALE_MESSAGE, current.version);
+		await checkReferences(member.organisationId, data, t);
+		const patch: Record<string, unknown> = { version: current.version + 1, updated_at: t.fn.now() };
+		const changed: string[] = [];
+		for (const [key, value] of Object.entries(data)) {
+			if (!sent.has(key) || !(key in COLUMN)) continue;
+			patch[COLUMN[key]] = value;
+			changed.push(key);
+		}
+		try {
+			await t('dwellings').where({ organisation_id: member.organisationId, id }).update(patch);
+		} catch (e) {
+			if (pgCode(e) === PG_UNIQUE_VIOLATION) throw referenceTaken(String(data.reference));
+			throw e;
+		}
+		await logActivity(
+			{
+				organisationId: member.organisationId,
+				userId: member.user.id,
+				action: 'update',
+				entity: 'dwelling',
+				entityId: id,
+				details: { changed }
+			},
+			t
+		);
+		return (await getDwelling(member.organisationId, id, t)) as Dwelling;
+	});
+}
+
+/** Archive (or restore to draft) a dwelling; archived dwellings leave the default list and refuse edits. */
+export async function setDwellingArchived(
+	member: Member,
+	id: string,
+	archived: boolean,
+	version: number
+): Promise<Dwelling> {
+	return db.transaction(async (t) => {
+		const current = await lockDwelling(t, member.organisationId, id);
+		if (current.version !== version) throw new ConflictError(STALE_MESSAGE, current.version);
+		if (archived === (current.status === 'archived'))
+			throw new ConflictError(archived ? 'Already archived.' : 'Not archived.');
+		await t('dwellings')
+			.where({ organisation_id: member.organisationId, id })
+			.update({
+				status: archived ? 'archived' : 'draft',
+				version: current.version + 1,
+				updated_at: t.fn.now()
+			});
+		await logActivity(
+			{
+				organisationId: member.organisationId,
+				userId: member.user.id,
+				action: archived ? 'archive' : 'restore',
+				entity: 'dwelling',
+				entityId: id,
+				details: { reference: current.reference }
+			},
+			t
+		);
+		return (await getDwelling(member.organisationId, id, t)) as Dwelling;
+	});
+}
+
+/** Delete a dwelling that has no issued reports and is in no audit; otherwise archive it. */
+export async function deleteDwelling(member: Member, id: string, version: number): Promise<void> {
+	await db.transaction(async (t) => {
+		const current = await lockDwelling(t, member.organisationId, id);
+		if (current.version !== version) throw new ConflictError(STALE_MESSAGE, current.version);
+		const [{ n: reports }] = await t('reports')
+			.where({ organisation_id: member.organisationId, dwelling_id: id })
+			.count({ n: '*' });
+		const [{ n: audits }] = await t('audit_items')
+			.where({ organisation_id: member.organisationId, dwelling_id: id })
+			.count({ n: '*' });
+		if (Number(reports) > 0 || Number(audits) > 0) {
+			throw new ConflictError(
+				'This dwelling has issued reports or audit records and cannot be deleted; archive it instead.'
+			);
+		}
+		await t('mail_outbox')
+			.where({ organisation_id: member.organisationId, dwelling_id: id })
+			.update({ dwelling_id: null });
+		await t('dwellings').where({ organisation_id: member.organisationId, id }).delete();
+		await logActivity(
+			{
+				organisationId: member.organisationId,
+				userId: member.user.id,
+				action: 'delete',
+				entity: 'dwelling',
+				entityId: id,
+				details: { reference: current.reference }
+			},
+			t
+		);
+	});
+}
+
+/** A new draft dwelling with the same details and copies of every element (build-ups, results). */
+export async function copyDwelling(member: Member, id: string, raw: unknown): Promise<Dwelling> {
+	const parsed = dwellingCopySchema.safeParse(raw);
+	if (!parsed.success) throw new ValidationError(zodIssues(parsed.error.issues));
+	return db.transaction(async (t) => {
+		const source = await t('dwellings').where({ organisation_id: member.organisationId, id }).first();
+		if (!source) throw new NotFoundError('No such dwelling.');
+		let newId: string;
+		try {
+			const [row] = await t('dwellings')
+				.insert({
+					organisation_id: member.organisationId,
+					reference: parsed.data.reference,
+					address: parsed.data.address ?? source.address,
+					programme: source.programme,
+					client_name: source.client_name,
+					client_email: source.client_email,
+					assessor_id: member.role === 'assessor' ? member.user.id : source.assessor_id,
+					stage: source.stage,
+					limit_table_id: source.limit_table_id,
+					climate_id: source.climate_id
+				})
+				.returning('id');
+			newId = row.id;
+		} catch (e) {
+			if (pgCode(e) === PG_UNIQUE_VIOLATION) throw referenceTaken(parsed.data.reference);
+			throw e;
+		}
+		const elements = await t('elements')
+			.where({ organisation_id: member.organisationId, dwelling_id: id })
+			.orderBy('position');
+		if (elements.length) {
+			await t('elements').insert(
+				elements.map((e) => ({
+					organisation_id: member.organisationId,
+					dwelling_id: newId,
+					position: e.position,
+					name: e.name,
+					kind: e.kind,
+					area: e.area,
+					heat_flow: e.heat_flow,
+					build_up: e.build_up === null ? null : JSON.stringify(e.build_up),
+					given_u: e.given_u,
+					given_u_source: e.given_u_source,
+					climate_id: e.climate_id,
+					internal: e.internal === null ? null : JSON.stringify(e.internal),
+					last_result: e.last_result === null ? null : JSON.stringify(e.last_result),
+					engine_version: e.engine_version
+				}))
+			);
+		}
+		await logActivity(
+			{
+				organisationId: member.organisationId,
+				userId: member.user.id,
+				action: 'copy',
+				entity: 'dwelling',
+				entityId: newId,
+				details: {
+					from: id,
+					fromReference: source.reference,
+					reference: parsed.data.reference,
+					elements: elements.length
+				}
+			},
+			t
+		);
+		return (await getDwelling(member.organisationId, newId, t)) as Dwelling;
+	});
+}
+
+/** Lock the dwelling row for the transaction; 404 when it is not the organisation's. */
+export async function lockDwelling(t: Db, organisationId: string, id: string) {
+	const row = await t('dwellings').where({ organisation_id: organisationId, id }).forUpdate().first();
+	if (!row) throw new NotFoundError('No such dwelling.');
+	return {
+		id: row.id as string,
+		reference: row.reference as string,
+		status: row.status as DwellingStatus,
+		version: row.version as number
+	};
+}
+
+/** Mark a dwelling changed (its elements changed) so lists sort by real activity. */
+export async function touchDwelling(t: Db, organisationId: string, id: string) {
+	await t('dwellings').where({ organisation_id: organisationId, id }).update({ updated_at: t.fn.now() });
+}
+
+/* ------------------------------------------------------------ mapping */
+
+export function zodIssues(issues: { path: PropertyKey[]; message: string }[]): FieldIssue[] {
+	return issues.map((i) => ({ path: i.path.map(String).join('.') || '(body)', message: i.message }));
+}
+
+function toDwelling(r: Record<string, unknown>): Dwelling {
+	return {
+		id: r.id as string,
+		reference: r.reference as string,
+		address: (r.address as string) ?? '',
+		programme: (r.programme as string | null) ?? null,
+		clientName: (r.client_name as string | null) ?? null,
+		clientEmail: (r.client_email as string | null) ?? null,
+		assessorId: (r.assessor_id as string | null) ?? null,
+		assessorName: ((r.assessor_name ?? r.assessor_email) as string | null) ?? null,
+		stage: r.stage as Dwelling['stage'],
+		status: r.status as DwellingStatus,
+		limitTableId: (r.limit_table_id as string | null) ?? null,
+		climateId: (r.climate_id as string | null) ?? null,
+		version: r.version as number,
+		createdAt: new Date(r.created_at as string).toISOString(),
+		updatedAt: new Date(r.updated_at as string).toISOString()
+	};
+}
+
+export type Dwelling = {
+	id: string;
+	reference: string;
+	address: string;
+	programme: string | null;
+	clientName: string | null;
+	clientEmail: string | null;
+	assessorId: string | null;
+	assessorName: string | null;
+	stage: 'design' | 'as-built';
+	status: DwellingStatus;
+	limitTableId: string | null;
+	climateId: string | null;
+	version: number;
+	createdAt: string;
+	updatedAt: string;
+};
+export type DwellingListItem = Dwelling & { elementCount: number };
+export type DwellingPage = { items: DwellingListItem[]; total: number; page: number; pageSize: number };
+export type LimitTableBrief = NonNullable<Awaited<ReturnType<typeof getLimitTableFor>>>;
+export type ClimateBrief = NonNullable<Awaited<ReturnType<typeof getClimateBrief>>>;
+export type DwellingOverview = {
+	dwelling: Dwelling;
+	elements: ElementSummaryRow[];
+	totals: ReturnType<typeof summariseElements>['totals'];
+	limitTable: LimitTableBrief | null;
+	climate: ClimateBrief | null;
+};
+
+/** Climates with their months, for the element editor's live calculation. */
+export async function listEditorClimates(organisationId: string) {
+	const rows = await db('climates')
+		.where('organisation_id', organisationId)
+		.orderBy('name')
+		.select('id', 'name', 'illustrative', 'months');
+	return rows.map((c) => ({
+		id: c.id as string,
+		name: c.name as string,
+		illustrative: Boolean(c.illustrative),
+		months: c.months as { month: number; temperature: number; relativeHumidity: number }[]
+	}));
+}

@@ -1,0 +1,208 @@
+/** OpenAPI path items of dwellings, elements and the stateless calculation, from the same zod schemas the API validates with. */
+import { z } from 'zod';
+import { elementInputSchema, elementResultSchema } from '$lib/physics';
+import { elementOrderSchema } from '$lib/server/dwellings/elements';
+import {
+	archiveSchema,
+	dwellingCopySchema,
+	dwellingFieldsSchema,
+	dwellingListQuerySchema,
+	dwellingUpdateSchema,
+	elementFieldsSchema,
+	elementUpdateSchema,
+	thicknessRequestSchema
+} from '$lib/dwellings/schema';
+
+const schema = (s: z.ZodType) =>
+	z.toJSONSchema(s, { io: 'input', unrepresentable: 'any', target: 'draft-2020-12' });
+const body = (s: z.ZodType) => ({ required: true, content: { 'application/json': { schema: schema(s) } } });
+const ok = (description: string, s?: Record<string, unknown>) => ({
+	description,
+	...(s ? { content: { 'application/json': { schema: s } } } : {})
+});
+const issues = {
+	type: 'object',
+	properties: {
+		message: { type: 'string' },
+		issues: {
+			type: 'array',
+			items: { type: 'object', properties: { path: { type: 'string' }, message: { type: 'string' } } }
+		}
+	}
+};
+const errors = {
+	'400': ok('Invalid input: each issue names the field (dotted path) and why', issues),
+	'401': ok('Not signed in'),
+	'403': ok('Your role does not allow this'),
+	'404': ok('Not found in your organisation')
+};
+const conflict = {
+	'409': ok('Stale version: changed by someone else since you loaded it', {
+		type: 'object',
+		properties: { message: { type: 'string' }, currentVersion: { type: 'integer' } }
+	})
+};
+const idParam = (name: string) => ({
+	name,
+	in: 'path',
+	required: true,
+	schema: { type: 'string', format: 'uuid' }
+});
+const versionQuery = {
+	name: 'version',
+	in: 'query',
+	required: true,
+	schema: { type: 'integer', minimum: 1 }
+};
+const dwelling = {
+	type: 'object',
+	description: 'A dwelling (camelCase fields, with id, status, version, createdAt, updatedAt)'
+};
+const element = {
+	type: 'object',
+	description: 'An element with its stored lastResult (ElementResult), limit and pass'
+};
+
+const queryParams = Object.entries(
+	(schema(dwellingListQuerySchema) as { properties: Record<string, unknown> }).properties
+).map(([name, s]) => ({ name, in: 'query', required: false, schema: s }));
+
+export const paths: Record<string, unknown> = {
+	'/api/v1/calculate': {
+		post: {
+			tags: ['calculation'],
+			summary: 'Analyse an element: U-value (ISO 6946), profile, fRsi and Glaser (ISO 13788). Stateless.',
+			parameters: [
+				{
+					name: 'detail',
+					in: 'query',
+					required: false,
+					description:
+						'`summary` leaves out the sampled profile and the per-month arrays (surface months, Glaser months, nodes, vapour profile); every figure, check, note, warning and caution stays. Default: full.',
+					schema: { type: 'string', enum: ['full', 'summary'] }
+				}
+			],
+			requestBody: body(elementInputSchema),
+			responses: {
+				'200': ok('The result', schema(elementResultSchema)),
+				'400': errors['400'],
+				'401': errors['401']
+			}
+		}
+	},
+	'/api/v1/calculate/thickness': {
+		post: {
+			tags: ['calculation'],
+			summary: 'Thickness of one layer that reaches a target U, rounded up to a product size. Stateless.',
+			requestBody: body(thicknessRequestSchema),
+			responses: {
+				'200': ok('exactMm, roundedMm, uAtExact, uAtRounded, method, notes'),
+				'400': errors['400'],
+				'401': errors['401']
+			}
+		}
+	},
+	'/api/v1/dwellings': {
+		get: {
+			tags: ['dwellings'],
+			summary: 'List, search, filter, sort and paginate dwellings',
+			parameters: queryParams,
+			responses: { '200': ok('{ items, total, page, pageSize }'), ...errors }
+		},
+		post: {
+			tags: ['dwellings'],
+			summary: 'Create a dwelling (assessor, admin)',
+			requestBody: body(dwellingFieldsSchema),
+			responses: { '201': ok('Created', dwelling), ...errors }
+		}
+	},
+	'/api/v1/dwellings/{dwellingId}': {
+		parameters: [idParam('dwellingId')],
+		get: {
+			tags: ['dwellings'],
+			summary: 'The dwelling with elements, limits, ΣU·A and mean U',
+			responses: { '200': ok('Overview'), ...errors }
+		},
+		patch: {
+			tags: ['dwellings'],
+			summary: 'Change details (send version)',
+			requestBody: body(dwellingUpdateSchema),
+			responses: { '200': ok('Updated', dwelling), ...errors, ...conflict }
+		},
+		delete: {
+			tags: ['dwellings'],
+			summary: 'Delete a dwelling without reports or audits',
+			parameters: [versionQuery],
+			responses: { '204': ok('Deleted'), ...errors, ...conflict }
+		}
+	},
+	'/api/v1/dwellings/{dwellingId}/copy': {
+		parameters: [idParam('dwellingId')],
+		post: {
+			tags: ['dwellings'],
+			summary: 'Copy with all elements as a new draft',
+			requestBody: body(dwellingCopySchema),
+			responses: { '201': ok('The copy', dwelling), ...errors }
+		}
+	},
+	'/api/v1/dwellings/{dwellingId}/archive': {
+		parameters: [idParam('dwellingId')],
+		post: {
+			tags: ['dwellings'],
+			summary: 'Archive or restore to draft',
+			requestBody: body(archiveSchema),
+			responses: { '200': ok('Updated', dwelling), ...errors, ...conflict }
+		}
+	},
+	'/api/v1/dwellings/{dwellingId}/elements': {
+		parameters: [idParam('dwellingId')],
+		get: {
+			tags: ['elements'],
+			summary: 'Element summaries of the dwelling',
+			responses: { '200': ok('{ items }'), ...errors }
+		},
+		post: {
+			tags: ['elements'],
+			summary: 'Add an element; the server computes its result',
+			requestBody: body(elementFieldsSchema),
+			responses: { '201': ok('Created', element), ...errors }
+		}
+	},
+	'/api/v1/dwellings/{dwellingId}/elements/order': {
+		parameters: [idParam('dwellingId')],
+		post: {
+			tags: ['elements'],
+			summary: "Set the order of the dwelling's elements (every id once; send the dwelling's version)",
+			requestBody: body(elementOrderSchema),
+			responses: { '200': ok('{ version, ids }'), ...errors, ...conflict }
+		}
+	},
+	'/api/v1/elements/{elementId}': {
+		parameters: [idParam('elementId')],
+		get: {
+			tags: ['elements'],
+			summary: 'An element with its stored result',
+			responses: { '200': ok('Element', element), ...errors }
+		},
+		put: {
+			tags: ['elements'],
+			summary: 'Replace an element (send version); the server recomputes',
+			requestBody: body(elementUpdateSchema),
+			responses: { '200': ok('Updated', element), ...errors, ...conflict }
+		},
+		delete: {
+			tags: ['elements'],
+			summary: 'Delete an element',
+			parameters: [versionQuery],
+			responses: { '204': ok('Deleted'), ...errors, ...conflict }
+		}
+	},
+	'/api/v1/elements/{elementId}/duplicate': {
+		parameters: [idParam('elementId')],
+		post: {
+			tags: ['elements'],
+			summary: 'Copy the element within its dwelling',
+			responses: { '201': ok('The copy', element), ...errors }
+		}
+	}
+};

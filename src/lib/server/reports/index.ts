@@ -1,0 +1,864 @@
+/**
+ * Reports: draft previews, issuing (a frozen snapshot, its PDF, SHA-256 and a verification code, in
+ * the immutable `reports` table), revisions that supersede earlier ones, e-mail to the client through
+ * the outbox, and the public verification of a code or a PDF.
+ */
+import { createHash, randomInt } from 'node:crypto';
+import { db, type Db } from '$lib/server/db';
+import { logActivity } from '$lib/server/activity';
+import { enqueueMail, kickOutbox } from '$lib/server/outbox';
+import {
+	analyseElement,
+	parseElementInput,
+	ENGINE_VERSION,
+	type ElementResult,
+	type ElementInput
+} from '$lib/physics';
+import { toElementInput, type StoredBuildUp, type StoredInternal } from '$lib/dwellings/element-input';
+import { GIVEN_U_KINDS, ELEMENT_KIND_LABELS, type ElementKind } from '$lib/dwellings/kinds';
+import { reportDocument, passWord, moistureWord } from './document';
+import { renderPdf } from './fonts';
+import { longDate } from '$lib/format';
+import type {
+	ReportScope,
+	ReportSnapshot,
+	SnapshotClimate,
+	SnapshotElement,
+	SnapshotLimitTable,
+	SnapshotMaterialRevision
+} from './snapshot';
+
+export type { ReportSnapshot, ReportScope } from './snapshot';
+
+/** An expected refusal with a message for the person (HTTP status beside it). */
+export class ReportError extends Error {
+	constructor(
+		readonly status: 400 | 404 | 409,
+		message: string,
+		readonly issues: string[] = []
+	) {
+		super(message);
+		this.name = 'ReportError';
+	}
+}
+
+type Caller = { userId: string; organisationId: string };
+
+/* ------------------------------------------------------------------ snapshot */
+
+type DwellingRow = {
+	id: string;
+	organisation_id: string;
+	reference: string;
+	address: string;
+	programme: string | null;
+	client_name: string | null;
+	client_email: string | null;
+	assessor_id: string | null;
+	stage: string;
+	status: string;
+	limit_table_id: string | null;
+	climate_id: string | null;
+};
+
+async function getDwellingRow(
+	organisationId: string,
+	dwellingId: string,
+	trx: Db = db
+): Promise<DwellingRow> {
+	const row = await trx('dwellings').where({ id: dwellingId, organisation_id: organisationId }).first();
+	if (!row) throw new ReportError(404, 'No such dwelling.');
+	return row as DwellingRow;
+}
+
+/** Initials of the organisation's name, the prefix of its report numbers (e.g. NRP-2026-0007). */
+export function numberPrefix(organisationName: string): string {
+	const words = organisationName
+		.normalize('NFKD')
+		.replace(/[^A-Za-z0-9 ]/g, ' ')
+		.split(/\s+/)
+		.filter(Boolean);
+	const initials = words
+		.map((w) => w[0])
+		.join('')
+		.toUpperCase()
+		.slice(0, 4);
+	return initials || 'R';
+}
+
+/** Verification codes: 10 characters of Crockford's base-32 alphabet (no I, L, O, U): 50 bits. */
+const CODE_ALPHABET = '0123456789ABCDEFGHJKMNPQRSTVWXYZ';
+export function newVerificationCode(): string {
+	let s = '';
+	for (let i = 0; i < 10; i++) s += CODE_ALPHABET[randomInt(CODE_ALPHABET.length)];
+	return s;
+}
+/** A code as typed by a person: case, spaces and dashes ignored, O read as 0 and I or L as 1. */
+export function normaliseCode(raw: string): string {
+	return raw.toUpperCase().replace(/[\s-]/g, '').replace(/O/g, '0').replace(/[IL]/g, '1');
+}
+export function formatCode(code: string): string {
+	return code.replace(/^(.{4})(.{4})(.*)$/, '$1-$2-$3');
+}
+
+export function verifyUrlFor(origin: string, code: string): string {
+	return `${origin.replace(/\/$/, '')}/verify/${code}`;
+}
+
+type DocumentMeta = ReportSnapshot['document'];
+
+/**
+ * Everything the report needs, read in one go under the caller's organisation and recomputed with
+ * today's engine from the stored build-ups. `problems` names each element that cannot be reported.
+ */
+export async function buildSnapshot(
+	organisationId: string,
+	dwellingId: string,
+	elementId: string | null,
+	document: DocumentMeta,
+	issuedAt: string,
+	trx: Db = db
+): Promise<{ snapshot: ReportSnapshot; problems: string[] }> {
+	const d = await getDwellingRow(organisationId, dwellingId, trx);
+	const org = await trx('organisations').where({ id: organisationId }).first('id', 'name');
+	const assessor = d.assessor_id
+		? await trx('users as u')
+				.join('memberships as m', 'm.user_id', 'u.id')
+				.where({ 'u.id': d.assessor_id, 'm.organisation_id': organisationId })
+				.first('u.id', 'u.name', 'u.email', 'u.registration_number')
+		: null;
+
+	const elQuery = trx('elements')
+		.where({ organisation_id: organisationId, dwelling_id: dwellingId })
+		.orderBy([{ column: 'position' }, { column: 'created_at' }, { column: 'id' }]);
+	if (elementId) elQuery.andWhere({ id: elementId });
+	const elements = await elQuery.select('*');
+	if (elementId && elements.length === 0) throw new ReportError(404, 'No such element in this dwelling.');
+
+	const problems: string[] = [];
+	if (elements.length === 0)
+		problems.push('The dwelling has no elements yet: add at least one before issuing.');
+
+	// Limit table: the dwelling's, else the organisation's default.
+	const lt = d.limit_table_id
+		? await trx('limit_tables').where({ id: d.limit_table_id, organisation_id: organisationId }).first()
+		: await trx('limit_tables').where({ organisation_id: organisationId, is_default: true }).first();
+	const limitTable: SnapshotLimitTable | null = lt
+		? {
+				id: lt.id,
+				name: lt.name,
+				edition: lt.edition,
+				dated: lt.dated ? new Date(lt.dated).toISOString().slice(0, 10) : null,
+				source: lt.source ?? null,
+				limits: lt.limits ?? {}
+			}
+		: null;
+
+	const climateIds = [
+		...new Set(elements.map((e) => e.climate_id ?? d.climate_id).filter(Boolean))
+	] as string[];
+	const climates = new Map<string, SnapshotClimate>();
+	if (climateIds.length) {
+		const rows = await trx('climates')
+			.where({ organisation_id: organisationId })
+			.whereIn('id', climateIds)
+			.select('*');
+		for (const c of rows) {
+			climates.set(c.id, {
+				id: c.id,
+				name: c.name,
+				source: c.source,
+				illustrative: Boolean(c.illustrative),
+				months: [...(c.months as SnapshotClimate['months'])].sort((a, b) => a.month - b.month)
+			});
+		}
+	}
+
+	const revisionIds = new Set<string>();
+	for (const e of elements) {
+		for (const l of (e.build_up as StoredBuildUp | null)?.layers ?? []) {
+			if (l.materialRevisionId) revisionIds.add(l.materialRevisionId);
+		}
+	}
+	const revisions = new Map<string, Record<string, unknown>>();
+	if (revisionIds.size) {
+		const rows = await trx('material_revisions as r')
+			.join('materials as m', 'm.id', 'r.material_id')
+			.where('r.organisation_id', organisationId)
+			.whereIn('r.id', [...revisionIds])
+			.select(
+				'r.id',
+				'r.material_id',
+				'r.revision',
+				'r.name',
+				'r.manufacturer',
+				'r.lambda_kind',
+				'r.source',
+				'm.code'
+			);
+		for (const r of rows) revisions.set(r.id, r);
+	}
+
+	const snapElements: SnapshotElement[] = elements.map((e) => {
+		const kind = e.kind as ElementKind;
+		const label = `Element "${e.name}"`;
+		const buildUp = (e.build_up as StoredBuildUp | null) ?? null;
+		const internal = (e.internal as StoredInternal | null) ?? null;
+		const climateId = e.climate_id ?? d.climate_id;
+		const climate = climateId ? (climates.get(climateId) ?? null) : null;
+		const limit = limitTable?.limits?.[kind];
+		const limitValue = typeof limit === 'number' ? limit : null;
+		const materialRevisions: SnapshotMaterialRevision[] = [];
+		(buildUp?.layers ?? []).forEach((l, i) => {
+			if (!l.materialRevisionId) return;
+			const r = revisions.get(l.materialRevisionId);
+			if (!r) {
+				problems.push(
+					`${label}, layer ${i + 1}: its library revision is not in this organisation's library.`
+				);
+				return;
+			}
+			materialRevisions.push({
+				layerIndex: i,
+				materialId: String(r.material_id),
+				revisionId: String(r.id),
+				revision: Number(r.revision),
+				code: (r.code as string) ?? null,
+				name: (r.name as string) ?? null,
+				manufacturer: (r.manufacturer as string) ?? null,
+				lambdaKind: (r.lambda_kind as string) ?? null,
+				source: (r.source as string) ?? null
+			});
+		});
+		const base = {
+			id: e.id as string,
+			name: e.name as string,
+			kind,
+			area: Number(e.area),
+			heatFlow: e.heat_flow,
+			givenU: e.given_u ?? null,
+			givenUSource: e.given_u_source ?? null,
+			buildUp,
+			internal,
+			climate,
+			materialRevisions
+		};
+		const usesGiven = GIVEN_U_KINDS.includes(kind) || (!buildUp?.layers?.length && e.given_u != null);
+		if (usesGiven) {
+			if (e.given_u == null || !Number.isFinite(Number(e.given_u)) || Number(e.given_u) <= 0) {
+				problems.push(`${label} (${ELEMENT_KIND_LABELS[kind] ?? kind}): no given U-value is recorded.`);
+			}
+			const u = e.given_u == null ? null : Number(e.given_u);
+			return {
+				...base,
+				input: null,
+				result: null,
+				u,
+				limit: limitValue,
+				pass: limitValue === null || u === null ? null : u <= limitValue + 1e-12
+			};
+		}
+		if (!buildUp?.layers?.length) {
+			problems.push(`${label}: no build-up is recorded.`);
+			return { ...base, input: null, result: null, u: null, limit: limitValue, pass: null };
+		}
+		let input: ElementInput | null = null;
+		let result: ElementResult | null = null;
+		const raw = toElementInput({ heatFlow: e.heat_flow, buildUp, internal }, climate?.months ?? null);
+		const parsed = parseElementInput(raw);
+		if (!parsed.ok) {
+			for (const issue of parsed.issues) problems.push(`${label}: ${issue.path}: ${issue.message}.`);
+		} else {
+			input = parsed.data;
+			try {
+				result = analyseElement(input);
+			} catch (err) {
+				problems.push(`${label}: ${err instanceof Error ? err.message : String(err)}`);
+			}
+		}
+		const u = result ? result.uValueRounded : null;
+		return {
+			...base,
+			input,
+			result,
+			u,
+			limit: limitValue,
+			pass: limitValue === null || u === null ? null : u <= limitValue + 1e-12
+		};
+	});
+
+	const snapshot: ReportSnapshot = {
+		dwelling: {
+			id: d.id,
+			reference: d.reference,
+			address: d.address ?? '',
+			programme: d.programme ?? null,
+			stage: d.stage,
+			clientName: d.client_name ?? null,
+			clientEmail: d.client_email ?? null,
+			assessor: assessor
+				? {
+						id: assessor.id,
+						name: assessor.name ?? assessor.email,
+						email: assessor.email,
+						registrationNumber: assessor.registration_number ?? null
+					}
+				: null
+		},
+		organisation: { id: organisationId, name: org?.name ?? '' },
+		limitTable,
+		elements: snapElements,
+		engineVersion: ENGINE_VERSION,
+		issuedAt,
+		document
+	};
+	return { snapshot, problems };
+}
+
+/** Render the PDF of a snapshot (a draft or an issued one). */
+export async function renderSnapshot(snapshot: ReportSnapshot): Promise<Buffer> {
+	return renderPdf(reportDocument(snapshot));
+}
+
+export function sha256(bytes: Uint8Array): string {
+	return createHash('sha256').update(bytes).digest('hex');
+}
+
+async function callerName(trx: Db, userId: string): Promise<string> {
+	const u = await trx('users').where({ id: userId }).first('name', 'email');
+	return u?.name ?? u?.email ?? '';
+}
+
+/* ------------------------------------------------------------------ drafts and issuing */
+
+/** A draft PDF of the dwelling or one element: the same document, marked as a draft, never stored. */
+export async function previewReport(
+	caller: Caller,
+	input: { dwellingId: string; elementId?: string | null }
+): Promise<{ pdf: Buffer; filename: string; problems: string[] }> {
+	const scope: ReportScope = input.elementId ? 'element' : 'dwelling';
+	const issuedAt = new Date().toISOString();
+	const { snapshot, problems } = await buildSnapshot(
+		caller.organisationId,
+		input.dwellingId,
+		input.elementId ?? null,
+		{
+			scope,
+			draft: true,
+			number: 'DRAFT',
+			revision: 0,
+			verificationCode: null,
+			verifyUrl: null,
+			supersedes: null,
+			issuedBy: { id: caller.userId, name: await callerName(db, caller.userId) }
+		},
+		issuedAt
+	);
+	if (snapshot.elements.length === 0)
+		throw new ReportError(400, problems[0] ?? 'Nothing to report.', problems);
+	// A draft shows what can be shown; elements that cannot be calculated are listed by the page.
+	const printable = { ...snapshot, elements: snapshot.elements.filter((e) => e.result || e.u !== null) };
+	if (printable.elements.length === 0)
+		throw new ReportError(400, 'No element can be calculated yet.', problems);
+	const pdf = await renderSnapshot(printable);
+	const name =
+		scope === 'element'
+			? `${snapshot.dwelling.reference}-${snapshot.elements[0].name}`
+			: snapshot.dwelling.reference;
+	return { pdf, filename: `DRAFT-${fileSafe(name)}.pdf`, problems };
+}
+
+function fileSafe(s: string): string {
+	return (
+		s
+			.replace(/[^A-Za-z0-9._-]+/g, '-')
+			.replace(/^-+|-+$/g, '')
+			.slice(0, 80) || 'report'
+	);
+}
+
+export type ReportSummary = {
+	id: string;
+	number: string;
+	revision: number;
+	scope: ReportScope;
+	dwellingId: string;
+	elementId: string | null;
+	elementName: string | null;
+	supersedesId: string | null;
+	supersededById: string | null;
+	engineVersion: string;
+	verificationCode: string;
+	sha256: string;
+	issuedAt: string;
+	issuedBy: { id: string; name: string };
+	filename: string;
+	bytes: number;
+};
+
+function reportFilename(number: string, revision: number): string {
+	return `${fileSafe(number)}-rev${revision}.pdf`;
+}
+
+function toSummary(r: Record<string, unknown>): ReportSummary {
+	const number = r.number as string;
+	const revision = Number(r.revision);
+	return {
+		id: r.id as string,
+		number,
+		revision,
+		scope: r.scope as ReportScope,
+		dwellingId: r.dwelling_id as string,
+		elementId: (r.element_id as string) ?? null,
+		elementName: (r.element_name as string) ?? null,
+		supersedesId: (r.supersedes_id as string) ?? null,
+		supersededById: (r.superseded_by_id as string) ?? null,
+		engineVersion: r.engine_version as string,
+		verificationCode: r.verification_code as string,
+		sha256: r.sha256 as string,
+		issuedAt: new Date(r.issued_at as string).toISOString(),
+		issuedBy: {
+			id: r.issued_by as string,
+			name: ((r.issued_by_name as string) ?? (r.issued_by_email as string)) || ''
+		},
+		filename: reportFilename(number, revision),
+		bytes: Number(r.bytes ?? 0)
+	};
+}
+
+function summaryQuery(trx: Db, organisationId: string) {
+	return trx('reports as r')
+		.leftJoin('users as u', 'u.id', 'r.issued_by')
+		.where('r.organisation_id', organisationId)
+		.select(
+			'r.id',
+			'r.number',
+			'r.revision',
+			'r.scope',
+			'r.dwelling_id',
+			'r.element_id',
+			'r.supersedes_id',
+			'r.engine_version',
+			'r.verification_code',
+			'r.sha256',
+			'r.issued_at',
+			'r.issued_by',
+			'u.name as issued_by_name',
+			'u.email as issued_by_email',
+			trx.raw(`r.snapshot #>> '{elements,0,name}' as element_name`),
+			trx.raw('octet_length(r.pdf) as bytes'),
+			trx.raw(
+				'(select n.id from reports n where n.supersedes_id = r.id and n.organisation_id = r.organisation_id limit 1) as superseded_by_id'
+			)
+		);
+}
+
+/**
+ * Issue a report: freeze the snapshot, render and hash the PDF, store it under a number (a new one,
+ * or the next revision of the report it supersedes) and a verification code; a dwelling report also
+ * marks the dwelling issued. All in one transaction.
+ */
+export async function issueReport(
+	caller: Caller,
+	input: { dwellingId: string; elementId?: string | null },
+	origin: string,
+	trx?: Db
+): Promise<ReportSummary> {
+	const run = async (t: Db) => {
+		// One issuer at a time per organisation keeps numbers and revisions gap-free and unique.
+		await t.raw('select pg_advisory_xact_lock(hashtext(?))', [`reports:${caller.organisationId}`]);
+		const dwelling = await getDwellingRow(caller.organisationId, input.dwellingId, t);
+		if (dwelling.status === 'archived')
+			throw new ReportError(409, 'The dwelling is archived: reports cannot be issued for it.');
+		const scope: ReportScope = input.elementId ? 'element' : 'dwelling';
+		const prevQuery = t('reports')
+			.where({ organisation_id: caller.organisationId, dwelling_id: input.dwellingId, scope })
+			.orderBy('revision', 'desc')
+			.first('id', 'number', 'revision', 'issued_at');
+		if (input.elementId) prevQuery.andWhere({ element_id: input.elementId });
+		else prevQuery.whereNull('element_id');
+		const prev = await prevQuery;
+
+		const now = new Date();
+		const issuedAt = now.toISOString();
+		let number: string;
+		if (prev) number = prev.number;
+		else {
+			const org = await t('organisations').where({ id: caller.organisationId }).first('name');
+			const year = now.getUTCFullYear();
+			const prefix = `${numberPrefix(org?.name ?? '')}-${year}-`;
+			const { n } = (await t('reports')
+				.where({ organisation_id: caller.organisationId })
+				.andWhere('number', 'like', `${prefix}%`)
+				.countDistinct({ n: 'number' })
+				.first()) as { n: number };
+			number = `${prefix}${String(Number(n) + 1).padStart(4, '0')}`;
+		}
+		const revision = prev ? Number(prev.revision) + 1 : 1;
+		const code = newVerificationCode();
+		const { snapshot, problems } = await buildSnapshot(
+			caller.organisationId,
+			input.dwellingId,
+			input.elementId ?? null,
+			{
+				scope,
+				draft: false,
+				number,
+				revision,
+				verificationCode: code,
+				verifyUrl: verifyUrlFor(origin, code),
+				supersedes: prev
+					? {
+							number: prev.number,
+							revision: Number(prev.revision),
+							issuedAt: new Date(prev.issued_at).toISOString()
+						}
+					: null,
+				issuedBy: { id: caller.userId, name: await callerName(t, caller.userId) }
+			},
+			issuedAt,
+			t
+		);
+		if (problems.length) {
+			throw new ReportError(
+				400,
+				`The report cannot be issued: ${problems.length} problem(s) to fix first.`,
+				problems
+			);
+		}
+		const pdf = await renderSnapshot(snapshot);
+		const hash = sha256(pdf);
+		const [row] = await t('reports')
+			.insert({
+				organisation_id: caller.organisationId,
+				number,
+				revision,
+				scope,
+				dwelling_id: input.dwellingId,
+				element_id: input.elementId ?? null,
+				supersedes_id: prev?.id ?? null,
+				snapshot: JSON.stringify(snapshot),
+				engine_version: ENGINE_VERSION,
+				verification_code: code,
+				sha256: hash,
+				pdf,
+				issued_by: caller.userId,
+				issued_at: now
+			})
+			.returning('id');
+		await logActivity(
+			{
+				organisationId: caller.organisationId,
+				userId: caller.userId,
+				action: 'issue',
+				entity: 'report',
+				entityId: row.id,
+				details: {
+					number,
+					revision,
+					scope,
+					dwellingId: input.dwellingId,
+					elementId: input.elementId ?? null,
+					sha256: hash,
+					supersedesId: prev?.id ?? null
+				}
+			},
+			t
+		);
+		if (scope === 'dwelling' && dwelling.status !== 'issued' && dwelling.status !== 'awaiting-review') {
+			await t('dwellings')
+				.where({ id: dwelling.id, organisation_id: caller.organisationId })
+				.update({ status: 'issued', version: t.raw('version + 1'), updated_at: t.fn.now() });
+			await logActivity(
+				{
+					organisationId: caller.organisationId,
+					userId: caller.userId,
+					action: 'status',
+					entity: 'dwelling',
+					entityId: dwelling.id,
+					details: { from: dwelling.status, to: 'issued', reportId: row.id, number, revision }
+				},
+				t
+			);
+		}
+		const summary = await summaryQuery(t, caller.organisationId).where('r.id', row.id).first();
+		return toSummary(summary);
+	};
+	return trx ? run(trx) : db.transaction(run);
+}
+
+/* ------------------------------------------------------------------ reading */
+
+/** Every report of a dwelling (both scopes), newest first. */
+export async function listReportsForDwelling(
+	organisationId: string,
+	dwellingId: string
+): Promise<ReportSummary[]> {
+	const rows = await summaryQuery(db, organisationId)
+		.where('r.dwelling_id', dwellingId)
+		.orderBy([
+			{ column: 'r.issued_at', order: 'desc' },
+			{ column: 'r.revision', order: 'desc' }
+		]);
+	return rows.map(toSummary);
+}
+
+/** The newest revision of the dwelling-scope report, with its snapshot (for audits). */
+export async function getLatestReportForDwelling(
+	organisationId: string,
+	dwellingId: string
+): Promise<(ReportSummary & { snapshot: ReportSnapshot }) | null> {
+	const row = await summaryQuery(db, organisationId)
+		.select('r.snapshot')
+		.where({ 'r.dwelling_id': dwellingId, 'r.scope': 'dwelling' })
+		.orderBy('r.revision', 'desc')
+		.first();
+	return row ? { ...toSummary(row), snapshot: row.snapshot as ReportSnapshot } : null;
+}
+
+export async function getReport(
+	organisationId: string,
+	reportId: string
+): Promise<(ReportSummary & { snapshot: ReportSnapshot }) | null> {
+	const row = await summaryQuery(db, organisationId).select('r.snapshot').where('r.id', reportId).first();
+	return row ? { ...toSummary(row), snapshot: row.snapshot as ReportSnapshot } : null;
+}
+
+export async function getReportPdf(
+	organisationId: string,
+	reportId: string
+): Promise<{ pdf: Buffer; filename: string; sha256: string } | null> {
+	const row = await db('reports')
+		.where({ id: reportId, organisation_id: organisationId })
+		.first('pdf', 'number', 'revision', 'sha256');
+	return row
+		? { pdf: row.pdf as Buffer, filename: reportFilename(row.number, row.revision), sha256: row.sha256 }
+		: null;
+}
+
+/** Render the stored snapshot again (for checks: the numbers, and the bytes, come out the same). */
+export async function rerenderReport(organisationId: string, reportId: string): Promise<Buffer | null> {
+	const row = await db('reports').where({ id: reportId, organisation_id: organisationId }).first('snapshot');
+	return row ? renderSnapshot(row.snapshot as ReportSnapshot) : null;
+}
+
+/* ------------------------------------------------------------------ e-mail */
+
+export type MailSummary = {
+	id: string;
+	reportId: string | null;
+	reportLabel: string | null;
+	to: string;
+	subject: string;
+	status: 'queued' | 'sent' | 'failed';
+	attempts: number;
+	lastError: string | null;
+	createdAt: string;
+	sentAt: string | null;
+	nextAttemptAt: string;
+	createdBy: string | null;
+};
+
+/**
+ * Queue an e-mail of an issued report (PDF attached) to the client, in one transaction with its
+ * activity entry; the outbox worker sends it.
+ */
+export async function emailReport(
+	caller: Caller,
+	reportId: string,
+	input: { to: string; message?: string | null }
+): Promise<MailSummary> {
+	const id = await db.transaction(async (t) => {
+		const report = await t('reports')
+			.where({ id: reportId, organisation_id: caller.organisationId })
+			.first(
+				'id',
+				'number',
+				'revision',
+				'scope',
+				'dwelling_id',
+				'issued_at',
+				'verification_code',
+				'snapshot'
+			);
+		if (!report) throw new ReportError(404, 'No such report.');
+		// A replaced revision stays readable and verifiable, but the client is sent the one in force.
+		const newer = await t('reports')
+			.where({ supersedes_id: report.id, organisation_id: caller.organisationId })
+			.first('revision');
+		if (newer) {
+			throw new ReportError(
+				409,
+				`Report ${report.number} revision ${report.revision} was replaced by revision ${newer.revision}; send revision ${newer.revision} instead.`
+			);
+		}
+		const snap = report.snapshot as ReportSnapshot;
+		const sender = await callerName(t, caller.userId);
+		const what =
+			report.scope === 'dwelling'
+				? `the report for dwelling ${snap.dwelling.reference}`
+				: `the report for the element "${snap.elements[0]?.name ?? ''}" of dwelling ${snap.dwelling.reference}`;
+		const subject = `Report ${report.number} revision ${report.revision} — ${snap.dwelling.reference}`;
+		const greeting = snap.dwelling.clientName ? `Dear ${snap.dwelling.clientName},` : 'Hello,';
+		const lines = [
+			greeting,
+			'',
+			`Please find attached ${what}, report ${report.number} revision ${report.revision}, issued on ${longDate(new Date(report.issued_at).toISOString())}.`,
+			...(input.message?.trim() ? ['', input.message.trim()] : []),
+			'',
+			`You can check that the PDF is genuine at ${snap.document.verifyUrl} (verification code ${formatCode(report.verification_code)}).`,
+			'',
+			'The results are steady-state calculations that support, and do not replace, professional judgement; check them against the local building codes and licensed practice.',
+			'',
+			sender ? `${sender}` : '',
+			snap.organisation.name
+		];
+		const outboxId = await enqueueMail(
+			{
+				organisationId: caller.organisationId,
+				dwellingId: report.dwelling_id,
+				reportId: report.id,
+				purpose: 'report',
+				to: input.to,
+				subject,
+				text: lines.join('\n').trim() + '\n',
+				attachments: [{ filename: reportFilename(report.number, report.revision), reportId: report.id }],
+				createdBy: caller.userId
+			},
+			t
+		);
+		await logActivity(
+			{
+				organisationId: caller.organisationId,
+				userId: caller.userId,
+				action: 'email',
+				entity: 'report',
+				entityId: report.id,
+				details: { to: input.to, outboxId, number: report.number, revision: report.revision }
+			},
+			t
+		);
+		return outboxId;
+	});
+	kickOutbox();
+	const mail = await getMail(caller.organisationId, id);
+	return mail!;
+}
+
+function mailQuery(organisationId: string) {
+	return db('mail_outbox as o')
+		.leftJoin('reports as r', 'r.id', 'o.report_id')
+		.leftJoin('users as u', 'u.id', 'o.created_by')
+		.where('o.organisation_id', organisationId)
+		.select(
+			'o.*',
+			'r.number as report_number',
+			'r.revision as report_revision',
+			'u.name as created_by_name',
+			'u.email as created_by_email'
+		);
+}
+
+function toMail(r: Record<string, unknown>): MailSummary {
+	return {
+		id: r.id as string,
+		reportId: (r.report_id as string) ?? null,
+		reportLabel: r.report_number ? `${r.report_number} rev. ${r.report_revision}` : null,
+		to: r.to_address as string,
+		subject: r.subject as string,
+		status: r.status as MailSummary['status'],
+		attempts: Number(r.attempts),
+		lastError: (r.last_error as string) ?? null,
+		createdAt: new Date(r.created_at as string).toISOString(),
+		sentAt: r.sent_at ? new Date(r.sent_at as string).toISOString() : null,
+		nextAttemptAt: new Date(r.next_attempt_at as string).toISOString(),
+		createdBy: ((r.created_by_name as string) ?? (r.created_by_email as string)) || null
+	};
+}
+
+export async function getMail(organisationId: string, id: string): Promise<MailSummary | null> {
+	const row = await mailQuery(organisationId).where('o.id', id).first();
+	return row ? toMail(row) : null;
+}
+
+/** What was sent for a dwelling, to whom and when, newest first. */
+export async function listMailForDwelling(
+	organisationId: string,
+	dwellingId: string
+): Promise<MailSummary[]> {
+	const rows = await mailQuery(organisationId)
+		.where('o.dwelling_id', dwellingId)
+		.orderBy('o.created_at', 'desc')
+		.limit(200);
+	return rows.map(toMail);
+}
+
+export async function listMailForReport(organisationId: string, reportId: string): Promise<MailSummary[]> {
+	const rows = await mailQuery(organisationId).where('o.report_id', reportId).orderBy('o.created_at', 'desc');
+	return rows.map(toMail);
+}
+
+/* ------------------------------------------------------------------ public verification */
+
+export type VerifiedReport = {
+	number: string;
+	revision: number;
+	issuedAt: string;
+	dwellingReference: string;
+	assessor: string;
+	/** The revision that replaced this one, when there is one: its revision number and date only. */
+	supersededBy: { revision: number; issuedAt: string } | null;
+};
+
+/**
+ * What the public page may show for a code: the report's number and revision, its date, the dwelling
+ * reference and the assessor (no other dwelling data), and whether a later revision superseded it.
+ */
+export async function verifyCode(rawCode: string): Promise<VerifiedReport | null> {
+	const code = normaliseCode(rawCode);
+	if (!/^[0-9A-Z]{10}$/.test(code)) return null;
+	const row = await db('reports')
+		.where({ verification_code: code })
+		.first(
+			'id',
+			'organisation_id',
+			'number',
+			'revision',
+			'issued_at',
+			db.raw(`snapshot #>> '{dwelling,reference}' as reference`),
+			db.raw(`snapshot #>> '{dwelling,assessor,name}' as assessor_name`),
+			db.raw(`snapshot #>> '{dwelling,assessor,registrationNumber}' as assessor_reg`)
+		);
+	if (!row) return null;
+	const newer = await db('reports')
+		.where({ supersedes_id: row.id, organisation_id: row.organisation_id })
+		.orderBy('revision')
+		.first('revision', 'issued_at');
+	return {
+		number: row.number,
+		revision: Number(row.revision),
+		issuedAt: new Date(row.issued_at).toISOString(),
+		dwellingReference: row.reference ?? '',
+		assessor: row.assessor_name
+			? `${row.assessor_name}${row.assessor_reg ? `, registration no. ${row.assessor_reg}` : ''}`
+			: '—',
+		supersededBy: newer
+			? { revision: Number(newer.revision), issuedAt: new Date(newer.issued_at).toISOString() }
+			: null
+	};
+}
+
+/** Whether the bytes are exactly the PDF issued under the code (SHA-256). */
+export async function checkPdfAgainstCode(
+	rawCode: string,
+	bytes: Uint8Array
+): Promise<'match' | 'mismatch' | 'unknown'> {
+	const code = normaliseCode(rawCode);
+	if (!/^[0-9A-Z]{10}$/.test(code)) return 'unknown';
+	const row = await db('reports').where({ verification_code: code }).first('sha256');
+	if (!row) return 'unknown';
+	return sha256(bytes) === row.sha256 ? 'match' : 'mismatch';
+}
+
+/** Words used in page tables, shared with the PDF. */
+export { passWord, moistureWord };

@@ -1,0 +1,181 @@
+import { db, type Db } from '$lib/server/db';
+import { logActivity } from '$lib/server/activity';
+import type { Member } from '$lib/server/guard';
+import type { ElementKind } from '$lib/dwellings/kinds';
+import {
+	templateInputSchema,
+	templatePatchSchema,
+	type BuildUp,
+	type TemplateInput
+} from '$lib/climates/schema';
+import { ConflictError, pgCode, PG_UNIQUE_VIOLATION } from '$lib/server/errors';
+
+/**
+ * Templates: reusable build-ups an element can start from. Any assessor or admin may save one;
+ * its author or an admin may change or delete it.
+ */
+
+export async function listTemplates(
+	organisationId: string,
+	kind?: ElementKind | null,
+	q?: string | null
+): Promise<Template[]> {
+	const query = db('templates as t')
+		.leftJoin('users as u', 'u.id', 't.created_by')
+		.where('t.organisation_id', organisationId)
+		.orderBy([{ column: 't.kind' }, { column: 't.name' }])
+		.select('t.*', 'u.name as created_by_name', 'u.email as created_by_email');
+	if (kind) query.andWhere('t.kind', kind);
+	if (q && q.trim()) {
+		const like = `%${q.trim().replace(/[\\%_]/g, (c) => '\\' + c)}%`;
+		query.andWhere((w) => w.whereILike('t.name', like).orWhereILike('t.description', like));
+	}
+	return (await query).map(toTemplate);
+}
+
+export async function getTemplate(
+	organisationId: string,
+	id: string,
+	trx: Db = db
+): Promise<Template | null> {
+	const row = await trx('templates as t')
+		.leftJoin('users as u', 'u.id', 't.created_by')
+		.where({ 't.organisation_id': organisationId, 't.id': id })
+		.first('t.*', 'u.name as created_by_name', 'u.email as created_by_email');
+	return row ? toTemplate(row) : null;
+}
+
+export async function createTemplate(
+	member: Member,
+	input: { name: string; kind: ElementKind; description?: string | null; buildUp: BuildUp | unknown },
+	trx?: Db
+): Promise<Template> {
+	const data = templateInputSchema.parse(input);
+	const write = async (t: Db) => {
+		let id: string;
+		try {
+			const [row] = await t('templates')
+				.insert({
+					organisation_id: member.organisationId,
+					name: data.name,
+					kind: data.kind,
+					description: data.description,
+					build_up: JSON.stringify(data.buildUp),
+					created_by: member.user.id
+				})
+				.returning('id');
+			id = row.id;
+		} catch (e) {
+			throw nameTaken(e, data.name);
+		}
+		await log(
+			member,
+			'create',
+			id,
+			{ name: data.name, kind: data.kind, layers: data.buildUp.layers.length },
+			t
+		);
+		return (await getTemplate(member.organisationId, id, t))!;
+	};
+	return trx ? write(trx) : db.transaction(write);
+}
+
+/** Whether the member may change or delete the template: an admin, or the assessor who saved it. */
+export function canEditTemplate(
+	member: Pick<Member, 'role' | 'user'>,
+	template: Pick<Template, 'createdBy'>
+): boolean {
+	return member.role === 'admin' || (member.role === 'assessor' && template.createdBy?.id === member.user.id);
+}
+
+export class TemplateForbiddenError extends Error {
+	readonly status = 403;
+	constructor() {
+		super('Only an admin or the person who saved this template can change or delete it.');
+		this.name = 'TemplateForbiddenError';
+	}
+}
+
+/** Changes some fields; null when there is no such template in the organisation. */
+export async function updateTemplate(
+	member: Member,
+	id: string,
+	patch: Partial<TemplateInput>
+): Promise<Template | null> {
+	const data = templatePatchSchema.parse(patch);
+	return db.transaction(async (t) => {
+		const current = await getTemplate(member.organisationId, id, t);
+		if (!current) return null;
+		if (!canEditTemplate(member, current)) throw new TemplateForbiddenError();
+		const changes: Record<string, unknown> = { updated_at: t.fn.now() };
+		if (data.name !== undefined) changes.name = data.name;
+		if (data.kind !== undefined) changes.kind = data.kind;
+		if (data.description !== undefined) changes.description = data.description;
+		if (data.buildUp !== undefined) changes.build_up = JSON.stringify(data.buildUp);
+		try {
+			await t('templates').where({ organisation_id: member.organisationId, id }).update(changes);
+		} catch (e) {
+			throw nameTaken(e, data.name ?? current.name);
+		}
+		await log(member, 'update', id, { fields: Object.keys(data) }, t);
+		return getTemplate(member.organisationId, id, t);
+	});
+}
+
+export async function deleteTemplate(member: Member, id: string): Promise<boolean> {
+	return db.transaction(async (t) => {
+		const current = await getTemplate(member.organisationId, id, t);
+		if (!current) return false;
+		if (!canEditTemplate(member, current)) throw new TemplateForbiddenError();
+		await t('templates').where({ organisation_id: member.organisationId, id }).delete();
+		await log(member, 'delete', id, { name: current.name, kind: current.kind }, t);
+		return true;
+	});
+}
+
+async function log(member: Member, action: string, id: string, details: Record<string, unknown>, t: Db) {
+	await logActivity(
+		{
+			organisationId: member.organisationId,
+			userId: member.user.id,
+			action,
+			entity: 'template',
+			entityId: id,
+			details
+		},
+		t
+	);
+}
+
+function nameTaken(e: unknown, name: string) {
+	if (pgCode(e) === PG_UNIQUE_VIOLATION) {
+		return new ConflictError(`A template named "${name}" already exists; choose another name.`);
+	}
+	return e;
+}
+
+function toTemplate(r: Record<string, any>): Template {
+	return {
+		id: r.id,
+		name: r.name,
+		kind: r.kind,
+		description: r.description ?? null,
+		buildUp: r.build_up,
+		createdBy: r.created_by
+			? { id: r.created_by, name: r.created_by_name ?? r.created_by_email ?? null }
+			: null,
+		createdAt: new Date(r.created_at).toISOString(),
+		updatedAt: new Date(r.updated_at).toISOString()
+	};
+}
+
+export type Template = {
+	id: string;
+	name: string;
+	kind: ElementKind;
+	description: string | null;
+	buildUp: BuildUp;
+	createdBy: { id: string; name: string | null } | null;
+	createdAt: string;
+	updatedAt: string;
+};

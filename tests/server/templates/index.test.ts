@@ -1,0 +1,181 @@
+import { describe, it, expect, afterAll } from 'vitest';
+import {
+	hasDatabase,
+	makeTeam,
+	makeMember,
+	tdb,
+	fakeEvent,
+	asMember,
+	callHandler as call
+} from '../../factories';
+import type { Role } from '../../../src/lib/members/roles';
+
+// Templates: who may save, change and delete them is Envelo's own rule (common practice, no source).
+
+/** A cavity wall: plaster, aircrete, mineral wool, brick (generic values, common practice, no source). */
+const WALL = {
+	layers: [
+		{ name: 'Gypsum plaster', thicknessMm: 13, lambda: 0.4, mu: 10 },
+		{ name: 'Aircrete block', thicknessMm: 100, lambda: 0.15, mu: 6 },
+		{ name: 'Mineral wool', thicknessMm: 100, lambda: 0.035, mu: 1, materialCode: 'IN-MW-035' },
+		{ name: 'Clay brick', thicknessMm: 102.5, lambda: 0.77, mu: 10 }
+	]
+};
+
+describe.skipIf(!hasDatabase)('templates', async () => {
+	const templates = await import('../../../src/lib/server/templates');
+	const list = await import('../../../src/routes/api/v1/templates/+server');
+	const one = await import('../../../src/routes/api/v1/templates/[templateId=uuid]/+server');
+	const { templateU } = await import('../../../src/routes/(app)/templates/_u-value');
+	afterAll(async () => {
+		const { db, authPool } = await import('../../../src/lib/server/db');
+		await db.destroy();
+		await authPool.end();
+	});
+
+	it('lets assessors and admins save a template, not supervisors', async () => {
+		const t = await makeTeam();
+		const body = { name: 'Cavity wall', kind: 'external-wall', description: 'Full fill', buildUp: WALL };
+		const r = await call(list.POST, t.assessor, 'POST', '/api/v1/templates', { body });
+		expect(r.status).toBe(201);
+		expect(r.json).toMatchObject({
+			name: 'Cavity wall',
+			kind: 'external-wall',
+			createdBy: { id: t.assessor.id }
+		});
+		expect(r.json.buildUp.layers[2].materialCode).toBe('IN-MW-035');
+		expect(
+			(await call(list.POST, t.admin, 'POST', '/api/v1/templates', { body: { ...body, name: 'Admin wall' } }))
+				.status
+		).toBe(201);
+		expect(
+			(await call(list.POST, t.supervisor, 'POST', '/api/v1/templates', { body: { ...body, name: 'No' } }))
+				.status
+		).toBe(403);
+		const dup = await call(list.POST, t.admin, 'POST', '/api/v1/templates', { body });
+		expect(dup.status).toBe(409);
+	});
+
+	it('filters by kind and text, within the organisation', async () => {
+		const t = await makeTeam();
+		const other = await makeTeam();
+		const m = asMember(t.admin);
+		await templates.createTemplate(m, {
+			name: 'Wall one',
+			kind: 'external-wall',
+			description: 'brick',
+			buildUp: WALL
+		});
+		await templates.createTemplate(m, { name: 'Loft one', kind: 'pitched-roof-ceiling', buildUp: WALL });
+		await templates.createTemplate(asMember(other.admin), {
+			name: 'Elsewhere',
+			kind: 'external-wall',
+			buildUp: WALL
+		});
+		const walls = await call(list.GET, t.supervisor, 'GET', '/api/v1/templates?kind=external-wall');
+		expect(walls.json.items.map((x: { name: string }) => x.name)).toEqual(['Wall one']);
+		const q = await call(list.GET, t.supervisor, 'GET', '/api/v1/templates?q=BRICK');
+		expect(q.json.items.map((x: { name: string }) => x.name)).toEqual(['Wall one']);
+		expect((await call(list.GET, t.supervisor, 'GET', '/api/v1/templates')).json.items).toHaveLength(2);
+		expect((await call(list.GET, t.supervisor, 'GET', '/api/v1/templates?kind=attic')).status).toBe(400);
+	});
+
+	it('validates the build-up field by field, and refuses windows and doors', async () => {
+		const t = await makeTeam();
+		const bad = {
+			name: 'Bad',
+			kind: 'window',
+			buildUp: {
+				layers: [
+					{ name: 'Board', thicknessMm: -5, lambda: 0.2 },
+					{ name: 'Gap', thicknessMm: 20 }
+				]
+			}
+		};
+		const r = await call(list.POST, t.admin, 'POST', '/api/v1/templates', { body: bad });
+		expect(r.status).toBe(400);
+		const paths = r.json.issues.map((i: { path: string }) => i.path);
+		expect(paths).toEqual(
+			expect.arrayContaining(['kind', 'buildUp.layers.0.thicknessMm', 'buildUp.layers.1.lambda'])
+		);
+		const none = await call(list.POST, t.admin, 'POST', '/api/v1/templates', {
+			body: { name: 'None', kind: 'flat-roof', buildUp: { layers: [] } }
+		});
+		expect(none.json.issues).toContainEqual({
+			path: 'buildUp.layers',
+			message: 'at least one layer is required'
+		});
+		expect(await tdb()('templates').where({ organisation_id: t.org.id })).toHaveLength(0);
+	});
+
+	it('lets its author or an admin change or delete it, not another assessor', async () => {
+		const t = await makeTeam();
+		const second = await makeMember(t.org.id, 'assessor');
+		const mine = await templates.createTemplate(asMember(t.assessor), {
+			name: 'Mine',
+			kind: 'external-wall',
+			buildUp: WALL
+		});
+		const params = { templateId: mine.id };
+		const url = `/api/v1/templates/${mine.id}`;
+		const denied = await call(one.PATCH, second, 'PATCH', url, { params, body: { name: 'Taken over' } });
+		expect(denied.status).toBe(403);
+		expect((await call(one.DELETE, second, 'DELETE', url, { params })).status).toBe(403);
+		expect((await call(one.PATCH, t.supervisor, 'PATCH', url, { params, body: { name: 'x' } })).status).toBe(
+			403
+		);
+		const own = await call(one.PATCH, t.assessor, 'PATCH', url, { params, body: { description: 'Updated' } });
+		expect(own.status).toBe(200);
+		expect(own.json).toMatchObject({ name: 'Mine', description: 'Updated' });
+		const badPatch = await call(one.PATCH, t.admin, 'PATCH', url, {
+			params,
+			body: { buildUp: { layers: [{ name: 'x' }] } }
+		});
+		expect(badPatch.status).toBe(400);
+		expect(
+			(await call(one.PATCH, t.admin, 'PATCH', url, { params, body: { name: 'Renamed by admin' } })).json.name
+		).toBe('Renamed by admin');
+		expect((await call(one.DELETE, t.admin, 'DELETE', url, { params })).status).toBe(204);
+		expect(await templates.getTemplate(t.org.id, mine.id)).toBeNull();
+		const log = await tdb()('activity_log')
+			.where({ organisation_id: t.org.id, entity: 'template' })
+			.orderBy('id');
+		expect(log.map((r) => r.action)).toEqual(['create', 'update', 'update', 'delete']);
+	});
+
+	it("gives another organisation's member 404 everywhere, without echoing the id", async () => {
+		const a = await makeTeam();
+		const b = await makeTeam();
+		const tpl = await templates.createTemplate(asMember(a.admin), {
+			name: 'Private build-up',
+			kind: 'flat-roof',
+			buildUp: WALL
+		});
+		const params = { templateId: tpl.id };
+		const url = `/api/v1/templates/${tpl.id}`;
+		for (const [h, method, body] of [
+			[one.GET, 'GET', undefined],
+			[one.PATCH, 'PATCH', {}],
+			[one.PUT, 'PUT', { name: 'Mine' }],
+			[one.DELETE, 'DELETE', undefined]
+		] as const) {
+			const r = await call(h, b.admin, method, url, { params, body });
+			expect(r.status, method).toBe(404);
+			expect(r.text).not.toContain(tpl.id);
+			expect(r.text).not.toContain('Private');
+		}
+	});
+
+	it('shows a guide U-value that matches a hand calculation with the standard surface resistances', () => {
+		// ISO 6946:2017, Table 7 (from memory): Rsi 0.13, Rse 0.04 m²·K/W for horizontal heat flow.
+		// R = 0.13 + 0.013/0.40 + 0.100/0.15 + 0.100/0.035 + 0.1025/0.77 + 0.04 = 3.8594 m²·K/W → U = 0.2591
+		const hand = 1 / (0.13 + 0.013 / 0.4 + 0.1 / 0.15 + 0.1 / 0.035 + 0.1025 / 0.77 + 0.04);
+		const r = templateU('external-wall', WALL);
+		expect(r.problem).toBeNull();
+		expect(r.u).toBeCloseTo(hand, 3);
+		expect(r.rounded).toBe(0.26);
+		const broken = templateU('external-wall', { layers: [{ name: 'x', thicknessMm: 10 } as never] });
+		expect(broken.u).toBeNull();
+		expect(broken.problem).toMatch(/layers\.0\.lambda/);
+	});
+});
