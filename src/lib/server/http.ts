@@ -1,39 +1,64 @@
-import { error, json } from '@sveltejs/kit';
+/**
+ * The HTTP side of the kernel: read a JSON body, validate it, and turn an expected refusal into its
+ * answer. Every `+server.ts` handler goes through these, so every refusal has the same shape:
+ * `{ message, …extra }` with the status of its error (see `./errors.ts`).
+ */
+import { json } from '@sveltejs/kit';
 import type { z } from 'zod';
-import { fieldIssues } from '$lib/climates/schema';
-import { ConflictError } from './errors';
+import { fieldIssues, issuesSentence } from '$lib/validation';
+import { AppError, ValidationError } from './errors';
 
-/** The request's JSON body, or a 400 that says the body is not JSON. */
+/** The request's JSON body (an empty body is `{}`), or a 400 that says the body is not JSON. */
 export async function readJson(request: Request): Promise<unknown> {
 	const text = await request.text();
 	if (text.trim() === '') return {};
 	try {
 		return JSON.parse(text);
-	} catch {
-		error(400, 'The request body is not valid JSON.');
+	} catch (e) {
+		throw new ValidationError(
+			[{ path: '(body)', message: `is not valid JSON: ${(e as Error).message}` }],
+			'The request body is not valid JSON.'
+		);
 	}
 }
 
-/** 400 with one entry per bad field: `{ message, issues: [{ path, message }] }`. */
-export function invalid(err: z.ZodError, what = 'input'): Response {
-	const issues = fieldIssues(err);
-	return json(
-		{
-			message: `The ${what} has ${issues.length} problem${issues.length === 1 ? '' : 's'}: ${issues
-				.slice(0, 5)
-				.map((i) => `${i.path}: ${i.message}`)
-				.join('; ')}${issues.length > 5 ? '; …' : ''}`,
-			issues
-		},
-		{ status: 400 }
-	);
+/** Validate with a zod schema; a 400 names every field at fault. */
+export function parseWith<T extends z.ZodType>(schema: T, raw: unknown, what = 'request'): z.output<T> {
+	const r = schema.safeParse(raw);
+	if (r.success) return r.data;
+	const issues = fieldIssues(r.error);
+	throw new ValidationError(issues, issuesSentence(issues, what));
 }
 
-/** Turns a known refusal into its HTTP answer; rethrows anything else. */
-export function refusal(e: unknown): Response {
-	if (e instanceof ConflictError) return json({ message: e.message }, { status: 409 });
-	if (e instanceof Error && 'status' in e && e.status === 403) {
-		return json({ message: e.message }, { status: 403 });
-	}
+/** A failed zod parse as its 400 answer, for handlers that parse with `safeParse` themselves. */
+export function invalid(error: z.ZodError, what = 'request'): Response {
+	const issues = fieldIssues(error);
+	return errorResponse(new ValidationError(issues, issuesSentence(issues, what)));
+}
+
+/** An expected refusal as its JSON answer; anything else is rethrown (handleError: 500 with a reference). */
+export function errorResponse(e: unknown): Response {
+	if (e instanceof AppError) return json(e.body(), { status: e.status });
 	throw e;
+}
+
+/** Run a handler; expected refusals become their JSON answers. */
+export async function answer(fn: () => Promise<Response> | Response): Promise<Response> {
+	try {
+		return await fn();
+	} catch (e) {
+		return errorResponse(e);
+	}
+}
+
+/** `?version=` of a DELETE, required: the version the caller loaded. */
+export function versionParam(url: URL): number {
+	const raw = url.searchParams.get('version');
+	const v = raw === null ? NaN : Number(raw);
+	if (!Number.isInteger(v) || v < 1) {
+		throw new ValidationError([
+			{ path: 'version', message: 'is required as ?version=N: the version you loaded' }
+		]);
+	}
+	return v;
 }

@@ -114,7 +114,7 @@ describe('editor helpers and the engine input (pure)', () => {
 describe.skipIf(!hasDatabase)('ground floors and roof spaces on the server', async () => {
 	const dwellings = await import('../../../src/lib/server/dwellings');
 	const elements = await import('../../../src/lib/server/dwellings/elements');
-	const { ValidationError } = await import('../../../src/lib/dwellings/errors');
+	const { ValidationError } = await import('../../../src/lib/server/errors');
 	const { asMember, ref } = await import('../../factories-dwellings');
 
 	afterAll(async () => {

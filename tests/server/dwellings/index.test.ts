@@ -8,7 +8,7 @@ import { asMember, makeClimate, makeLimitTable, ref, WALL } from '../../factorie
 describe.skipIf(!hasDatabase)('dwellings and elements', async () => {
 	const dwellings = await import('../../../src/lib/server/dwellings');
 	const elements = await import('../../../src/lib/server/dwellings/elements');
-	const { ConflictError, NotFoundError, ValidationError } = await import('../../../src/lib/dwellings/errors');
+	const { ConflictError, NotFoundError, ValidationError } = await import('../../../src/lib/server/errors');
 	const calculate = await import('../../../src/routes/api/v1/calculate/+server');
 	const list = await import('../../../src/routes/api/v1/dwellings/+server');
 	const one = await import('../../../src/routes/api/v1/dwellings/[dwellingId=uuid]/+server');

@@ -8,6 +8,7 @@ import { SMTPServer } from 'smtp-server';
 import { simpleParser, type ParsedMail } from 'mailparser';
 import nodemailer from 'nodemailer';
 import { hasDatabase, makeTeam, tdb } from '../../factories';
+import { groupCode } from '../../../src/lib/format';
 import {
 	makeClimate,
 	makeDwelling,
@@ -130,7 +131,7 @@ describe.skipIf(!hasDatabase)('reports', async () => {
 			expect(p).toContain(s.dwelling.reference);
 			expect(p).toContain(`${ORIGIN}/verify/${issued.verificationCode}`);
 			// The code itself in the grouped form the screens show (the verify page takes both forms).
-			expect(p).toContain(`code ${reports.formatCode(issued.verificationCode)}`);
+			expect(p).toContain(`code ${groupCode(issued.verificationCode)}`);
 		});
 		// The declaration, on the last page: the assessor, the registration number, the date of issue,
 		// the statement, an empty signature line and, beside them, the validity statement (common
@@ -359,7 +360,7 @@ describe.skipIf(!hasDatabase)('reports', async () => {
 		const s = await setup();
 		const elementId = await makeElement(s.team.org.id, s.dwelling.id);
 		const issued = await reports.issueReport(s.caller, { dwellingId: s.dwelling.id, elementId }, ORIGIN);
-		const v = await reports.verifyCode(reports.formatCode(issued.verificationCode).toLowerCase());
+		const v = await reports.verifyCode(groupCode(issued.verificationCode).toLowerCase());
 		expect(v).not.toBeNull();
 		// Four facts about the dwelling and its report, plus whether a later revision replaced it.
 		expect(Object.keys(v!).sort()).toEqual([
@@ -405,7 +406,7 @@ describe.skipIf(!hasDatabase)('reports', async () => {
 			report: Awaited<ReturnType<typeof reports.verifyCode>>;
 			code: string;
 		}>;
-		const grouped = await load({ params: { code: reports.formatCode(first.verificationCode) } });
+		const grouped = await load({ params: { code: groupCode(first.verificationCode) } });
 		const plain = await load({ params: { code: first.verificationCode.toLowerCase() } });
 		expect(grouped.code).toBe(first.verificationCode);
 		expect(plain).toEqual(grouped);

@@ -9,7 +9,7 @@ import { FLAG_LABELS, ITEM_STATE_LABELS, SEVERITY_LABELS } from '$lib/audit/flag
 import { DWELLING_STATUS_LABELS, type DwellingStatus } from '$lib/dwellings/kinds';
 import type { Batch, BatchSummary, ItemRow } from '$lib/server/audit';
 import { uChartSvg } from './chart';
-import { whenUtc } from '$lib/components/reports/when';
+import { whenUtc } from '$lib/format';
 
 const FONT = 'SourceSans3';
 

@@ -1,6 +1,6 @@
 import Papa from 'papaparse';
 import { CsvFileError, decodeUpload } from '$lib/server/csv/read';
-import { MONTH_NAMES } from '$lib/climates/schema';
+import { MONTH_NAMES } from '$lib/format';
 
 /**
  * Reads a climate from a CSV file: a header row naming `month`, `temperature` (°C) and

@@ -30,6 +30,16 @@ export async function getClimate(organisationId: string, id: string, trx: Db = d
 	return row ? toClimate(row) : null;
 }
 
+/** The climate's name, source and months (the brief the dwelling and element pages show). */
+export async function getClimateBrief(organisationId: string, climateId: string, trx: Db = db) {
+	const climate = await getClimate(organisationId, climateId, trx);
+	if (!climate) return null;
+	const { id, name, source, illustrative, months } = climate;
+	return { id, name, source, illustrative: Boolean(illustrative), months };
+}
+
+export type ClimateBrief = NonNullable<Awaited<ReturnType<typeof getClimateBrief>>>;
+
 /** How many dwellings and elements name the climate. */
 export async function getClimateUsage(organisationId: string, id: string, trx: Db = db) {
 	const [d] = await trx('dwellings')

@@ -3,12 +3,9 @@
  * same zod schemas the endpoints validate with. Merged into /api/v1/openapi.json.
  */
 import { z } from 'zod';
-import {
-	climateInputSchema,
-	limitTableInputSchema,
-	templateInputSchema,
-	templatePatchSchema
-} from '$lib/climates/schema';
+import { climateInputSchema } from '$lib/climates/schema';
+import { limitTableInputSchema } from '$lib/limit-tables/schema';
+import { templateInputSchema, templatePatchSchema } from '$lib/templates/schema';
 
 const schema = (s: z.ZodType, io: 'input' | 'output' = 'input') =>
 	z.toJSONSchema(s, { io, unrepresentable: 'any' }) as Record<string, unknown>;

@@ -18,16 +18,12 @@ import {
 	STALE_MESSAGE,
 	ValidationError,
 	type FieldIssue
-} from '$lib/dwellings/errors';
+} from '$lib/server/errors';
 import { passesLimit, type ElementBrief } from '$lib/dwellings/summary';
-import {
-	getClimateBrief,
-	getLimitTableFor,
-	lockDwelling,
-	touchDwelling,
-	zodIssues,
-	type ClimateBrief
-} from '.';
+import { getClimateBrief, type ClimateBrief } from '$lib/server/climates';
+import { getApplicableLimitTable } from '$lib/server/limit-tables';
+import { lockDwelling, touchDwelling } from './locks';
+import { fieldIssues } from '$lib/validation';
 import { limitFor } from '$lib/server/limit-tables';
 
 /* ------------------------------------------------------------ reads */
@@ -108,7 +104,7 @@ export async function getDwellingContext(
 	const [climate, dwellingClimate, limitTable] = await Promise.all([
 		climateId ? getClimateBrief(organisationId, climateId) : null,
 		d.climate_id ? getClimateBrief(organisationId, d.climate_id) : null,
-		getLimitTableFor(organisationId, d.limit_table_id)
+		getApplicableLimitTable(organisationId, d.limit_table_id)
 	]);
 	return {
 		dwelling: {
@@ -142,7 +138,7 @@ export async function calculateElement(
 	climate: ClimateBrief | null;
 }> {
 	const pre = elementFieldsSchema.safeParse(raw);
-	if (!pre.success) throw new ValidationError(zodIssues(pre.error.issues));
+	if (!pre.success) throw new ValidationError(fieldIssues(pre.error));
 	const climateId = pre.data.climateId ?? dwellingClimateId;
 	const climate = climateId ? await getClimateBrief(organisationId, climateId, trx) : null;
 	if (pre.data.climateId && !climate) {
@@ -273,7 +269,10 @@ export async function createElement(
 			},
 			t
 		);
-		return withVerdict(toElement(row), await getLimitTableFor(member.organisationId, d.limit_table_id, t));
+		return withVerdict(
+			toElement(row),
+			await getApplicableLimitTable(member.organisationId, d.limit_table_id, t)
+		);
 	};
 	return trx ? write(trx) : db.transaction(write);
 }
@@ -293,7 +292,8 @@ export async function updateElement(member: Member, id: string, raw: unknown): P
 			.where({ organisation_id: member.organisationId, id })
 			.forUpdate()
 			.first();
-		if (current.version !== v.data) throw new ConflictError(STALE_MESSAGE, current.version);
+		if (current.version !== v.data)
+			throw new ConflictError(STALE_MESSAGE, { currentVersion: current.version });
 		const d = await t('dwellings').where({ id: existing.dwelling_id }).first('climate_id', 'limit_table_id');
 		const { data, result } = await calculateElement(member.organisationId, raw, d.climate_id, t);
 		const [row] = await t('elements')
@@ -322,7 +322,10 @@ export async function updateElement(member: Member, id: string, raw: unknown): P
 			},
 			t
 		);
-		return withVerdict(toElement(row), await getLimitTableFor(member.organisationId, d.limit_table_id, t));
+		return withVerdict(
+			toElement(row),
+			await getApplicableLimitTable(member.organisationId, d.limit_table_id, t)
+		);
 	});
 }
 
@@ -338,7 +341,8 @@ export async function deleteElement(member: Member, id: string, version: number)
 			.where({ organisation_id: member.organisationId, id })
 			.forUpdate()
 			.first();
-		if (current.version !== version) throw new ConflictError(STALE_MESSAGE, current.version);
+		if (current.version !== version)
+			throw new ConflictError(STALE_MESSAGE, { currentVersion: current.version });
 		await t('elements').where({ organisation_id: member.organisationId, id }).delete();
 		await touchDwelling(t, member.organisationId, existing.dwelling_id);
 		await logActivity(
@@ -377,12 +381,13 @@ export async function reorderElements(
 	raw: unknown
 ): Promise<{ version: number; ids: string[] }> {
 	const parsed = elementOrderSchema.safeParse(raw);
-	if (!parsed.success) throw new ValidationError(zodIssues(parsed.error.issues));
+	if (!parsed.success) throw new ValidationError(fieldIssues(parsed.error));
 	const { ids, version } = parsed.data;
 	return db.transaction(async (t) => {
 		const dwelling = await lockDwelling(t, member.organisationId, dwellingId);
 		assertWritable(dwelling.status);
-		if (dwelling.version !== version) throw new ConflictError(STALE_MESSAGE, dwelling.version);
+		if (dwelling.version !== version)
+			throw new ConflictError(STALE_MESSAGE, { currentVersion: dwelling.version });
 		const rows: { id: string; position: number }[] = await t('elements')
 			.where({ organisation_id: member.organisationId, dwelling_id: dwellingId })
 			.orderBy([{ column: 'position' }, { column: 'created_at' }])

@@ -16,12 +16,18 @@ import {
 	ValidationError,
 	pgCode,
 	type FieldIssue
-} from '$lib/dwellings/errors';
+} from '$lib/server/errors';
+import { fieldIssues } from '$lib/validation';
 import type { DwellingStatus, ElementKind } from '$lib/dwellings/kinds';
 import { summariseElements, type ElementSummaryRow } from '$lib/dwellings/summary';
 import { listElementSummaries, toElementBrief } from './elements';
-import { getClimate } from '$lib/server/climates';
-import { getDefaultLimitTable, getLimitTable } from '$lib/server/limit-tables';
+import { getClimateBrief, type ClimateBrief } from '$lib/server/climates';
+import {
+	applicableLimitTableSql,
+	getApplicableLimitTable,
+	type LimitTableBrief
+} from '$lib/server/limit-tables';
+import { lockDwelling } from './locks';
 
 /** Roles that create and change dwellings and elements; supervisors read only. */
 export const WRITE_ROLES = ['assessor', 'admin'] as const;
@@ -39,7 +45,7 @@ const SORT_COLUMNS: Record<DwellingListQuery['sort'], string> = {
 /** A page of the organisation's dwellings, searched by reference, address, programme and client. */
 export async function listDwellings(organisationId: string, rawQuery: unknown): Promise<DwellingPage> {
 	const parsed = dwellingListQuerySchema.safeParse(rawQuery ?? {});
-	if (!parsed.success) throw new ValidationError(zodIssues(parsed.error.issues));
+	if (!parsed.success) throw new ValidationError(fieldIssues(parsed.error));
 	const q = parsed.data;
 	const base = db('dwellings as d')
 		.leftJoin('users as u', 'u.id', 'd.assessor_id')
@@ -101,7 +107,7 @@ export async function getDwellingOverview(
 	if (!dwelling) return null;
 	const [elements, limitTable, climate] = await Promise.all([
 		listElementSummaries(organisationId, id),
-		getLimitTableFor(organisationId, dwelling.limitTableId),
+		getApplicableLimitTable(organisationId, dwelling.limitTableId),
 		dwelling.climateId ? getClimateBrief(organisationId, dwelling.climateId) : Promise.resolve(null)
 	]);
 	const { rows, totals } = summariseElements(elements, limitTable?.limits ?? null);
@@ -166,7 +172,7 @@ export async function getDwellingPage(
 			) e) AS elements,
 			(SELECT to_jsonb(t) FROM limit_tables t, d
 				WHERE t.organisation_id = :org
-					AND (CASE WHEN d.limit_table_id IS NULL THEN t.is_default ELSE t.id = d.limit_table_id END)
+					AND ${applicableLimitTableSql('d', 't')}
 				LIMIT 1) AS limit_table,
 			(SELECT jsonb_build_object('id', c.id, 'name', c.name, 'source', c.source,
 					'illustrative', c.illustrative, 'months', c.months)
@@ -245,24 +251,6 @@ export async function listAssessors(organisationId: string) {
 	}));
 }
 
-/** The limit table that applies: the dwelling's choice, else the organisation's default. */
-export async function getLimitTableFor(organisationId: string, limitTableId: string | null, trx: Db = db) {
-	const table = limitTableId
-		? await getLimitTable(organisationId, limitTableId, trx)
-		: await getDefaultLimitTable(organisationId, trx);
-	if (!table) return null;
-	const { id, name, edition, source, isDefault, limits } = table;
-	return { id, name, edition, source, isDefault: Boolean(isDefault), chosen: Boolean(limitTableId), limits };
-}
-
-/** The climate's name, source and months (the brief the dwelling and element pages show). */
-export async function getClimateBrief(organisationId: string, climateId: string, trx: Db = db) {
-	const climate = await getClimate(organisationId, climateId, trx);
-	if (!climate) return null;
-	const { id, name, source, illustrative, months } = climate;
-	return { id, name, source, illustrative: Boolean(illustrative), months };
-}
-
 /** Options for the dwelling form: climates and limit tables of the organisation. */
 export async function listDwellingOptions(organisationId: string) {
 	const [climates, limitTables, assessors] = await Promise.all([
@@ -325,7 +313,7 @@ const referenceTaken = (reference: string) =>
 
 export async function createDwelling(member: Member, raw: unknown, trx?: Db): Promise<Dwelling> {
 	const parsed = dwellingFieldsSchema.safeParse(raw);
-	if (!parsed.success) throw new ValidationError(zodIssues(parsed.error.issues));
+	if (!parsed.success) throw new ValidationError(fieldIssues(parsed.error));
 	const data = parsed.data;
 	const write = async (t: Db) => {
 		await checkReferences(member.organisationId, data, t);
@@ -379,7 +367,7 @@ const COLUMN: Record<string, string> = {
 /** Change the dwelling's details; `version` must be the one the caller loaded (else 409). */
 export async function updateDwelling(member: Member, id: string, raw: unknown): Promise<Dwelling> {
 	const parsed = dwellingUpdateSchema.safeParse(raw);
-	if (!parsed.success) throw new ValidationError(zodIssues(parsed.error.issues));
+	if (!parsed.success) throw new ValidationError(fieldIssues(parsed.error));
 	const { version, ...data } = parsed.data;
 	// Only the fields the caller sent: `partial()` leaves defaults out of absent keys.
 	const sent = new Set(Object.keys((raw ?? {}) as object));
@@ -387,7 +375,8 @@ export async function updateDwelling(member: Member, id: string, raw: unknown): 
 		const current = await lockDwelling(t, member.organisationId, id);
 		if (current.status === 'archived')
 			throw new ConflictError('This dwelling is archived; restore it before changing it.');
-		if (current.version !== version) throw new ConflictError(STALE_MESSAGE, current.version);
+		if (current.version !== version)
+			throw new ConflictError(STALE_MESSAGE, { currentVersion: current.version });
 		await checkReferences(member.organisationId, data, t);
 		const patch: Record<string, unknown> = { version: current.version + 1, updated_at: t.fn.now() };
 		const changed: string[] = [];
@@ -426,7 +415,8 @@ export async function setDwellingArchived(
 ): Promise<Dwelling> {
 	return db.transaction(async (t) => {
 		const current = await lockDwelling(t, member.organisationId, id);
-		if (current.version !== version) throw new ConflictError(STALE_MESSAGE, current.version);
+		if (current.version !== version)
+			throw new ConflictError(STALE_MESSAGE, { currentVersion: current.version });
 		if (archived === (current.status === 'archived'))
 			throw new ConflictError(archived ? 'Already archived.' : 'Not archived.');
 		await t('dwellings')
@@ -455,7 +445,8 @@ export async function setDwellingArchived(
 export async function deleteDwelling(member: Member, id: string, version: number): Promise<void> {
 	await db.transaction(async (t) => {
 		const current = await lockDwelling(t, member.organisationId, id);
-		if (current.version !== version) throw new ConflictError(STALE_MESSAGE, current.version);
+		if (current.version !== version)
+			throw new ConflictError(STALE_MESSAGE, { currentVersion: current.version });
 		const [{ n: reports }] = await t('reports')
 			.where({ organisation_id: member.organisationId, dwelling_id: id })
 			.count({ n: '*' });
@@ -488,7 +479,7 @@ export async function deleteDwelling(member: Member, id: string, version: number
 /** A new draft dwelling with the same details and copies of every element (build-ups, results). */
 export async function copyDwelling(member: Member, id: string, raw: unknown): Promise<Dwelling> {
 	const parsed = dwellingCopySchema.safeParse(raw);
-	if (!parsed.success) throw new ValidationError(zodIssues(parsed.error.issues));
+	if (!parsed.success) throw new ValidationError(fieldIssues(parsed.error));
 	return db.transaction(async (t) => {
 		const source = await t('dwellings').where({ organisation_id: member.organisationId, id }).first();
 		if (!source) throw new NotFoundError('No such dwelling.');
@@ -556,28 +547,7 @@ export async function copyDwelling(member: Member, id: string, raw: unknown): Pr
 	});
 }
 
-/** Lock the dwelling row for the transaction; 404 when it is not the organisation's. */
-export async function lockDwelling(t: Db, organisationId: string, id: string) {
-	const row = await t('dwellings').where({ organisation_id: organisationId, id }).forUpdate().first();
-	if (!row) throw new NotFoundError('No such dwelling.');
-	return {
-		id: row.id as string,
-		reference: row.reference as string,
-		status: row.status as DwellingStatus,
-		version: row.version as number
-	};
-}
-
-/** Mark a dwelling changed (its elements changed) so lists sort by real activity. */
-export async function touchDwelling(t: Db, organisationId: string, id: string) {
-	await t('dwellings').where({ organisation_id: organisationId, id }).update({ updated_at: t.fn.now() });
-}
-
 /* ------------------------------------------------------------ mapping */
-
-export function zodIssues(issues: { path: PropertyKey[]; message: string }[]): FieldIssue[] {
-	return issues.map((i) => ({ path: i.path.map(String).join('.') || '(body)', message: i.message }));
-}
 
 function toDwelling(r: Record<string, unknown>): Dwelling {
 	return {
@@ -618,8 +588,6 @@ export type Dwelling = {
 };
 export type DwellingListItem = Dwelling & { elementCount: number };
 export type DwellingPage = { items: DwellingListItem[]; total: number; page: number; pageSize: number };
-export type LimitTableBrief = NonNullable<Awaited<ReturnType<typeof getLimitTableFor>>>;
-export type ClimateBrief = NonNullable<Awaited<ReturnType<typeof getClimateBrief>>>;
 export type DwellingOverview = {
 	dwelling: Dwelling;
 	elements: ElementSummaryRow[];

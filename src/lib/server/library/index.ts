@@ -4,6 +4,7 @@
  * new revision and moves materials.current_revision_id, so a layer that points at a revision keeps
  * the values it was calculated with. Every query filters by the caller's organisation.
  */
+import { calendarDay } from '$lib/format';
 import { randomUUID } from 'node:crypto';
 import { Readable } from 'node:stream';
 import { pipeline } from 'node:stream/promises';
@@ -52,15 +53,7 @@ export class LibraryError extends Error {
 	}
 }
 
-const dateText = (d: unknown): string | null => {
-	if (d === null || d === undefined) return null;
-	if (d instanceof Date) {
-		// A DATE column comes back as local midnight; format it in local time.
-		const p = (n: number) => String(n).padStart(2, '0');
-		return `${d.getFullYear()}-${p(d.getMonth() + 1)}-${p(d.getDate())}`;
-	}
-	return String(d).slice(0, 10);
-};
+const dateText = calendarDay;
 
 type Row = Record<string, any>; // eslint-disable-line @typescript-eslint/no-explicit-any
 

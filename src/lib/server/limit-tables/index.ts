@@ -1,8 +1,9 @@
+import { calendarDay } from '$lib/format';
 import { db, type Db } from '$lib/server/db';
 import { logActivity } from '$lib/server/activity';
 import type { Member } from '$lib/server/guard';
 import type { ElementKind } from '$lib/dwellings/kinds';
-import { limitTableInputSchema, type LimitTableInput } from '$lib/climates/schema';
+import { limitTableInputSchema, type LimitTableInput } from '$lib/limit-tables/schema';
 import { ConflictError, pgCode, PG_FOREIGN_KEY_VIOLATION, PG_UNIQUE_VIOLATION } from '$lib/server/errors';
 
 /**
@@ -35,6 +36,33 @@ export async function getLimitTable(
 export async function getDefaultLimitTable(organisationId: string, trx: Db = db): Promise<LimitTable | null> {
 	const row = await trx('limit_tables').where({ organisation_id: organisationId, is_default: true }).first();
 	return row ? toLimitTable(row) : null;
+}
+
+/**
+ * The limit table that applies to a dwelling: its own choice, else the organisation's default (the rule
+ * of `limitTableFor` in `$lib/limit-tables/rules`, read from the database).
+ */
+export async function getApplicableLimitTable(
+	organisationId: string,
+	limitTableId: string | null,
+	trx: Db = db
+) {
+	const table = limitTableId
+		? await getLimitTable(organisationId, limitTableId, trx)
+		: await getDefaultLimitTable(organisationId, trx);
+	if (!table) return null;
+	const { id, name, edition, source, isDefault, limits } = table;
+	return { id, name, edition, source, isDefault: Boolean(isDefault), chosen: Boolean(limitTableId), limits };
+}
+
+export type LimitTableBrief = NonNullable<Awaited<ReturnType<typeof getApplicableLimitTable>>>;
+
+/**
+ * The same rule as an SQL condition, for queries that join a dwelling (`dwelling` alias) to the
+ * organisation's limit tables (`table` alias).
+ */
+export function applicableLimitTableSql(dwelling: string, table: string): string {
+	return `(CASE WHEN ${dwelling}.limit_table_id IS NULL THEN ${table}.is_default ELSE ${table}.id = ${dwelling}.limit_table_id END)`;
 }
 
 /** Creates a table; the organisation's first table becomes its default whatever `isDefault` says. */
@@ -328,22 +356,12 @@ function nameTaken(e: unknown, name: string, edition: string) {
 	return e;
 }
 
-function isoDate(d: unknown): string | null {
-	if (!d) return null;
-	if (d instanceof Date) {
-		// pg gives a DATE as local midnight; format it back as the same calendar day.
-		const p = (n: number) => String(n).padStart(2, '0');
-		return `${d.getFullYear()}-${p(d.getMonth() + 1)}-${p(d.getDate())}`;
-	}
-	return String(d).slice(0, 10);
-}
-
 function toLimitTable(r: Record<string, any>): LimitTable {
 	return {
 		id: r.id,
 		name: r.name,
 		edition: r.edition,
-		dated: isoDate(r.dated),
+		dated: calendarDay(r.dated),
 		source: r.source ?? null,
 		isDefault: r.is_default,
 		limits: r.limits ?? {},

@@ -18,7 +18,7 @@ import { toElementInput, type StoredBuildUp, type StoredInternal } from '$lib/dw
 import { GIVEN_U_KINDS, ELEMENT_KIND_LABELS, type ElementKind } from '$lib/dwellings/kinds';
 import { reportDocument, passWord, moistureWord } from './document';
 import { renderPdf } from './fonts';
-import { longDate } from '$lib/format';
+import { groupCode, longDate } from '$lib/format';
 import type {
 	ReportScope,
 	ReportSnapshot,
@@ -96,9 +96,6 @@ export function newVerificationCode(): string {
 /** A code as typed by a person: case, spaces and dashes ignored, O read as 0 and I or L as 1. */
 export function normaliseCode(raw: string): string {
 	return raw.toUpperCase().replace(/[\s-]/g, '').replace(/O/g, '0').replace(/[IL]/g, '1');
-}
-export function formatCode(code: string): string {
-	return code.replace(/^(.{4})(.{4})(.*)$/, '$1-$2-$3');
 }
 
 export function verifyUrlFor(origin: string, code: string): string {
@@ -706,7 +703,7 @@ export async function emailReport(
 			`Please find attached ${what}, report ${report.number} revision ${report.revision}, issued on ${longDate(new Date(report.issued_at).toISOString())}.`,
 			...(input.message?.trim() ? ['', input.message.trim()] : []),
 			'',
-			`You can check that the PDF is genuine at ${snap.document.verifyUrl} (verification code ${formatCode(report.verification_code)}).`,
+			`You can check that the PDF is genuine at ${snap.document.verifyUrl} (verification code ${groupCode(report.verification_code)}).`,
 			'',
 			'The results are steady-state calculations that support, and do not replace, professional judgement; check them against the local building codes and licensed practice.',
 			'',

@@ -2,13 +2,9 @@ import { db, type Db } from '$lib/server/db';
 import { logActivity } from '$lib/server/activity';
 import type { Member } from '$lib/server/guard';
 import type { ElementKind } from '$lib/dwellings/kinds';
-import {
-	templateInputSchema,
-	templatePatchSchema,
-	type BuildUp,
-	type TemplateInput
-} from '$lib/climates/schema';
-import { ConflictError, pgCode, PG_UNIQUE_VIOLATION } from '$lib/server/errors';
+import { templateInputSchema, templatePatchSchema, type TemplateInput } from '$lib/templates/schema';
+import { type StoredBuildUp as BuildUp } from '$lib/dwellings/element-input';
+import { ConflictError, ForbiddenError, pgCode, PG_UNIQUE_VIOLATION } from '$lib/server/errors';
 
 /**
  * Templates: reusable build-ups an element can start from. Any assessor or admin may save one;
@@ -88,13 +84,7 @@ export function canEditTemplate(
 	return member.role === 'admin' || (member.role === 'assessor' && template.createdBy?.id === member.user.id);
 }
 
-export class TemplateForbiddenError extends Error {
-	readonly status = 403;
-	constructor() {
-		super('Only an admin or the person who saved this template can change or delete it.');
-		this.name = 'TemplateForbiddenError';
-	}
-}
+const NOT_YOURS = 'Only an admin or the person who saved this template can change or delete it.';
 
 /** Changes some fields; null when there is no such template in the organisation. */
 export async function updateTemplate(
@@ -106,7 +96,7 @@ export async function updateTemplate(
 	return db.transaction(async (t) => {
 		const current = await getTemplate(member.organisationId, id, t);
 		if (!current) return null;
-		if (!canEditTemplate(member, current)) throw new TemplateForbiddenError();
+		if (!canEditTemplate(member, current)) throw new ForbiddenError(NOT_YOURS);
 		const changes: Record<string, unknown> = { updated_at: t.fn.now() };
 		if (data.name !== undefined) changes.name = data.name;
 		if (data.kind !== undefined) changes.kind = data.kind;
@@ -126,7 +116,7 @@ export async function deleteTemplate(member: Member, id: string): Promise<boolea
 	return db.transaction(async (t) => {
 		const current = await getTemplate(member.organisationId, id, t);
 		if (!current) return false;
-		if (!canEditTemplate(member, current)) throw new TemplateForbiddenError();
+		if (!canEditTemplate(member, current)) throw new ForbiddenError(NOT_YOURS);
 		await t('templates').where({ organisation_id: member.organisationId, id }).delete();
 		await log(member, 'delete', id, { name: current.name, kind: current.kind }, t);
 		return true;

@@ -3,7 +3,8 @@ import { requireMember, requireRole } from '$lib/server/guard';
 import { createClimate, listClimates } from '$lib/server/climates';
 import { parseClimateCsv } from '$lib/server/climates/import';
 import { climateInputSchema } from '$lib/climates/schema';
-import { climateFromForm, climateFormValues, formErrors } from '$lib/climates/form';
+import { climateFromForm, climateFormValues } from '$lib/climates/form';
+import { formErrors } from '$lib/validation';
 import { ConflictError } from '$lib/server/errors';
 
 export const load = async (event) => {

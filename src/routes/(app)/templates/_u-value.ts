@@ -1,6 +1,6 @@
 import { analyseElement, parseElementInput } from '$lib/physics';
 import { DEFAULT_HEAT_FLOW, type ElementKind } from '$lib/dwellings/kinds';
-import type { BuildUp } from '$lib/climates/schema';
+import { type StoredBuildUp as BuildUp } from '$lib/dwellings/element-input';
 
 /**
  * The template's U-value with the standard surface resistances for its kind's heat-flow direction, before

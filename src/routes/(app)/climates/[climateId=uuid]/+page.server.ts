@@ -2,7 +2,8 @@ import { error, fail, redirect } from '@sveltejs/kit';
 import { requireMember, requireRole } from '$lib/server/guard';
 import { deleteClimate, getClimate, getClimateUsage, updateClimate } from '$lib/server/climates';
 import { climateInputSchema } from '$lib/climates/schema';
-import { climateFromForm, climateFormValues, formErrors } from '$lib/climates/form';
+import { climateFromForm, climateFormValues } from '$lib/climates/form';
+import { formErrors } from '$lib/validation';
 import { ConflictError } from '$lib/server/errors';
 
 export const load = async (event) => {

@@ -17,7 +17,7 @@ import {
 	reorderElements
 } from '$lib/server/dwellings/elements';
 import { copyFormSchema, dwellingFormSchema } from '$lib/dwellings/forms';
-import { ConflictError, NotFoundError, ValidationError } from '$lib/dwellings/errors';
+import { ConflictError, NotFoundError, ValidationError } from '$lib/server/errors';
 
 export const load = async (event) => {
 	const member = requireMember(event);

@@ -4,7 +4,7 @@ import { zod4 } from 'sveltekit-superforms/adapters';
 import { requireRole } from '$lib/server/guard';
 import { createDwelling, listDwellingOptions, WRITE_ROLES } from '$lib/server/dwellings';
 import { dwellingFormSchema } from '$lib/dwellings/forms';
-import { ValidationError } from '$lib/dwellings/errors';
+import { ValidationError } from '$lib/server/errors';
 
 export const load = async (event) => {
 	const member = requireRole(event, ...WRITE_ROLES);

@@ -1,8 +1,9 @@
 import { fail, redirect } from '@sveltejs/kit';
 import { requireMember, requireRole } from '$lib/server/guard';
 import { createLimitTable, listLimitTables } from '$lib/server/limit-tables';
-import { limitTableInputSchema } from '$lib/climates/schema';
-import { formErrors, limitTableFormValues, limitTableFromForm } from '$lib/climates/form';
+import { limitTableInputSchema } from '$lib/limit-tables/schema';
+import { formErrors } from '$lib/validation';
+import { limitTableFormValues, limitTableFromForm } from '$lib/limit-tables/form';
 import { ConflictError } from '$lib/server/errors';
 
 export const load = async (event) => {

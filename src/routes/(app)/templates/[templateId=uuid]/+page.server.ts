@@ -7,9 +7,9 @@ import {
 	getTemplate,
 	updateTemplate
 } from '$lib/server/templates';
-import { templatePatchSchema } from '$lib/climates/schema';
-import { formErrors } from '$lib/climates/form';
-import { ConflictError } from '$lib/server/errors';
+import { templatePatchSchema } from '$lib/templates/schema';
+import { formErrors } from '$lib/validation';
+import { ConflictError, ForbiddenError } from '$lib/server/errors';
 import { templateU } from '../_u-value';
 
 const NOT_FOUND = 'No such template in your organisation.';
@@ -43,7 +43,7 @@ export const actions = {
 			if (e instanceof ConflictError) {
 				return fail(409, { values, errors: { name: e.message } as Record<string, string> });
 			}
-			if (e instanceof Error && 'status' in e && e.status === 403) return fail(403, { refused: e.message });
+			if (e instanceof ForbiddenError) return fail(403, { refused: e.message });
 			throw e;
 		}
 		return { done: 'Template saved.' };
@@ -71,7 +71,7 @@ export const actions = {
 		try {
 			if (!(await deleteTemplate(member, event.params.templateId))) error(404, NOT_FOUND);
 		} catch (e) {
-			if (e instanceof Error && 'status' in e && e.status === 403) return fail(403, { refused: e.message });
+			if (e instanceof ForbiddenError) return fail(403, { refused: e.message });
 			throw e;
 		}
 		redirect(303, '/templates');

@@ -1,7 +1,7 @@
 import { requireMember } from '$lib/server/guard';
 import { analyseElement, parseElementInput, type ElementResult } from '$lib/physics';
-import { handle, readJson } from '$lib/dwellings/api';
-import { ValidationError } from '$lib/dwellings/errors';
+import { answer, readJson } from '$lib/server/http';
+import { ValidationError } from '$lib/server/errors';
 
 /**
  * The answer without its bulk: every figure, check, note, warning and caution of the full result, less
@@ -36,7 +36,7 @@ const DETAILS = ['full', 'summary'] as const;
  * result is the default.
  */
 export const POST = (event) =>
-	handle(async () => {
+	answer(async () => {
 		requireMember(event);
 		const detail = event.url.searchParams.get('detail') ?? 'full';
 		if (!(DETAILS as readonly string[]).includes(detail)) {

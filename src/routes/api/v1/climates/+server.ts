@@ -3,7 +3,7 @@ import { requireMember, requireRole } from '$lib/server/guard';
 import { createClimate, listClimates } from '$lib/server/climates';
 import { parseClimateCsv } from '$lib/server/climates/import';
 import { climateInputSchema } from '$lib/climates/schema';
-import { invalid, readJson, refusal } from '$lib/server/http';
+import { errorResponse, invalid, readJson } from '$lib/server/http';
 
 /** The organisation's climates. */
 export const GET = async (event) => {
@@ -61,6 +61,6 @@ export const POST = async (event) => {
 	try {
 		return json(await createClimate(member, input.data), { status: 201 });
 	} catch (e) {
-		return refusal(e);
+		return errorResponse(e);
 	}
 };

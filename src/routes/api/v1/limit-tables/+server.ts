@@ -1,8 +1,8 @@
 import { json } from '@sveltejs/kit';
 import { requireMember, requireRole } from '$lib/server/guard';
 import { createLimitTable, listLimitTables } from '$lib/server/limit-tables';
-import { limitTableInputSchema } from '$lib/climates/schema';
-import { invalid, readJson, refusal } from '$lib/server/http';
+import { limitTableInputSchema } from '$lib/limit-tables/schema';
+import { errorResponse, invalid, readJson } from '$lib/server/http';
 
 /** The organisation's limit tables, the default first. */
 export const GET = async (event) => {
@@ -18,6 +18,6 @@ export const POST = async (event) => {
 	try {
 		return json(await createLimitTable(member, input.data), { status: 201 });
 	} catch (e) {
-		return refusal(e);
+		return errorResponse(e);
 	}
 };

@@ -2,8 +2,8 @@ import { error, json } from '@sveltejs/kit';
 import { requireMember, requireRole } from '$lib/server/guard';
 import { createTemplate, listTemplates } from '$lib/server/templates';
 import { ELEMENT_KINDS, type ElementKind } from '$lib/dwellings/kinds';
-import { templateInputSchema } from '$lib/climates/schema';
-import { invalid, readJson, refusal } from '$lib/server/http';
+import { templateInputSchema } from '$lib/templates/schema';
+import { errorResponse, invalid, readJson } from '$lib/server/http';
 
 /** The organisation's templates, optionally of one element kind (`?kind=`) or matching `?q=`. */
 export const GET = async (event) => {
@@ -24,6 +24,6 @@ export const POST = async (event) => {
 	try {
 		return json(await createTemplate(member, input.data), { status: 201 });
 	} catch (e) {
-		return refusal(e);
+		return errorResponse(e);
 	}
 };

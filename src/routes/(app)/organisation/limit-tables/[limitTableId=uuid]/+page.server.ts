@@ -10,8 +10,9 @@ import {
 	setDefaultLimitTable,
 	updateLimitTable
 } from '$lib/server/limit-tables';
-import { limitTableInputSchema } from '$lib/climates/schema';
-import { formErrors, limitTableFormValues, limitTableFromForm } from '$lib/climates/form';
+import { limitTableInputSchema } from '$lib/limit-tables/schema';
+import { formErrors } from '$lib/validation';
+import { limitTableFormValues, limitTableFromForm } from '$lib/limit-tables/form';
 import { ConflictError } from '$lib/server/errors';
 
 const NOT_FOUND = 'No such limit table in your organisation.';

@@ -1,13 +1,13 @@
 import { json } from '@sveltejs/kit';
 import { requireMember } from '$lib/server/guard';
 import { ElementInputError, parseElementInput, solveThicknessDetailed } from '$lib/physics';
-import { handle, readJson } from '$lib/dwellings/api';
-import { ValidationError } from '$lib/dwellings/errors';
+import { answer, readJson } from '$lib/server/http';
+import { ValidationError } from '$lib/server/errors';
 import { PRODUCT_THICKNESSES_MM, thicknessRequestSchema } from '$lib/dwellings/schema';
 
 /** Stateless: the thickness of one layer that reaches a target U, rounded up to a product size. */
 export const POST = (event) =>
-	handle(async () => {
+	answer(async () => {
 		requireMember(event);
 		const body = thicknessRequestSchema.safeParse(await readJson(event.request));
 		if (!body.success) {

@@ -2,7 +2,7 @@ import { error, json } from '@sveltejs/kit';
 import { requireMember, requireRole } from '$lib/server/guard';
 import { deleteClimate, getClimate, getClimateUsage, updateClimate } from '$lib/server/climates';
 import { climateInputSchema } from '$lib/climates/schema';
-import { invalid, readJson, refusal } from '$lib/server/http';
+import { errorResponse, invalid, readJson } from '$lib/server/http';
 
 const NOT_FOUND = 'No such climate in your organisation.';
 
@@ -24,7 +24,7 @@ export const PUT = async (event) => {
 		if (!climate) error(404, NOT_FOUND);
 		return json(climate);
 	} catch (e) {
-		return refusal(e);
+		return errorResponse(e);
 	}
 };
 
@@ -34,7 +34,7 @@ export const DELETE = async (event) => {
 	try {
 		if (!(await deleteClimate(member, event.params.climateId))) error(404, NOT_FOUND);
 	} catch (e) {
-		return refusal(e);
+		return errorResponse(e);
 	}
 	return new Response(null, { status: 204 });
 };

@@ -7,8 +7,8 @@ import {
 	getLimitTable,
 	updateLimitTable
 } from '$lib/server/limit-tables';
-import { limitTableInputSchema } from '$lib/climates/schema';
-import { invalid, readJson, refusal } from '$lib/server/http';
+import { limitTableInputSchema } from '$lib/limit-tables/schema';
+import { errorResponse, invalid, readJson } from '$lib/server/http';
 
 const NOT_FOUND = 'No such limit table in your organisation.';
 
@@ -51,7 +51,7 @@ export const PUT = async (event) => {
 				{ status: 409 }
 			);
 		}
-		return refusal(e);
+		return errorResponse(e);
 	}
 };
 
@@ -61,7 +61,7 @@ export const DELETE = async (event) => {
 	try {
 		if (!(await deleteLimitTable(member, event.params.limitTableId))) error(404, NOT_FOUND);
 	} catch (e) {
-		return refusal(e);
+		return errorResponse(e);
 	}
 	return new Response(null, { status: 204 });
 };

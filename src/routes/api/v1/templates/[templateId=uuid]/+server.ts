@@ -1,8 +1,8 @@
 import { error, json } from '@sveltejs/kit';
 import { requireMember, requireRole } from '$lib/server/guard';
 import { deleteTemplate, getTemplate, updateTemplate } from '$lib/server/templates';
-import { templatePatchSchema } from '$lib/climates/schema';
-import { invalid, readJson, refusal } from '$lib/server/http';
+import { templatePatchSchema } from '$lib/templates/schema';
+import { errorResponse, invalid, readJson } from '$lib/server/http';
 
 const NOT_FOUND = 'No such template in your organisation.';
 
@@ -24,7 +24,7 @@ async function change(event: Parameters<typeof GET>[0]) {
 		if (!template) error(404, NOT_FOUND);
 		return json(template);
 	} catch (e) {
-		return refusal(e);
+		return errorResponse(e);
 	}
 }
 export const PATCH = change;
@@ -36,7 +36,7 @@ export const DELETE = async (event) => {
 	try {
 		if (!(await deleteTemplate(member, event.params.templateId))) error(404, NOT_FOUND);
 	} catch (e) {
-		return refusal(e);
+		return errorResponse(e);
 	}
 	return new Response(null, { status: 204 });
 };

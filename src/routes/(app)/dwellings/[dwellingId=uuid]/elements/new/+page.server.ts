@@ -4,7 +4,7 @@ import { WRITE_ROLES } from '$lib/server/dwellings';
 import { getDwellingContext } from '$lib/server/dwellings/elements';
 import { listEditorClimates } from '$lib/server/dwellings';
 import { ELEMENT_KINDS, type ElementKind } from '$lib/dwellings/kinds';
-import { NotFoundError } from '$lib/dwellings/errors';
+import { NotFoundError } from '$lib/server/errors';
 
 export const load = async (event) => {
 	const member = requireRole(event, ...WRITE_ROLES);

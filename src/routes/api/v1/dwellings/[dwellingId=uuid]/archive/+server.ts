@@ -1,13 +1,13 @@
 import { json } from '@sveltejs/kit';
 import { requireRole } from '$lib/server/guard';
 import { setDwellingArchived, WRITE_ROLES } from '$lib/server/dwellings';
-import { handle, readJson } from '$lib/dwellings/api';
-import { ValidationError } from '$lib/dwellings/errors';
+import { answer, readJson } from '$lib/server/http';
+import { ValidationError } from '$lib/server/errors';
 import { archiveSchema } from '$lib/dwellings/schema';
 
 /** Archive or restore: body `{ archived: boolean, version }`. */
 export const POST = (event) =>
-	handle(async () => {
+	answer(async () => {
 		const member = requireRole(event, ...WRITE_ROLES);
 		const body = archiveSchema.safeParse(await readJson(event.request));
 		if (!body.success) {

@@ -1,0 +1,47 @@
+/** The one mapping from zod's issues to the `{ path, message }` pairs that pages, the API and forms show. */
+import { z } from 'zod';
+
+/** One field at fault: its path (`months.3.relativeHumidity`), why, and for files the line. */
+export type FieldIssue = { path: string; message: string; line?: number };
+
+/** zod issues as field issues; an issue about the whole value gets `whole` as its path. */
+export function fieldIssues(error: z.ZodError, whole = '(body)'): FieldIssue[] {
+	return error.issues.map((i) => ({ path: i.path.map(String).join('.') || whole, message: i.message }));
+}
+
+/**
+ * zod issues as one message per form field, keyed by path (`months.3.temperature`, `limits.flat-roof`);
+ * a message for the whole of an array or object is kept under its own path (`months`, `limits`), one
+ * about the whole form under `_`.
+ */
+export function formErrors(error: z.ZodError): Record<string, string> {
+	const out: Record<string, string> = {};
+	for (const i of fieldIssues(error, '_')) out[i.path] ??= i.message;
+	return out;
+}
+
+/** Up to five issues in one sentence, for the message of a JSON answer. */
+export function issuesSentence(issues: readonly FieldIssue[], what = 'input'): string {
+	const shown = issues
+		.slice(0, 5)
+		.map((i) => `${i.path}: ${i.message}`)
+		.join('; ');
+	return `The ${what} has ${issues.length} problem${issues.length === 1 ? '' : 's'}: ${shown}${issues.length > 5 ? '; …' : ''}`;
+}
+
+/** Required text, trimmed, with messages that name the field (`name is required`). */
+export const requiredText = (label: string, max: number) =>
+	z
+		.string({ error: `${label} must be text` })
+		.trim()
+		.min(1, `${label} is required`)
+		.max(max, `${label} must be at most ${max} characters`);
+
+/** Optional text, trimmed; blank becomes null. */
+export const optionalText = (label: string, max: number) =>
+	z
+		.string({ error: `${label} must be text` })
+		.trim()
+		.max(max, `${label} must be at most ${max} characters`)
+		.nullish()
+		.transform((v) => (v ? v : null));
