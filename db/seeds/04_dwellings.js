@@ -272,7 +272,7 @@ const NF_DWELLINGS = [
 /** @param {import('knex').Knex} knex */
 export async function seed(knex) {
 	const physics = await tsImport('../../src/lib/physics/index.ts', import.meta.url);
-	const { toElementInput } = await tsImport('../../src/lib/element-input.ts', import.meta.url);
+	const { toElementInput } = await tsImport('../../src/lib/dwellings/element-input.ts', import.meta.url);
 
 	await knex.transaction(async (trx) => {
 		for (const org of [NORTHFIELD, HARBOURLINE]) {

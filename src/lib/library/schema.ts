@@ -4,6 +4,7 @@
  */
 import { z } from 'zod';
 import { MATERIAL_CATEGORIES, MATERIAL_CATEGORY_LABELS, type MaterialCategory } from '$lib/dwellings/kinds';
+import { fieldIssues, type FieldIssue } from '$lib/validation';
 
 export { MATERIAL_CATEGORIES, MATERIAL_CATEGORY_LABELS, type MaterialCategory };
 
@@ -344,7 +345,16 @@ export const listQuerySchema = z.object({
 });
 export type ListQuery = z.output<typeof listQuerySchema>;
 
-/** Issues of a failed zod parse as { field, message } with the field named by its path. */
-export function fieldIssues(error: z.ZodError): { field: string; message: string }[] {
-	return error.issues.map((i) => ({ field: i.path.join('.') || '(row)', message: i.message }));
+/** A library value at fault: `field` names it as the form and the CSV columns do (the same as `path`). */
+export type MaterialIssue = FieldIssue & { field: string };
+
+/** Issues of a failed zod parse of material values, with the field named by its path. */
+export function materialIssues(error: z.ZodError): MaterialIssue[] {
+	return fieldIssues(error, '(row)').map((i) => ({ ...i, field: i.path }));
 }
+
+/** A warning (or issue) of the library's own `{ field, message }` shape as a field issue. */
+export const asMaterialIssue = (w: { field: string; message: string }): MaterialIssue => ({
+	path: w.field,
+	...w
+});

@@ -21,6 +21,16 @@ export class AppError extends Error {
 		this.name = new.target.name;
 	}
 
+	/** The fields or lines at fault, when the answer names them. */
+	get issues(): FieldIssue[] {
+		return Array.isArray(this.extra.issues) ? (this.extra.issues as FieldIssue[]) : [];
+	}
+
+	/** Values that are valid but unusual, which the person must confirm (422). */
+	get warnings(): FieldIssue[] {
+		return Array.isArray(this.extra.warnings) ? (this.extra.warnings as FieldIssue[]) : [];
+	}
+
 	/** The JSON answer. */
 	body(): Record<string, unknown> {
 		return { message: this.message, ...this.extra };
@@ -29,7 +39,6 @@ export class AppError extends Error {
 
 /** Input that does not pass: each issue names the field (or the line) and why. 422: valid but unusual. */
 export class ValidationError extends AppError {
-	readonly issues: FieldIssue[];
 	constructor(
 		issues: FieldIssue[],
 		message = 'Some fields need attention.',
@@ -37,7 +46,6 @@ export class ValidationError extends AppError {
 		status: 400 | 413 | 422 = 400
 	) {
 		super(status, message, { issues, ...extra });
-		this.issues = issues;
 	}
 }
 

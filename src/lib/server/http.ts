@@ -22,6 +22,18 @@ export async function readJson(request: Request): Promise<unknown> {
 	}
 }
 
+/** The request's JSON body, which must be an object (`{}` when empty). */
+export async function readJsonObject(request: Request): Promise<Record<string, unknown>> {
+	const body = await readJson(request);
+	if (body === null || typeof body !== 'object' || Array.isArray(body)) {
+		throw new ValidationError(
+			[{ path: '(body)', message: 'must be a JSON object' }],
+			'The request body must be a JSON object.'
+		);
+	}
+	return body as Record<string, unknown>;
+}
+
 /** Validate with a zod schema; a 400 names every field at fault. */
 export function parseWith<T extends z.ZodType>(schema: T, raw: unknown, what = 'request'): z.output<T> {
 	const r = schema.safeParse(raw);
@@ -61,4 +73,16 @@ export function versionParam(url: URL): number {
 		]);
 	}
 	return v;
+}
+
+/** A PDF as the answer, never cached (reports are the organisation's, not public). */
+export function pdfResponse(pdf: Buffer, filename: string, disposition: 'inline' | 'attachment' = 'inline') {
+	return new Response(new Uint8Array(pdf), {
+		headers: {
+			'content-type': 'application/pdf',
+			'content-length': String(pdf.length),
+			'content-disposition': `${disposition}; filename="${filename}"`,
+			'cache-control': 'private, no-store'
+		}
+	});
 }

@@ -149,9 +149,17 @@ async function loadAttachments(row: OutboxRow) {
 }
 
 /** Put a failed message back in the queue for an immediate attempt. */
-export async function requeueMail(organisationId: string, id: string, trx: Db = db): Promise<boolean> {
+export async function requeueMail(
+	organisationId: string,
+	id: string,
+	scope: { dwellingId?: string } = {},
+	trx: Db = db
+): Promise<boolean> {
 	const n = await trx('mail_outbox')
 		.where({ id, organisation_id: organisationId })
+		.modify((q) => {
+			if (scope.dwellingId) q.where('dwelling_id', scope.dwellingId);
+		})
 		.whereIn('status', ['failed', 'queued'])
 		.update({ status: 'queued', next_attempt_at: trx.fn.now() });
 	return n > 0;

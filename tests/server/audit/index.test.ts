@@ -5,6 +5,7 @@ import { auditDwelling, type DwellingBundle, type RevisionInfo } from '../../../
 import { analyseElement } from '../../../src/lib/physics';
 import { toElementInput } from '../../../src/lib/dwellings/element-input';
 import { parseReferenceText } from '../../../src/lib/server/audit/references';
+import { AppError } from '../../../src/lib/server/errors';
 
 // The audit's own rules (sampling, flags, decisions, the log) are common practice, no source; physical
 // thresholds name their source beside the check.
@@ -403,7 +404,7 @@ describe.skipIf(!hasDatabase)('audit batches (PostgreSQL)', async () => {
 				sampling: { rule: 'all', includeFlagged: false }
 			})
 			.catch((e) => e);
-		expect(err).toBeInstanceOf(audits.AuditError);
+		expect(err).toBeInstanceOf(AppError);
 		expect(err.issues.map((i: { message: string }) => i.message)).toEqual([
 			'line 3: no dwelling with the reference "NOPE-1" in this organisation',
 			`line 4: "${p.dwellings[0].reference}" is listed twice (also on line 2)`

@@ -8,6 +8,7 @@ import net from 'node:net';
 import { getRequest } from '@sveltejs/kit/node';
 import { fakeEvent, hasDatabase, makeTeam, tdb } from '../../factories';
 import { boardValues, fixture } from '../../factories-library';
+import { AppError, ConflictError } from '../../../src/lib/server/errors';
 
 const enc = (s: string) => new TextEncoder().encode(s);
 const HEAD = 'code,name,category,lambda,lambda_kind';
@@ -181,8 +182,8 @@ describe.skipIf(!hasDatabase)('material import under awkward conditions', async 
 		).toMatchObject({ added: 1 });
 		release();
 		const refused = await a;
-		expect(refused).toBeInstanceOf(imp.ImportRefused);
-		expect((refused as InstanceType<typeof imp.ImportRefused>).status).toBe(409);
+		expect(refused).toBeInstanceOf(ConflictError);
+		expect((refused as ConflictError).status).toBe(409);
 	});
 
 	it('a material of the same code created while the commit runs: 409, and nothing of the import lands', async () => {
@@ -235,8 +236,8 @@ describe.skipIf(!hasDatabase)('material import under awkward conditions', async 
 		await new Promise((r) => setTimeout(r, 200));
 		release();
 		expect(await importing).toMatchObject({ added: 1 });
-		const err = (await creating) as InstanceType<typeof lib.LibraryError>;
-		expect(err).toBeInstanceOf(lib.LibraryError);
+		const err = (await creating) as AppError;
+		expect(err).toBeInstanceOf(AppError);
 		expect(err.status).toBe(409);
 		expect(err.message).toBe('The code HAND-1 is already in the library.');
 	});

@@ -1,6 +1,7 @@
 import { describe, it, expect, afterAll } from 'vitest';
 import { hasDatabase, makeTeam, tdb } from '../../factories';
 import { boardValues, fixture, generatedCsv, librarySnapshot } from '../../factories-library';
+import { ValidationError } from '../../../src/lib/server/errors';
 
 // The CSV import and export against a real PostgreSQL. The behaviour checked is our own (common
 // practice, no source) unless a document is named beside the check. Every bad file gets its specific
@@ -361,9 +362,10 @@ describe.skipIf(!hasDatabase)('material library CSV', async () => {
 				{ confirmWarnings: true }
 			)
 			.catch((e) => e);
-		expect(err).toBeInstanceOf(lib.LibraryError);
+		expect(err).toBeInstanceOf(ValidationError);
 		expect(err.status).toBe(400);
 		expect(err.issues).toContainEqual({
+			path: 'name',
 			field: 'name',
 			message: expect.stringMatching(/invisible control character/)
 		});

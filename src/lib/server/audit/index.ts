@@ -21,18 +21,13 @@ import {
 import { FLAG_LABELS, DECISION_LABELS, type Decision, type Flag, type ItemState } from '$lib/audit/flags';
 import type { BatchFilter, DecisionInput, NewBatch } from '$lib/audit/schemas';
 import type { ElementKind } from '$lib/dwellings/kinds';
-
-/** An expected failure with an HTTP status and, for bad input, the fields or lines at fault. */
-export class AuditError extends Error {
-	constructor(
-		readonly status: 400 | 403 | 404 | 409,
-		message: string,
-		readonly issues: { path: string; message: string; line?: number }[] = []
-	) {
-		super(message);
-		this.name = 'AuditError';
-	}
-}
+import {
+	ConflictError,
+	ForbiddenError,
+	NotFoundError,
+	ValidationError,
+	type FieldIssue
+} from '$lib/server/errors';
 
 export type { BatchProgress, BatchSource };
 
@@ -115,7 +110,7 @@ async function resolveReferences(
 		.whereIn('d.reference', unique)
 		.select('d.id', 'd.reference', 'd.assessor_id', 'u.name as assessor_name');
 	const byRef = new Map(rows.map((r) => [r.reference as string, r]));
-	const issues: AuditError['issues'] = [];
+	const issues: FieldIssue[] = [];
 	const seen = new Map<string, number>();
 	for (const r of refs) {
 		if (!byRef.has(r.reference)) {
@@ -133,10 +128,9 @@ async function resolveReferences(
 		} else seen.set(r.reference, r.line);
 	}
 	if (issues.length) {
-		throw new AuditError(
-			400,
-			`${issues.length} line${issues.length === 1 ? '' : 's'} of the reference list could not be used; nothing was created.`,
-			issues
+		throw new ValidationError(
+			issues,
+			`${issues.length} line${issues.length === 1 ? '' : 's'} of the reference list could not be used; nothing was created.`
 		);
 	}
 	return rows.map((r) => ({ id: r.id, assessorId: r.assessor_id, assessorName: r.assessor_name }));
@@ -169,16 +163,18 @@ export async function createBatch(
 					.where({ organisation_id: orgId, user_id: input.filter.assessorId })
 					.first('user_id');
 				if (!m)
-					throw new AuditError(400, 'The assessor is not a member of this organisation.', [
-						{ path: 'filter.assessorId', message: 'is not a member of this organisation' }
-					]);
+					throw new ValidationError(
+						[{ path: 'filter.assessorId', message: 'is not a member of this organisation' }],
+						'The assessor is not a member of this organisation.'
+					);
 			}
 			population = await resolveFilter(orgId, input.filter, trx);
 		}
 		if (population.length === 0) {
-			throw new AuditError(400, 'No dwellings match; nothing was created.', [
-				{ path: input.source === 'references' ? 'references' : 'filter', message: 'no dwellings match' }
-			]);
+			throw new ValidationError(
+				[{ path: input.source === 'references' ? 'references' : 'filter', message: 'no dwellings match' }],
+				'No dwellings match; nothing was created.'
+			);
 		}
 		const seed = input.seed && input.seed !== '' ? input.seed : newSeed();
 		const sampling = input.sampling as SamplingRule;
@@ -422,7 +418,7 @@ const DECIDERS = ['supervisor', 'admin'];
  */
 export async function decideItem(member: Member, itemId: string, input: DecisionInput): Promise<ItemRow> {
 	if (!DECIDERS.includes(member.role))
-		throw new AuditError(403, 'Only supervisors and admins decide on audited dwellings.');
+		throw new ForbiddenError('Only supervisors and admins decide on audited dwellings.');
 	const orgId = member.organisationId;
 	await db.transaction(async (trx) => {
 		const item = await trx('audit_items as i')
@@ -430,14 +426,14 @@ export async function decideItem(member: Member, itemId: string, input: Decision
 			.where({ 'i.organisation_id': orgId, 'i.id': itemId })
 			.forUpdate('i')
 			.first('i.*', 'b.status as batch_status', 'b.name as batch_name');
-		if (!item) throw new AuditError(404, 'No such audit item.');
+		if (!item) throw new NotFoundError('No such audit item.');
 		if (item.batch_status === 'closed')
-			throw new AuditError(409, 'The batch is closed; reopen it to change decisions.');
+			throw new ConflictError('The batch is closed; reopen it to change decisions.');
 		const dwelling = await trx('dwellings')
 			.where({ organisation_id: orgId, id: item.dwelling_id })
 			.first('id', 'reference', 'address', 'assessor_id', 'status');
 		if (item.decision === 'returned' && input.decision === 'returned') {
-			throw new AuditError(409, 'This dwelling is already returned; wait for the assessor to resubmit it.');
+			throw new ConflictError('This dwelling is already returned; wait for the assessor to resubmit it.');
 		}
 		await trx('audit_items')
 			.where({ id: itemId })
@@ -589,21 +585,21 @@ export async function resubmitItem(
 			.where({ 'i.organisation_id': orgId, 'i.id': itemId })
 			.forUpdate('i')
 			.first('i.*', 'd.assessor_id', 'd.reference');
-		if (!item) throw new AuditError(404, 'No such audit item.');
+		if (!item) throw new NotFoundError('No such audit item.');
 		if (member.role !== 'admin' && item.assessor_id !== member.user.id) {
-			throw new AuditError(403, "Only the dwelling's assessor (or an admin) resubmits it.");
+			throw new ForbiddenError("Only the dwelling's assessor (or an admin) resubmits it.");
 		}
 		if (item.decision !== 'returned')
-			throw new AuditError(409, 'This dwelling is not returned, so there is nothing to resubmit.');
+			throw new ConflictError('This dwelling is not returned, so there is nothing to resubmit.');
 		const report = await trx('reports')
 			.where({ organisation_id: orgId, dwelling_id: item.dwelling_id, scope: 'dwelling' })
 			.andWhere('issued_at', '>', item.decided_at)
 			.orderBy('issued_at', 'desc')
 			.first('id', 'number', 'revision');
 		if (!report) {
-			throw new AuditError(409, 'Issue the dwelling report again after your corrections, then resubmit.', [
-				{ path: 'report', message: 'no dwelling report has been issued since the return' }
-			]);
+			throw new ConflictError('Issue the dwelling report again after your corrections, then resubmit.', {
+				issues: [{ path: 'report', message: 'no dwelling report has been issued since the return' }]
+			});
 		}
 		await trx('audit_items')
 			.where({ id: itemId })

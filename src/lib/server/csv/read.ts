@@ -8,11 +8,12 @@
 import { createHash } from 'node:crypto';
 import { Readable } from 'node:stream';
 import Papa from 'papaparse';
+import { AppError } from '$lib/server/errors';
 
 export const DEFAULT_MAX_BYTES = 10 * 1024 * 1024;
 
-/** A problem with the file as a whole; `line` when it can be placed. */
-export class CsvFileError extends Error {
+/** A problem with the file as a whole (400); `line` when it can be placed. Answers `{ message, code, line }`. */
+export class CsvFileError extends AppError {
 	constructor(
 		message: string,
 		readonly code:
@@ -28,8 +29,7 @@ export class CsvFileError extends Error {
 			| 'line-ends',
 		readonly line?: number
 	) {
-		super(message);
-		this.name = 'CsvFileError';
+		super(400, message, { code, line: line ?? null });
 	}
 }
 

@@ -3,19 +3,16 @@
  * is handed on as a stream of chunks while the request is still coming in, so a large file is never
  * held whole. Form fields must come before the file part to be seen in time; the page sends them so,
  * and API callers may put them in the query string instead. A request that breaks off (the client
- * went away, the server's body limit) ends the file with an UploadError, never an unhandled error.
+ * went away, the server's body limit) ends the file with a ValidationError, never an unhandled error.
  */
 import { Readable } from 'node:stream';
 import { finished } from 'node:stream/promises';
 import type { ReadableStream as NodeWebStream } from 'node:stream/web';
 import busboy from 'busboy';
+import { ValidationError } from '$lib/server/errors';
 
-export class UploadError extends Error {
-	constructor(message: string) {
-		super(message);
-		this.name = 'UploadError';
-	}
-}
+/** A request whose upload cannot be read (400), e.g. one that was cut off. */
+const uploadError = (message: string) => new ValidationError([{ path: '(upload)', message }], message);
 
 export type Upload = {
 	/** form fields that came before the file, then the query string for any not given */
@@ -33,7 +30,7 @@ const CUT_OFF = 'The upload was cut off before the file ended; try again.';
 
 /**
  * The chunks of a stream, for a reader that may stop early: stopping detaches without destroying, so
- * the rest can still be drained; a stream error becomes an UploadError.
+ * the rest can still be drained; a stream error becomes a ValidationError.
  */
 function chunksOf(stream: Readable): AsyncIterable<Uint8Array> {
 	return {
@@ -44,7 +41,7 @@ function chunksOf(stream: Readable): AsyncIterable<Uint8Array> {
 					try {
 						return await it.next();
 					} catch {
-						throw new UploadError(CUT_OFF);
+						throw uploadError(CUT_OFF);
 					}
 				},
 				return: async (v?: unknown) => {
@@ -70,9 +67,9 @@ export async function readUpload(request: Request, url: URL, fileField = 'file')
 		for (const [k, v] of url.searchParams) if (!fields.has(k)) fields.set(k, v);
 		return fields;
 	};
-	if (!request.body) throw new UploadError('The request has no body: send the CSV file.');
+	if (!request.body) throw uploadError('The request has no body: send the CSV file.');
 	const body = Readable.fromWeb(request.body as unknown as NodeWebStream<Uint8Array>);
-	body.on('error', () => undefined); // reported through the reader (UploadError), not as a crash
+	body.on('error', () => undefined); // reported through the reader (a ValidationError), not as a crash
 
 	if (CSV_TYPES.some((t) => type.startsWith(t))) {
 		const name = url.searchParams.get('name') ?? 'upload.csv';
@@ -85,7 +82,7 @@ export async function readUpload(request: Request, url: URL, fileField = 'file')
 	}
 	if (!type.startsWith('multipart/form-data')) {
 		await drain(body);
-		throw new UploadError(
+		throw uploadError(
 			`Send the file as multipart/form-data in a field named "${fileField}", or as the body with Content-Type: text/csv.`
 		);
 	}
@@ -98,7 +95,7 @@ export async function readUpload(request: Request, url: URL, fileField = 'file')
 		});
 	} catch {
 		await drain(body);
-		throw new UploadError('The upload could not be read (a malformed multipart request); try again.');
+		throw uploadError('The upload could not be read (a malformed multipart request); try again.');
 	}
 	const fields = new Map<string, string>();
 	const late: string[] = [];
@@ -142,7 +139,7 @@ export async function readUpload(request: Request, url: URL, fileField = 'file')
 			});
 		});
 		void closed.then(() => {
-			if (failed) reject(new UploadError(CUT_OFF));
+			if (failed) reject(uploadError(CUT_OFF));
 			else resolve({ fields: fromQuery(fields), file: null, lateFields: () => late, finish });
 		});
 	});

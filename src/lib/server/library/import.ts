@@ -5,7 +5,8 @@
  * and returns a preview. Committing writes the accepted rows of that preview in one transaction.
  */
 import { createHash } from 'node:crypto';
-import type { Db } from '$lib/server/db';
+import { db, type Db } from '$lib/server/db';
+import { logActivity } from '$lib/server/activity';
 import {
 	CsvFileError,
 	parseNumber,
@@ -38,8 +39,7 @@ import {
 	insertNewRevisions,
 	type Actor
 } from '$lib/server/library';
-
-export { CsvFileError };
+import { ConflictError, ValidationError } from '$lib/server/errors';
 
 export const IMPORT_FIELDS = ['code', ...REVISION_FIELDS] as const;
 export type ImportField = (typeof IMPORT_FIELDS)[number];
@@ -697,16 +697,6 @@ export async function previewMaterialsImport(
 	return a.preview;
 }
 
-export class ImportRefused extends Error {
-	constructor(
-		message: string,
-		readonly status: 400 | 409 | 422
-	) {
-		super(message);
-		this.name = 'ImportRefused';
-	}
-}
-
 const CHANGED_SINCE_PREVIEW =
 	'The file or the library changed since the preview; preview the file again before you confirm.';
 
@@ -737,14 +727,13 @@ export async function planCommit(
 	const plan = kept(organisationId, opts.token);
 	if (plan) return plan;
 	if (!source) {
-		throw new ImportRefused(
-			'The preview is no longer kept on the server; send the file again with the confirmation, or preview it again.',
-			409
+		throw new ConflictError(
+			'The preview is no longer kept on the server; send the file again with the confirmation, or preview it again.'
 		);
 	}
 	const a = await analyse(k, organisationId, source, opts);
-	if ('kind' in a) throw new ImportRefused(a.message, 400);
-	if (a.plan.token !== opts.token) throw new ImportRefused(CHANGED_SINCE_PREVIEW, 409);
+	if ('kind' in a) throw new ValidationError([], a.message);
+	if (a.plan.token !== opts.token) throw new ConflictError(CHANGED_SINCE_PREVIEW);
 	return a.plan;
 }
 
@@ -766,11 +755,13 @@ export async function applyCommit(
 	opts: { confirmWarnings?: boolean; fileName?: string },
 	log?: ImportLog
 ): Promise<ImportSummary> {
-	if (plan.organisationId !== actor.organisationId) throw new ImportRefused(CHANGED_SINCE_PREVIEW, 409);
+	if (plan.organisationId !== actor.organisationId) throw new ConflictError(CHANGED_SINCE_PREVIEW);
 	const { counts } = plan;
 	if (counts.warnings > 0 && !opts.confirmWarnings) {
-		throw new ImportRefused(
+		throw new ValidationError(
+			[],
 			`${counts.warnings} ${counts.warnings === 1 ? 'row has' : 'rows have'} warnings; confirm them to import.`,
+			{},
 			422
 		);
 	}
@@ -790,7 +781,7 @@ export async function applyCommit(
 			}
 			const now = await currentRevisionStates(trx, actor.organisationId, [...plan.compared.keys()]);
 			for (const [code, state] of plan.compared) {
-				if ((now.get(code) ?? null) !== state) throw new ImportRefused(CHANGED_SINCE_PREVIEW, 409);
+				if ((now.get(code) ?? null) !== state) throw new ConflictError(CHANGED_SINCE_PREVIEW);
 			}
 			await insertNewMaterials(trx, actor, plan.added);
 			await insertNewRevisions(trx, actor, plan.revised);
@@ -836,7 +827,7 @@ export async function applyCommit(
 		// A material of the same code created meanwhile (outside any import) lands here.
 		const pg = e as { code?: string; constraint?: string };
 		if (pg.code === '23505' && pg.constraint && RACED_CONSTRAINTS.has(pg.constraint)) {
-			throw new ImportRefused(CHANGED_SINCE_PREVIEW, 409);
+			throw new ConflictError(CHANGED_SINCE_PREVIEW);
 		}
 		throw e;
 	}
@@ -867,3 +858,16 @@ export function materialsToCsv(items: MaterialValues[]): string {
 	}
 	return toCsv(headers, rows());
 }
+
+/** The import against the app's database, with the activity log: what the upload route calls. */
+export const libraryImport = {
+	preview: (organisationId: string, source: ByteSource, opts: { mapping?: ColumnMapping | null }) =>
+		previewMaterialsImport(db, organisationId, source, opts),
+	plan: (
+		organisationId: string,
+		source: ByteSource | null,
+		opts: { mapping?: ColumnMapping | null; token: string }
+	) => planCommit(db, organisationId, source, opts),
+	commit: (actor: Actor, plan: CommitPlan, opts: { confirmWarnings?: boolean; fileName?: string }) =>
+		applyCommit(db, actor, plan, opts, (entry, trx) => logActivity(entry, trx))
+};

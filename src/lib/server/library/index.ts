@@ -16,7 +16,8 @@ import {
 	diffValues,
 	FIELD_COLUMNS,
 	materialValuesSchema,
-	fieldIssues,
+	asMaterialIssue,
+	materialIssues,
 	REVISION_FIELDS,
 	type ListQuery,
 	type MaterialRevision,
@@ -33,25 +34,13 @@ import {
 	type LayerValues,
 	type RevisionUpdate
 } from '$lib/library/revisions';
+import { ConflictError, ForbiddenError, NotFoundError, ValidationError } from '$lib/server/errors';
 
 export { applyRevisionUpdate };
 export type { RevisionUpdate };
 
 /** Who is acting, for created_by / verified_by and the activity log. */
 export type Actor = { userId: string; organisationId: string };
-
-/** An expected failure with an HTTP status and, for bad values, the field issues. */
-export class LibraryError extends Error {
-	constructor(
-		message: string,
-		readonly status: 400 | 403 | 404 | 409 | 422 = 400,
-		readonly issues: { field: string; message: string }[] = [],
-		readonly warnings: Warning[] = []
-	) {
-		super(message);
-		this.name = 'LibraryError';
-	}
-}
 
 const dateText = calendarDay;
 
@@ -421,10 +410,16 @@ export async function insertNewRevisions(
 /** Validate values for a form or the API: field issues refuse, warnings need confirming. */
 export function checkValues(raw: unknown, confirmWarnings: boolean): MaterialValues {
 	const parsed = materialValuesSchema.safeParse(raw);
-	if (!parsed.success) throw new LibraryError('Some values are not right.', 400, fieldIssues(parsed.error));
+	if (!parsed.success)
+		throw new ValidationError(materialIssues(parsed.error), 'Some values are not right.', { warnings: [] });
 	const warnings = plausibilityWarnings(parsed.data);
 	if (warnings.length > 0 && !confirmWarnings) {
-		throw new LibraryError('Some values are unusual: check them and confirm.', 422, [], warnings);
+		throw new ValidationError(
+			[],
+			'Some values are unusual: check them and confirm.',
+			{ warnings: warnings.map(asMaterialIssue) },
+			422
+		);
 	}
 	return parsed.data;
 }
@@ -437,9 +432,9 @@ export async function createMaterial(
 ): Promise<MaterialRevision> {
 	const values = checkValues(raw, Boolean(opts.confirmWarnings));
 	const taken = () =>
-		new LibraryError(`The code ${values.code} is already in the library.`, 409, [
-			{ field: 'code', message: 'is already in the library' }
-		]);
+		new ConflictError(`The code ${values.code} is already in the library.`, {
+			issues: [asMaterialIssue({ field: 'code', message: 'is already in the library' })]
+		});
 	const materialId = await db.transaction(async (trx) => {
 		const exists = await trx('materials')
 			.where({ organisation_id: actor.organisationId, code: values.code })
@@ -480,7 +475,7 @@ export async function updateMaterial(
 	opts: { confirmWarnings?: boolean; expectedRevisionId?: string } = {}
 ): Promise<{ outcome: 'changed' | 'unchanged'; changes: FieldChange[]; material: MaterialRevision }> {
 	const current = await getCurrentRevision(actor.organisationId, materialId);
-	if (!current) throw new LibraryError('No such material.', 404);
+	if (!current) throw new NotFoundError('No such material.');
 	const values = checkValues({ ...(raw as object), code: current.code }, Boolean(opts.confirmWarnings));
 	const result = await db.transaction(async (trx) => {
 		const locked = await trx('materials')
@@ -489,9 +484,8 @@ export async function updateMaterial(
 			.first('current_revision_id');
 		const rev = await trx('material_revisions').where({ id: locked.current_revision_id }).first();
 		if (opts.expectedRevisionId && opts.expectedRevisionId !== rev.id) {
-			throw new LibraryError(
-				'Someone changed this material meanwhile; reload it and make your change again.',
-				409
+			throw new ConflictError(
+				'Someone changed this material meanwhile; reload it and make your change again.'
 			);
 		}
 		const changes = diffValues(valuesOfRow(rev), values);
@@ -530,24 +524,19 @@ export async function setMaterialStatus(
 			.where({ id: materialId, organisation_id: actor.organisationId })
 			.forUpdate()
 			.first('current_revision_id', 'code');
-		if (!m) throw new LibraryError('No such material.', 404);
+		if (!m) throw new NotFoundError('No such material.');
 		const rev = await trx('material_revisions').where({ id: m.current_revision_id }).first();
 		if (expectedRevisionId && expectedRevisionId !== rev.id) {
-			throw new LibraryError(
-				'A newer revision was written meanwhile; reload and check it before you act.',
-				409
-			);
+			throw new ConflictError('A newer revision was written meanwhile; reload and check it before you act.');
 		}
 		if (action === 'verify') {
 			if (rev.status !== 'unverified')
-				throw new LibraryError(
-					`Revision ${rev.revision} is ${rev.status}; only an unverified revision can be verified.`,
-					409
+				throw new ConflictError(
+					`Revision ${rev.revision} is ${rev.status}; only an unverified revision can be verified.`
 				);
 			if (rev.created_by === actor.userId) {
-				throw new LibraryError(
-					'You wrote this revision: someone else checks it against its source and verifies it.',
-					403
+				throw new ForbiddenError(
+					'You wrote this revision: someone else checks it against its source and verifies it.'
 				);
 			}
 			await trx('material_revisions')
@@ -555,7 +544,7 @@ export async function setMaterialStatus(
 				.update({ status: 'verified', verified_by: actor.userId, verified_at: trx.fn.now() });
 		} else {
 			if (rev.status === 'superseded')
-				throw new LibraryError(`Revision ${rev.revision} is already superseded.`, 409);
+				throw new ConflictError(`Revision ${rev.revision} is already superseded.`);
 			await trx('material_revisions').where({ id: rev.id }).update({ status: 'superseded' });
 		}
 		await logActivity(

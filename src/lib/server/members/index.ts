@@ -1,6 +1,7 @@
 import { db, type Db } from '$lib/server/db';
 import { logActivity } from '$lib/server/activity';
 import type { Role } from '$lib/members/roles';
+import { ValidationError } from '$lib/server/errors';
 
 export type MembershipRow = {
 	organisationId: string;
@@ -51,14 +52,8 @@ export async function listMembers(organisationId: string) {
 	}));
 }
 
-export class MembershipError extends Error {
-	constructor(
-		message: string,
-		public field: string
-	) {
-		super(message);
-	}
-}
+/** A refusal of a membership change, naming the form field it concerns. */
+const refusal = (message: string, field: string) => new ValidationError([{ path: field, message }], message);
 
 /**
  * Invite someone by e-mail: creates the person when new and a membership with the role. The caller sends
@@ -79,7 +74,7 @@ export async function inviteMember(
 		}
 		const existing = await t('memberships').where({ user_id: user.id }).first('organisation_id');
 		if (existing) {
-			throw new MembershipError(
+			throw refusal(
 				existing.organisation_id === actor.organisationId
 					? `${email} is already a member of this organisation.`
 					: `${email} already belongs to another organisation.`,
@@ -113,10 +108,7 @@ async function assertNotLastAdmin(t: Db, organisationId: string, userId: string)
 		.where({ organisation_id: organisationId, role: 'admin' })
 		.pluck('user_id');
 	if (admins.length === 1 && admins[0] === userId) {
-		throw new MembershipError(
-			'An organisation needs at least one admin: make someone else admin first.',
-			'role'
-		);
+		throw refusal('An organisation needs at least one admin: make someone else admin first.', 'role');
 	}
 }
 
@@ -130,7 +122,7 @@ export async function changeMemberRole(
 			.where({ organisation_id: actor.organisationId, user_id: userId })
 			.forUpdate()
 			.first();
-		if (!m) throw new MembershipError('No such member in this organisation.', 'userId');
+		if (!m) throw refusal('No such member in this organisation.', 'userId');
 		if (m.role === 'admin' && role !== 'admin') await assertNotLastAdmin(t, actor.organisationId, userId);
 		await t('memberships').where({ id: m.id }).update({ role });
 		await logActivity(
@@ -153,7 +145,7 @@ export async function removeMember(actor: { userId: string; organisationId: stri
 			.where({ organisation_id: actor.organisationId, user_id: userId })
 			.forUpdate()
 			.first();
-		if (!m) throw new MembershipError('No such member in this organisation.', 'userId');
+		if (!m) throw refusal('No such member in this organisation.', 'userId');
 		if (m.role === 'admin') await assertNotLastAdmin(t, actor.organisationId, userId);
 		await t('memberships').where({ id: m.id }).delete();
 		// End their open sessions so removal takes effect at once.

@@ -6,6 +6,7 @@
 import { createHash, randomInt } from 'node:crypto';
 import { db, type Db } from '$lib/server/db';
 import { logActivity } from '$lib/server/activity';
+import { ConflictError, NotFoundError, ValidationError } from '$lib/server/errors';
 import { enqueueMail, kickOutbox } from '$lib/server/outbox';
 import {
 	analyseElement,
@@ -19,6 +20,7 @@ import { GIVEN_U_KINDS, ELEMENT_KIND_LABELS, type ElementKind } from '$lib/dwell
 import { reportDocument, passWord, moistureWord } from './document';
 import { renderPdf } from './fonts';
 import { groupCode, longDate } from '$lib/format';
+import { supersededMailRefusal } from '$lib/reports/rules';
 import type {
 	ReportScope,
 	ReportSnapshot,
@@ -30,17 +32,8 @@ import type {
 
 export type { ReportSnapshot, ReportScope } from './snapshot';
 
-/** An expected refusal with a message for the person (HTTP status beside it). */
-export class ReportError extends Error {
-	constructor(
-		readonly status: 400 | 404 | 409,
-		message: string,
-		readonly issues: string[] = []
-	) {
-		super(message);
-		this.name = 'ReportError';
-	}
-}
+/** The problems that stop a report, as field issues of the dwelling. */
+const asIssues = (problems: string[]) => problems.map((message) => ({ path: 'dwelling', message }));
 
 type Caller = { userId: string; organisationId: string };
 
@@ -67,7 +60,7 @@ async function getDwellingRow(
 	trx: Db = db
 ): Promise<DwellingRow> {
 	const row = await trx('dwellings').where({ id: dwellingId, organisation_id: organisationId }).first();
-	if (!row) throw new ReportError(404, 'No such dwelling.');
+	if (!row) throw new NotFoundError('No such dwelling.');
 	return row as DwellingRow;
 }
 
@@ -130,7 +123,7 @@ export async function buildSnapshot(
 		.orderBy([{ column: 'position' }, { column: 'created_at' }, { column: 'id' }]);
 	if (elementId) elQuery.andWhere({ id: elementId });
 	const elements = await elQuery.select('*');
-	if (elementId && elements.length === 0) throw new ReportError(404, 'No such element in this dwelling.');
+	if (elementId && elements.length === 0) throw new NotFoundError('No such element in this dwelling.');
 
 	const problems: string[] = [];
 	if (elements.length === 0)
@@ -352,11 +345,11 @@ export async function previewReport(
 		issuedAt
 	);
 	if (snapshot.elements.length === 0)
-		throw new ReportError(400, problems[0] ?? 'Nothing to report.', problems);
+		throw new ValidationError(asIssues(problems), problems[0] ?? 'Nothing to report.');
 	// A draft shows what can be shown; elements that cannot be calculated are listed by the page.
 	const printable = { ...snapshot, elements: snapshot.elements.filter((e) => e.result || e.u !== null) };
 	if (printable.elements.length === 0)
-		throw new ReportError(400, 'No element can be calculated yet.', problems);
+		throw new ValidationError(asIssues(problems), 'No element can be calculated yet.');
 	const pdf = await renderSnapshot(printable);
 	const name =
 		scope === 'element'
@@ -466,7 +459,7 @@ export async function issueReport(
 		await t.raw('select pg_advisory_xact_lock(hashtext(?))', [`reports:${caller.organisationId}`]);
 		const dwelling = await getDwellingRow(caller.organisationId, input.dwellingId, t);
 		if (dwelling.status === 'archived')
-			throw new ReportError(409, 'The dwelling is archived: reports cannot be issued for it.');
+			throw new ConflictError('The dwelling is archived: reports cannot be issued for it.');
 		const scope: ReportScope = input.elementId ? 'element' : 'dwelling';
 		const prevQuery = t('reports')
 			.where({ organisation_id: caller.organisationId, dwelling_id: input.dwellingId, scope })
@@ -517,10 +510,9 @@ export async function issueReport(
 			t
 		);
 		if (problems.length) {
-			throw new ReportError(
-				400,
-				`The report cannot be issued: ${problems.length} problem(s) to fix first.`,
-				problems
+			throw new ValidationError(
+				asIssues(problems),
+				`The report cannot be issued: ${problems.length} problem(s) to fix first.`
 			);
 		}
 		const pdf = await renderSnapshot(snapshot);
@@ -591,6 +583,7 @@ export async function listReportsForDwelling(
 	organisationId: string,
 	dwellingId: string
 ): Promise<ReportSummary[]> {
+	await getDwellingRow(organisationId, dwellingId);
 	const rows = await summaryQuery(db, organisationId)
 		.where('r.dwelling_id', dwellingId)
 		.orderBy([
@@ -663,11 +656,16 @@ export type MailSummary = {
 export async function emailReport(
 	caller: Caller,
 	reportId: string,
-	input: { to: string; message?: string | null }
+	input: { to: string; message?: string | null },
+	/** when given, the report must be of this dwelling (404 otherwise) */
+	scope?: { dwellingId: string }
 ): Promise<MailSummary> {
 	const id = await db.transaction(async (t) => {
 		const report = await t('reports')
 			.where({ id: reportId, organisation_id: caller.organisationId })
+			.modify((q) => {
+				if (scope?.dwellingId) q.where('dwelling_id', scope.dwellingId);
+			})
 			.first(
 				'id',
 				'number',
@@ -678,17 +676,13 @@ export async function emailReport(
 				'verification_code',
 				'snapshot'
 			);
-		if (!report) throw new ReportError(404, 'No such report.');
+		if (!report) throw new NotFoundError('No such report.');
 		// A replaced revision stays readable and verifiable, but the client is sent the one in force.
 		const newer = await t('reports')
 			.where({ supersedes_id: report.id, organisation_id: caller.organisationId })
 			.first('revision');
-		if (newer) {
-			throw new ReportError(
-				409,
-				`Report ${report.number} revision ${report.revision} was replaced by revision ${newer.revision}; send revision ${newer.revision} instead.`
-			);
-		}
+		const refusal = supersededMailRefusal(report, newer);
+		if (refusal) throw new ConflictError(refusal);
 		const snap = report.snapshot as ReportSnapshot;
 		const sender = await callerName(t, caller.userId);
 		const what =

@@ -2,16 +2,11 @@ import { fail } from '@sveltejs/kit';
 import { superValidate, message, setError } from 'sveltekit-superforms';
 import { zod4 } from 'sveltekit-superforms/adapters';
 import { requireMember, requireRole } from '$lib/server/guard';
-import {
-	changeMemberRole,
-	inviteMember,
-	listMembers,
-	MembershipError,
-	removeMember
-} from '$lib/server/members';
+import { changeMemberRole, inviteMember, listMembers, removeMember } from '$lib/server/members';
 import { appUrl } from '$lib/server/config';
 import { sendMail } from '$lib/server/mail';
 import { inviteSchema, removeSchema, roleSchema } from './schema';
+import { ValidationError } from '$lib/server/errors';
 
 export const load = async (event) => {
 	const member = requireMember(event);
@@ -31,7 +26,7 @@ export const actions = {
 		try {
 			await inviteMember({ userId: member.user.id, organisationId: member.organisationId }, form.data);
 		} catch (e) {
-			if (e instanceof MembershipError) return setError(form, 'email', e.message);
+			if (e instanceof ValidationError) return setError(form, 'email', e.message);
 			throw e;
 		}
 		const signInUrl = appUrl('/signin');
@@ -62,7 +57,7 @@ export const actions = {
 				form.data.role
 			);
 		} catch (e) {
-			if (e instanceof MembershipError) return fail(400, { error: e.message });
+			if (e instanceof ValidationError) return fail(400, { error: e.message });
 			throw e;
 		}
 		return { done: 'Role changed.' };
@@ -74,7 +69,7 @@ export const actions = {
 		try {
 			await removeMember({ userId: member.user.id, organisationId: member.organisationId }, form.data.userId);
 		} catch (e) {
-			if (e instanceof MembershipError) return fail(400, { error: e.message });
+			if (e instanceof ValidationError) return fail(400, { error: e.message });
 			throw e;
 		}
 		return { done: 'Member removed.' };

@@ -1,10 +1,11 @@
 import { fail, redirect } from '@sveltejs/kit';
 import { requireRole } from '$lib/server/guard';
-import { AuditError, createBatch, listAssessors, listProgrammes } from '$lib/server/audit';
+import { createBatch, listAssessors, listProgrammes } from '$lib/server/audit';
 import { enqueueRecompute } from '$lib/server/audit/worker';
 import { parseReferenceFile, parseReferenceText, type ReferenceLine } from '$lib/server/audit/references';
 import { newBatchSchema } from '$lib/audit/schemas';
 import { DWELLING_STATUSES } from '$lib/dwellings/kinds';
+import { AppError } from '$lib/server/errors';
 
 export async function load(event) {
 	const member = requireRole(event, 'supervisor', 'admin');
@@ -86,7 +87,7 @@ export const actions = {
 			const created = await createBatch(member, { ...parsed.data, referenceLines, references: undefined });
 			id = created.id;
 		} catch (e) {
-			if (e instanceof AuditError) {
+			if (e instanceof AppError) {
 				const errors: Record<string, string> = {};
 				for (const i of e.issues) if (i.line === undefined) errors[i.path] ??= i.message;
 				return fail(e.status, {

@@ -1,7 +1,8 @@
 import { fail } from '@sveltejs/kit';
 import { requireMember } from '$lib/server/guard';
-import { AuditError, listReturned, resubmitItem } from '$lib/server/audit';
+import { listReturned, resubmitItem } from '$lib/server/audit';
 import { resubmitSchema } from '$lib/audit/schemas';
+import { AppError } from '$lib/server/errors';
 
 export async function load(event) {
 	const member = requireMember(event);
@@ -27,7 +28,7 @@ export const actions = {
 			const item = await resubmitItem(member, itemId, parsed.data);
 			return { resubmitted: item.reference };
 		} catch (e) {
-			if (e instanceof AuditError) return fail(e.status, { itemId, comment: raw.comment, error: e.message });
+			if (e instanceof AppError) return fail(e.status, { itemId, comment: raw.comment, error: e.message });
 			throw e;
 		}
 	}

@@ -1,6 +1,7 @@
 import { error, fail, type RequestEvent } from '@sveltejs/kit';
 import { requireMember, requireRole } from '$lib/server/guard';
-import { getMaterial, LibraryError, listElementsUsingMaterial, setMaterialStatus } from '$lib/server/library';
+import { getMaterial, listElementsUsingMaterial, setMaterialStatus } from '$lib/server/library';
+import { AppError } from '$lib/server/errors';
 
 export const load = async (event) => {
 	const member = requireMember(event);
@@ -26,7 +27,7 @@ async function act(event: RequestEvent<{ materialId: string }>, action: 'verify'
 			typeof expected === 'string' && expected ? expected : undefined
 		);
 	} catch (e) {
-		if (e instanceof LibraryError) return fail(e.status, { error: e.message });
+		if (e instanceof AppError) return fail(e.status, { error: e.message });
 		throw e;
 	}
 	return {

@@ -1,25 +1,33 @@
 import { error, fail } from '@sveltejs/kit';
 import { z } from 'zod';
 import { requireMember, requireRole } from '$lib/server/guard';
-import { db } from '$lib/server/db';
+import { publicOrigin } from '$lib/server/config';
+import { AppError } from '$lib/server/errors';
+import { getDwelling } from '$lib/server/dwellings';
+import { getElement } from '$lib/server/dwellings/elements';
 import {
 	buildSnapshot,
 	emailReport,
 	issueReport,
 	listMailForDwelling,
-	listReportsForDwelling,
-	ReportError
+	listReportsForDwelling
 } from '$lib/server/reports';
 import { requeueMail, kickOutbox } from '$lib/server/outbox';
-import { emailSchema, ISSUE_ROLES, publicOrigin } from '$lib/server/reports/api';
 import { moistureWord, passWord } from '$lib/server/reports/document';
+import { emailSchema } from '$lib/reports/schema';
+import { ISSUE_ROLES } from '$lib/reports/rules';
 
 async function dwellingOf(organisationId: string, dwellingId: string) {
-	const d = await db('dwellings')
-		.where({ id: dwellingId, organisation_id: organisationId })
-		.first('id', 'reference', 'address', 'status', 'stage', 'client_name', 'client_email');
+	const d = await getDwelling(organisationId, dwellingId);
 	if (!d) error(404, 'No such dwelling.');
 	return d;
+}
+
+/** A refusal of the reports service as the page's answer (404 as the error page). */
+function refused(e: unknown) {
+	if (!(e instanceof AppError)) throw e;
+	if (e.status === 404) error(404, e.message);
+	return fail(e.status, { issueError: e.message, issues: e.issues.map((i) => i.message) });
 }
 
 export const load = async (event) => {
@@ -48,13 +56,13 @@ export const load = async (event) => {
 	]);
 	return {
 		dwelling: {
-			id: d.id as string,
-			reference: d.reference as string,
-			address: d.address as string,
+			id: d.id,
+			reference: d.reference,
+			address: d.address,
 			status: d.status as string,
 			stage: d.stage as string,
-			clientName: (d.client_name as string) ?? null,
-			clientEmail: (d.client_email as string) ?? null
+			clientName: d.clientName,
+			clientEmail: d.clientEmail
 		},
 		elements: snapshot.elements.map((e) => ({
 			id: e.id,
@@ -94,14 +102,11 @@ export const actions = {
 		const elementId = parsed.data.elementId || null;
 		if (!parsed.data.confirmed) {
 			// Issuing cannot be undone: without JavaScript the page asks first, as a second step.
+			const element = elementId ? await getElement(member.organisationId, elementId) : null;
 			const label = elementId
-				? await db('elements')
-						.where({
-							id: elementId,
-							organisation_id: member.organisationId,
-							dwelling_id: event.params.dwellingId
-						})
-						.first('name')
+				? element && element.dwellingId === event.params.dwellingId
+					? { name: element.name }
+					: null
 				: { name: null };
 			if (!label) error(404, 'No such element in this dwelling.');
 			return { confirmIssue: { elementId: elementId ?? '', elementName: (label.name as string) ?? null } };
@@ -114,11 +119,7 @@ export const actions = {
 			);
 			return { done: `Issued report ${r.number}, revision ${r.revision}.`, issuedId: r.id };
 		} catch (e) {
-			if (e instanceof ReportError) {
-				if (e.status === 404) error(404, e.message);
-				return fail(e.status, { issueError: e.message, issues: e.issues });
-			}
-			throw e;
+			return refused(e);
 		}
 	},
 	email: async function email(event) {
@@ -138,48 +139,25 @@ export const actions = {
 				to: String(raw.to ?? '')
 			});
 		}
-		// The report must belong to this dwelling (and organisation).
-		const owned = await db('reports')
-			.where({
-				id: parsed.data.reportId,
-				organisation_id: member.organisationId,
-				dwelling_id: event.params.dwellingId
-			})
-			.first('id', 'number', 'revision');
-		if (!owned) error(404, 'No such report.');
-		const newer = await db('reports')
-			.where({ supersedes_id: parsed.data.reportId, organisation_id: member.organisationId })
-			.first('number', 'revision');
-		if (newer) {
-			return fail(409, {
-				issueError: `Report ${owned.number} revision ${owned.revision} was superseded by revision ${newer.revision}: e-mail the current revision instead.`,
-				issues: [] as string[]
-			});
-		}
 		try {
 			const m = await emailReport(
 				{ userId: member.user.id, organisationId: member.organisationId },
 				parsed.data.reportId,
-				{ to: parsed.data.to, message: parsed.data.message }
+				{ to: parsed.data.to, message: parsed.data.message },
+				{ dwellingId: event.params.dwellingId }
 			);
 			return { done: `E-mail to ${m.to} queued; it is sent in a few seconds.` };
 		} catch (e) {
-			if (e instanceof ReportError) return fail(e.status, { issueError: e.message, issues: e.issues });
-			throw e;
+			return refused(e);
 		}
 	},
 	retry: async function retry(event) {
 		const member = requireRole(event, ...ISSUE_ROLES);
 		const parsed = retryForm.safeParse(Object.fromEntries(await event.request.formData()));
 		if (!parsed.success) return fail(400, { issueError: 'Choose a message.', issues: [] as string[] });
-		const mail = await db('mail_outbox')
-			.where({
-				id: parsed.data.mailId,
-				organisation_id: member.organisationId,
-				dwelling_id: event.params.dwellingId
-			})
-			.first('id');
-		if (!mail || !(await requeueMail(member.organisationId, parsed.data.mailId)))
+		if (
+			!(await requeueMail(member.organisationId, parsed.data.mailId, { dwellingId: event.params.dwellingId }))
+		)
 			error(404, 'No such message.');
 		kickOutbox();
 		return { done: 'The message is queued again.' };

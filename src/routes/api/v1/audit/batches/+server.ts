@@ -3,7 +3,7 @@ import { requireMember, requireRole } from '$lib/server/guard';
 import { createBatch, listBatches } from '$lib/server/audit';
 import { enqueueRecompute } from '$lib/server/audit/worker';
 import { newBatchSchema } from '$lib/audit/schemas';
-import { failure, readJson, validate } from '$lib/server/audit/http';
+import { errorResponse, readJson, parseWith } from '$lib/server/http';
 
 export async function GET(event) {
 	const member = requireMember(event);
@@ -14,11 +14,11 @@ export async function GET(event) {
 export async function POST(event) {
 	const member = requireRole(event, 'supervisor', 'admin');
 	try {
-		const input = validate(newBatchSchema, await readJson(event.request));
+		const input = parseWith(newBatchSchema, await readJson(event.request));
 		const created = await createBatch(member, input);
 		await enqueueRecompute(member.organisationId, created.id, member.user.id);
 		return json(created, { status: 201 });
 	} catch (e) {
-		return failure(e);
+		return errorResponse(e);
 	}
 }

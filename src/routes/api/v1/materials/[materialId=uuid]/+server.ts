@@ -1,7 +1,7 @@
 import { error, json } from '@sveltejs/kit';
 import { requireMember, requireRole } from '$lib/server/guard';
 import { getMaterial, updateMaterial } from '$lib/server/library';
-import { failure, readJson } from '../respond';
+import { answer, readJsonObject } from '$lib/server/http';
 
 /** One material: its current revision's values and every revision, newest first. */
 export const GET = async (event) => {
@@ -12,12 +12,10 @@ export const GET = async (event) => {
 };
 
 /** Change the values: a new revision when anything differs. Body: values, confirmWarnings?, expectedRevisionId?. */
-export const PUT = async (event) => {
-	const member = requireRole(event, 'assessor', 'admin');
-	const body = await readJson(event.request);
-	if (!body.ok) return body.response;
-	const { confirmWarnings, expectedRevisionId, ...values } = body.body;
-	try {
+export const PUT = (event) =>
+	answer(async () => {
+		const member = requireRole(event, 'assessor', 'admin');
+		const { confirmWarnings, expectedRevisionId, ...values } = await readJsonObject(event.request);
 		const r = await updateMaterial(
 			{ userId: member.user.id, organisationId: member.organisationId },
 			event.params.materialId,
@@ -28,7 +26,4 @@ export const PUT = async (event) => {
 			}
 		);
 		return json(r);
-	} catch (e) {
-		return failure(e);
-	}
-};
+	});

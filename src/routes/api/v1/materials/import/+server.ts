@@ -1,18 +1,10 @@
 import { json } from '@sveltejs/kit';
 import { z } from 'zod';
 import { requireRole } from '$lib/server/guard';
-import { db } from '$lib/server/db';
-import { logActivity } from '$lib/server/activity';
 import { checkSize, DEFAULT_MAX_BYTES } from '$lib/server/csv/read';
-import { readUpload, UploadError, type Upload } from '$lib/server/csv/upload';
-import {
-	applyCommit,
-	IMPORT_FIELDS,
-	planCommit,
-	previewMaterialsImport,
-	type ColumnMapping
-} from '$lib/server/library/import';
-import { failure } from '../respond';
+import { readUpload, type Upload } from '$lib/server/csv/upload';
+import { errorResponse } from '$lib/server/http';
+import { IMPORT_FIELDS, libraryImport, type ColumnMapping } from '$lib/server/library/import';
 
 const paramsSchema = z.object({
 	mode: z.enum(['preview', 'commit'], { error: 'mode must be preview or commit' }).default('preview'),
@@ -42,20 +34,18 @@ export const POST = async (event) => {
 	try {
 		checkSize(Math.max(0, length - 64 * 1024), DEFAULT_MAX_BYTES);
 	} catch (e) {
-		return failure(e);
+		return errorResponse(e);
 	}
 	let upload: Upload;
 	try {
 		upload = await readUpload(event.request, event.url);
 	} catch (e) {
-		if (e instanceof UploadError) return bad(e.message);
-		throw e;
+		return errorResponse(e);
 	}
 	try {
 		return await handle(upload);
 	} catch (e) {
-		if (e instanceof UploadError) return bad(e.message);
-		return failure(e);
+		return errorResponse(e);
 	} finally {
 		await upload.finish();
 	}
@@ -96,20 +86,18 @@ export const POST = async (event) => {
 				return (await tooLate(upload)) ?? bad('Preview the file first; the commit needs the preview token.');
 			}
 			// The file is read (when the preview is no longer kept) before the transaction begins.
-			const plan = await planCommit(db, member.organisationId, file?.chunks ?? null, { mapping, token });
+			const plan = await libraryImport.plan(member.organisationId, file?.chunks ?? null, { mapping, token });
 			const late = await tooLate(upload);
 			if (late) return late;
-			const summary = await applyCommit(
-				db,
+			const summary = await libraryImport.commit(
 				{ userId: member.user.id, organisationId: member.organisationId },
 				plan,
-				{ confirmWarnings: confirmWarnings === 'yes' || confirmWarnings === 'true', fileName: file?.name },
-				(entry, trx) => logActivity(entry, trx)
+				{ confirmWarnings: confirmWarnings === 'yes' || confirmWarnings === 'true', fileName: file?.name }
 			);
 			return json({ kind: 'summary', ...summary });
 		}
 		if (!file) return bad('Choose a CSV file to upload (field "file").');
-		const preview = await previewMaterialsImport(db, member.organisationId, file.chunks, { mapping });
+		const preview = await libraryImport.preview(member.organisationId, file.chunks, { mapping });
 		return (await tooLate(upload)) ?? json(preview);
 	}
 };

@@ -1,7 +1,7 @@
 import { json } from '@sveltejs/kit';
 import { requireMember } from '$lib/server/guard';
 import { getReportPdf } from '$lib/server/reports';
-import { pdfResponse } from '$lib/server/reports/api';
+import { pdfResponse } from '$lib/server/http';
 
 /** The issued PDF, exactly as stored (its SHA-256 is in the x-content-sha256 header). `?download=1` saves it. */
 export const GET = async (event) => {

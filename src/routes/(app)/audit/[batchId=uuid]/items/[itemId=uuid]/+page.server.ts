@@ -1,7 +1,8 @@
 import { error, fail } from '@sveltejs/kit';
 import { requireMember, requireRole } from '$lib/server/guard';
-import { AuditError, decideItem, getItem, listItems, type ItemRow } from '$lib/server/audit';
+import { decideItem, getItem, listItems, type ItemRow } from '$lib/server/audit';
 import { decisionSchema } from '$lib/audit/schemas';
+import { AppError } from '$lib/server/errors';
 
 const rank: Record<string, number> = {
 	resubmitted: 0,
@@ -56,7 +57,7 @@ export const actions = {
 		try {
 			await decideItem(member, event.params.itemId, parsed.data);
 		} catch (e) {
-			if (e instanceof AuditError)
+			if (e instanceof AppError)
 				return fail(e.status, { values: raw, errors: { form: e.message } as Record<string, string> });
 			throw e;
 		}

@@ -1,8 +1,9 @@
 import { error } from '@sveltejs/kit';
 import { z } from 'zod';
 import { requireMember } from '$lib/server/guard';
-import { previewReport, ReportError } from '$lib/server/reports';
-import { pdfResponse } from '$lib/server/reports/api';
+import { previewReport } from '$lib/server/reports';
+import { AppError } from '$lib/server/errors';
+import { pdfResponse } from '$lib/server/http';
 
 /** A draft PDF of the dwelling, or of one element with ?element=<id>. Never stored, marked DRAFT. */
 export const GET = async (event) => {
@@ -20,7 +21,7 @@ export const GET = async (event) => {
 		);
 		return pdfResponse(pdf, filename);
 	} catch (e) {
-		if (e instanceof ReportError) error(e.status, e.message);
+		if (e instanceof AppError) error(e.status, e.message);
 		throw e;
 	}
 };
