@@ -136,6 +136,7 @@ run_test() {
 		node_modules/.bin/svelte-check --tsconfig ./tsconfig.json --fail-on-warnings --output human || failed=1
 		log "formatting (prettier --check)"
 		node_modules/.bin/prettier --check . --log-level warn || failed=1
+		log "import directions"; node scripts/check-imports.js || failed=1
 	fi
 	if [ "$only_unit" != "none" ]; then
 		log "unit and server tests (vitest)"
