@@ -1,8 +1,14 @@
 /** What the audit's checks look at, and how their flags name an element or a layer. */
 import { ELEMENT_KIND_LABELS, type ElementKind } from '$lib/dwellings/kinds';
 import type { StoredLayer } from '$lib/dwellings/element-input';
-import type { Flag, FlagCode, Severity } from '../flags';
-import type { AuditElement, AuditReport, LimitTableInfo, RevisionInfo, SnapshotElement } from '../types';
+import type { Flag, FlagCode, Severity } from '$lib/audit/flags';
+import type {
+	AuditElement,
+	AuditReport,
+	LimitTableInfo,
+	RevisionInfo,
+	SnapshotElement
+} from '$lib/audit/types';
 
 /** One element of the dwelling, with its record in the issued report and its limit. */
 export type ElementContext = {

@@ -3,7 +3,7 @@
  * rafters is bridged by them, and the ISO 6946 combined method (upper and lower limits of the
  * resistance) makes U worse than the insulation alone would.
  */
-import type { Flag } from '../flags';
+import type { Flag } from '$lib/audit/flags';
 import {
 	elementFlag,
 	layerFlag,

@@ -1,7 +1,7 @@
 /** Checks of the library revisions the layers name: in the library, verified, current, declared, and copied faithfully. */
-import type { Flag } from '../flags';
-import type { RevisionInfo } from '../types';
-import { different } from '../compare';
+import type { Flag } from '$lib/audit/flags';
+import type { RevisionInfo } from '$lib/audit/types';
+import { different } from '$lib/audit/compare';
 import { layerFlag, type LayerContext } from './context';
 
 const codeOf = (rev: RevisionInfo) => (rev.code ? `${rev.code} ` : '');

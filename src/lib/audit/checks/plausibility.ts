@@ -4,14 +4,14 @@
  */
 import type { StoredLayer } from '$lib/dwellings/element-input';
 import type { MaterialCategory } from '$lib/dwellings/kinds';
-import type { Flag } from '../flags';
+import type { Flag } from '$lib/audit/flags';
 import {
 	MAX_INSULATION_LAYER_MM,
 	PLAUSIBLE_GIVEN_U,
 	PLAUSIBLE_LAMBDA,
 	PLAUSIBLE_TOTAL_THICKNESS_MM,
 	inRange
-} from '../plausible';
+} from '$lib/audit/plausible';
 import {
 	elementFlag,
 	layerFlag,

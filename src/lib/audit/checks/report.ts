@@ -1,8 +1,8 @@
 /** Checks of the dwelling against its latest issued report: is there one, and does it still describe the dwelling. */
-import type { Flag } from '../flags';
-import type { AuditElement, AuditReport, RemovedElement, SnapshotElement } from '../types';
-import { outcomeOf } from '../element-recompute';
-import { canonical, different } from '../compare';
+import type { Flag } from '$lib/audit/flags';
+import type { AuditElement, AuditReport, RemovedElement, SnapshotElement } from '$lib/audit/types';
+import { outcomeOf } from '$lib/audit/element-recompute';
+import { canonical, different } from '$lib/audit/compare';
 import { elementFlag, kindLabel, type ElementContext } from './context';
 
 /**

@@ -1,8 +1,8 @@
 /** Checks of the issued numbers: do they reproduce, and would the library's current revisions change them. */
-import type { Flag } from '../flags';
-import type { Outcome } from '../types';
-import { U_TOLERANCE } from '../plausible';
-import { failure } from '../element-recompute';
+import type { Flag } from '$lib/audit/flags';
+import type { Outcome } from '$lib/audit/types';
+import { U_TOLERANCE } from '$lib/audit/plausible';
+import { failure } from '$lib/audit/element-recompute';
 import { elementFlag, fmtU, type ElementContext } from './context';
 
 /**

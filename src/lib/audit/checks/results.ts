@@ -1,7 +1,7 @@
 /** Checks of an element's recomputed result: could it be computed, and does it meet the limit and the moisture criteria. */
 import { exceedsLimit } from '$lib/limit-tables/rules';
-import type { Flag } from '../flags';
-import type { Outcome } from '../types';
+import type { Flag } from '$lib/audit/flags';
+import type { Outcome } from '$lib/audit/types';
 import { elementFlag, type ElementContext } from './context';
 
 /**

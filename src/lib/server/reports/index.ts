@@ -844,11 +844,19 @@ export async function checkPdfAgainstCode(
 	rawCode: string,
 	bytes: Uint8Array
 ): Promise<'match' | 'mismatch' | 'unknown'> {
+	return checkHashAgainstCode(rawCode, sha256(bytes));
+}
+
+/** The same for a SHA-256 (hex) computed in the browser, so the PDF never leaves the device. */
+export async function checkHashAgainstCode(
+	rawCode: string,
+	hash: string
+): Promise<'match' | 'mismatch' | 'unknown'> {
 	const code = normaliseCode(rawCode);
 	if (!/^[0-9A-Z]{10}$/.test(code)) return 'unknown';
 	const row = await db('reports').where({ verification_code: code }).first('sha256');
 	if (!row) return 'unknown';
-	return sha256(bytes) === row.sha256 ? 'match' : 'mismatch';
+	return hash.toLowerCase() === row.sha256 ? 'match' : 'mismatch';
 }
 
 /** Words used in page tables, shared with the PDF. */

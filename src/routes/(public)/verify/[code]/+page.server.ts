@@ -1,6 +1,11 @@
 import { error, fail } from '@sveltejs/kit';
-import { checkPdfAgainstCode, normaliseCode, sha256, verifyCode } from '$lib/server/reports';
-import { db } from '$lib/server/db';
+import {
+	checkHashAgainstCode,
+	checkPdfAgainstCode,
+	normaliseCode,
+	sha256,
+	verifyCode
+} from '$lib/server/reports';
 
 /** Largest PDF accepted for the comparison. */
 const MAX_PDF_BYTES = 20 * 1024 * 1024;
@@ -20,12 +25,10 @@ export const actions = {
 		if (typeof hashed === 'string' && hashed) {
 			if (!/^[0-9a-f]{64}$/i.test(hashed))
 				return fail(400, { error: 'The file could not be read. Choose the PDF again.' });
-			const row = await db('reports')
-				.where({ verification_code: normaliseCode(params.code) })
-				.first('sha256');
-			if (!row) error(404, 'No report was issued under this code.');
+			const outcome = await checkHashAgainstCode(params.code, hashed);
+			if (outcome === 'unknown') error(404, 'No report was issued under this code.');
 			return {
-				outcome: row.sha256 === hashed.toLowerCase() ? 'match' : 'mismatch',
+				outcome,
 				hash: hashed.toLowerCase(),
 				name: String(data.get('name') ?? '')
 			};
