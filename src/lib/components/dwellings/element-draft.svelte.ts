@@ -1,0 +1,194 @@
+/**
+ * The element as it is being edited: every field as the person types it (text, so "0,035" and
+ * half-typed numbers survive), and the same fields as the API takes them.
+ */
+import type { ElementResult, RoofSpace } from '$lib/physics';
+import type { StoredBuildUp, StoredInternal } from '$lib/dwellings/element-input';
+import {
+	DEFAULT_HEAT_FLOW,
+	ELEMENT_KIND_LABELS,
+	GIVEN_U_KINDS,
+	type ElementKind
+} from '$lib/dwellings/kinds';
+import {
+	blankRow,
+	buildUpFromRows,
+	groundText,
+	parseNumber,
+	rowFromLayer,
+	type EditRow,
+	type GroundText
+} from '$lib/dwellings/editor';
+
+export type HeatFlowChoice = 'upward' | 'horizontal' | 'downward';
+export type HumidityMode = 'class' | 'rh';
+
+export type ClimateOption = {
+	id: string;
+	name: string;
+	illustrative: boolean;
+	months: { month: number; temperature: number; relativeHumidity: number }[];
+};
+
+/** An element as the page loads it. */
+export type SavedElement = {
+	id: string;
+	name: string;
+	kind: ElementKind;
+	area: number;
+	heatFlow: HeatFlowChoice;
+	buildUp: StoredBuildUp | null;
+	givenU: number | null;
+	givenUSource: string | null;
+	climateId: string | null;
+	internal: StoredInternal | null;
+	lastResult: ElementResult | null;
+	version: number;
+};
+
+/** The element's fields as the API takes them (numbers that do not parse stay as text for the schema to name). */
+export type ElementFieldValues = {
+	name: string;
+	kind: ElementKind;
+	area: number | string | undefined;
+	heatFlow: HeatFlowChoice;
+	climateId: string | null;
+	internal: Record<string, unknown>;
+	buildUp: StoredBuildUp | null;
+	givenU: number | string | undefined | null;
+	givenUSource: string | null;
+};
+
+/** The values of a library material that a layer takes over from it. */
+export type MaterialValues = {
+	revisionId: string;
+	lambda?: number | null;
+	resistance?: number | null;
+	muDry?: number | null;
+	sd?: number | null;
+};
+
+export class ElementDraft {
+	name: string = $state('');
+	kind: ElementKind = $state('external-wall');
+	area: string = $state('');
+	heatFlow: HeatFlowChoice = $state('horizontal');
+	climateId: string = $state('');
+	internalTemp: string = $state('');
+	humidityMode: HumidityMode = $state('class');
+	humidityClass: string = $state('');
+	rh: string = $state('');
+	givenU: string = $state('');
+	givenUSource: string = $state('');
+	rsi: string = $state('');
+	rse: string = $state('');
+	rows: EditRow[] = $state([]);
+	ground: GroundText = $state(groundText(undefined));
+	roofSpace: RoofSpace | '' = $state('');
+
+	/** windows and doors: a given U-value instead of a build-up */
+	readonly given = $derived(GIVEN_U_KINDS.includes(this.kind));
+
+	readonly fields: ElementFieldValues = $derived.by(() => {
+		const internal: Record<string, unknown> = { temperature: parseNumber(this.internalTemp) };
+		if (this.humidityMode === 'class') internal.humidityClass = Number(this.humidityClass);
+		else internal.relativeHumidity = parseNumber(this.rh);
+		return {
+			name: this.name,
+			kind: this.kind,
+			area: parseNumber(this.area),
+			heatFlow: this.heatFlow,
+			climateId: this.climateId || null,
+			internal,
+			buildUp: this.given
+				? null
+				: buildUpFromRows(this.rows, this.rsi, this.rse, {
+						ground: this.kind === 'ground-floor' ? this.ground : null,
+						roofSpace: this.kind === 'pitched-roof-ceiling' ? this.roofSpace : null
+					}),
+			givenU: this.given ? parseNumber(this.givenU) : null,
+			givenUSource: this.given ? this.givenUSource : null
+		};
+	});
+
+	/** From the saved element, or for a new one of the given kind. */
+	constructor(start: SavedElement | null, initialKind: ElementKind) {
+		this.name = start?.name ?? ELEMENT_KIND_LABELS[initialKind];
+		this.kind = start?.kind ?? initialKind;
+		this.area = start ? String(start.area) : '';
+		this.heatFlow = start?.heatFlow ?? DEFAULT_HEAT_FLOW[initialKind];
+		this.climateId = start?.climateId ?? '';
+		this.internalTemp = String(start?.internal?.temperature ?? 20);
+		this.humidityMode = start?.internal?.relativeHumidity !== undefined ? 'rh' : 'class';
+		this.humidityClass = String(start?.internal?.humidityClass ?? 3);
+		this.rh = String(start?.internal?.relativeHumidity ?? 50);
+		this.givenU = start?.givenU != null ? String(start.givenU) : '';
+		this.givenUSource = start?.givenUSource ?? '';
+		this.rsi = start?.buildUp?.rsi !== undefined ? String(start.buildUp.rsi) : '';
+		this.rse = start?.buildUp?.rse !== undefined ? String(start.buildUp.rse) : '';
+		this.rows = start?.buildUp?.layers?.length ? start.buildUp.layers.map(rowFromLayer) : [blankRow()];
+		this.ground = groundText(start?.buildUp?.ground);
+		this.roofSpace = start?.buildUp?.roofSpace ?? '';
+	}
+
+	/** A new kind; the name and heat flow follow it while they are still the old kind's defaults. */
+	changeKind(k: ElementKind) {
+		const autoName = this.name === ELEMENT_KIND_LABELS[this.kind];
+		const autoFlow = this.heatFlow === DEFAULT_HEAT_FLOW[this.kind];
+		this.kind = k;
+		if (autoName) this.name = ELEMENT_KIND_LABELS[k];
+		if (autoFlow) this.heatFlow = DEFAULT_HEAT_FLOW[k];
+	}
+
+	/** What was typed in a field whose error stays hidden while it is empty; undefined for other fields. */
+	typedText(path: string): string | undefined {
+		switch (path) {
+			case 'name':
+				return this.name;
+			case 'area':
+				return this.area;
+			case 'ground.areaM2':
+				return this.ground.area;
+			case 'ground.groundLambda':
+				return this.ground.lambda;
+			case 'ground.wallThicknessM':
+				return this.ground.wall;
+			default:
+				return undefined;
+		}
+	}
+
+	useThickness(layerIndex: number, mm: number) {
+		this.rows[layerIndex].thickness = String(mm);
+	}
+
+	/** The layers, surface resistances and roof space of a template (the rest of the element stays). */
+	useBuildUp(b: StoredBuildUp) {
+		this.rows = b.layers.map((l) => rowFromLayer(l));
+		if (b.rsi !== undefined) this.rsi = String(b.rsi);
+		if (b.rse !== undefined) this.rse = String(b.rse);
+		if (b.roofSpace !== undefined) this.roofSpace = b.roofSpace;
+	}
+
+	/** A layer takes a newer library revision's values; false when the layer is no longer there. */
+	applyMaterial(layerIndex: number, m: MaterialValues): boolean {
+		const r = this.rows[layerIndex];
+		if (!r) return false;
+		r.materialRevisionId = m.revisionId;
+		if (m.lambda != null) {
+			r.mode = 'lambda';
+			r.lambda = String(m.lambda);
+		} else if (m.resistance != null) {
+			r.mode = 'resistance';
+			r.resistance = String(m.resistance);
+		}
+		if (m.muDry != null) {
+			r.vapour = 'mu';
+			r.mu = String(m.muDry);
+		} else if (m.sd != null) {
+			r.vapour = 'sd';
+			r.sd = String(m.sd);
+		}
+		return true;
+	}
+}
