@@ -1,14 +1,16 @@
 // ISO 6946 thermal resistance and U-value. Values of ISO 6946:2017 are quoted from memory (table
 // and clause numbers as recalled; the 2007 edition carries the same values in Tables 1 and 2).
 // Hand calculations are shown beside each expected number.
-import { describe, expect, it } from 'vitest';
+import { describe, expect, expectTypeOf, it } from 'vitest';
 import {
 	AIR_LAYER_RESISTANCE,
 	analyseElement,
+	parseElementInput,
 	RSE,
 	RSI,
 	unventilatedAirLayerResistance,
-	type ElementInput
+	type ElementInput,
+	type HeatFlow
 } from '../../src/lib/physics';
 import { closedFormSeries } from './helpers';
 
@@ -18,6 +20,16 @@ describe('surface resistances', () => {
 		expect(RSI.horizontal).toBe(0.13);
 		expect(RSI.downward).toBe(0.17);
 		expect(RSE).toBe(0.04);
+	});
+
+	it('one heat-flow type: the three directions of Table 7, as the element input takes them', () => {
+		// upward, horizontal (within ±30° of the horizontal plane), downward: ISO 6946:2017, 6.8 and Table 7 (from memory)
+		expectTypeOf<ElementInput['heatFlow']>().toEqualTypeOf<HeatFlow>();
+		expect(Object.keys(RSI)).toEqual(['upward', 'horizontal', 'downward']);
+		for (const heatFlow of Object.keys(RSI) as HeatFlow[])
+			expect(
+				parseElementInput({ heatFlow, layers: [{ name: 'board', thicknessMm: 100, lambda: 0.1 }] }).ok
+			).toBe(true);
 	});
 
 	it('are chosen by heat-flow direction and can be overridden', () => {

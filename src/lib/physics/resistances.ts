@@ -4,7 +4,11 @@
  * carries the same values in Table 1 and Table 2).
  */
 
-export type HeatFlow = 'upward' | 'horizontal' | 'downward';
+/** Heat-flow directions of ISO 6946:2017, 6.8 (horizontal: within ±30° of the horizontal plane). */
+export const HEAT_FLOWS = ['upward', 'horizontal', 'downward'] as const;
+
+/** Direction of the heat flow through an element: the one heat-flow type of the calculation core. */
+export type HeatFlow = (typeof HEAT_FLOWS)[number];
 
 /** Conventional internal surface resistance Rsi, m²·K/W, by heat-flow direction. */
 export const RSI: Readonly<Record<HeatFlow, number>> = {

@@ -9,7 +9,12 @@
  * type error is present (`when`), so one pass reports every bad field.
  */
 import { z } from 'zod';
-import { AIR_LAYER_MAX_MM, AIR_OPENING_SLIGHTLY_MAX, AIR_OPENING_UNVENTILATED_MAX } from './resistances';
+import {
+	AIR_LAYER_MAX_MM,
+	AIR_OPENING_SLIGHTLY_MAX,
+	AIR_OPENING_UNVENTILATED_MAX,
+	HEAT_FLOWS
+} from './resistances';
 import { MAX_BRIDGED_LAYERS } from './bridging';
 import { ROOF_SPACES } from './ground';
 
@@ -217,7 +222,8 @@ function refineLimits(l: Record<string, unknown>, add: Add): void {
 
 /* ------------------------------------------------------------------ shapes */
 
-export const heatFlowSchema = z.enum(['upward', 'horizontal', 'downward'], {
+/** Heat-flow direction; its type is `HeatFlow` (./resistances). */
+export const heatFlowSchema = z.enum(HEAT_FLOWS, {
 	error: (iss) => (iss.input === undefined ? 'is required' : 'must be upward, horizontal or downward')
 });
 
@@ -451,7 +457,6 @@ export const elementInputSchema = elementShape.superRefine((e, ctx) => {
 	if (isObject(e)) refineElement(e, fromCtx(ctx));
 }, ALWAYS);
 
-export type HeatFlowInput = z.infer<typeof heatFlowSchema>;
 export type BridgeInput = z.infer<typeof bridgeSchema>;
 export type FastenersInput = z.infer<typeof fastenersSchema>;
 export type Layer = z.infer<typeof layerSchema>;
@@ -643,7 +648,6 @@ export class ElementInputError extends Error {
 	}
 }
 
-/** Validate raw input (form, JSON, CSV row) without throwing. */
 /**
  * Inputs this module has validated and returned (zod's output is a fresh object each time). The
  * calculation trusts them without a second validation, which would cost a third of the calculation
@@ -651,6 +655,7 @@ export class ElementInputError extends Error {
  */
 const validated = new WeakSet<object>();
 
+/** Validate raw input (form, JSON, CSV row) without throwing. */
 export function parseElementInput(
 	raw: unknown
 ): { ok: true; data: ElementInput } | { ok: false; issues: FieldIssue[] } {

@@ -1,0 +1,78 @@
+/**
+ * What lies beyond the last layer besides Rse: a roof space above an insulated ceiling
+ * (ISO 6946:2017, roof-space table, from memory) or, for a floor on the ground, the ground itself
+ * (ISO 13370:2017, 8.1, slab on ground, from memory).
+ */
+import type { ElementInput } from './schema';
+import type { ThermalModel } from './element-model';
+import { ROOF_SPACE_LABELS, ROOF_SPACE_RESISTANCE, slabOnGroundU } from './ground';
+import { fmt } from './note-format';
+
+/**
+ * Resistance Ru of the element's roof space, m²·K/W (ISO 6946:2017, roof-space table, from
+ * memory), added to RT between the last layer and Rse; 0 without a roof space. Notes it.
+ */
+export function roofSpaceResistance(input: ElementInput, notes: string[]): number {
+	if (!input.roofSpace) return 0;
+	const rRoofSpace = ROOF_SPACE_RESISTANCE[input.roofSpace];
+	notes.push(
+		`Roof space above the ceiling (${ROOF_SPACE_LABELS[input.roofSpace].toLowerCase()}): Ru = ${rRoofSpace} m²·K/W (ISO 6946:2017, roof-space table) is added to RT between the last layer and Rse.`
+	);
+	return rRoofSpace;
+}
+
+/** A floor on the ground as the thermal model takes it. */
+export interface GroundFloorModel {
+	/** equivalent total resistance 1/U, m²·K/W */
+	rTotal: number;
+	/** Rse plus the ground's share of 1/U, between the slab's underside and the external air, m²·K/W */
+	rExternal: number;
+	/** the ISO 13370 figures, and RT and U of the build-up alone */
+	ground: NonNullable<ThermalModel['ground']>;
+}
+
+/**
+ * Floor on the ground, ISO 13370:2017, 8.1 (slab on ground, from memory): Rf = RT − Rsi − Rse of
+ * the build-up (m²·K/W), U from B′ and dt (W/(m²·K)); the floor is then carried as its equivalent
+ * resistance 1/U, the ground adding 1/U − RT outside the slab. Notes show the calculation.
+ */
+export function groundFloorModel(
+	ground: NonNullable<ElementInput['ground']>,
+	rsi: number,
+	rse: number,
+	rBuildUp: number,
+	notes: string[]
+): GroundFloorModel {
+	const rFloor = rBuildUp - rsi - rse;
+	const g = slabOnGroundU(ground, rsi, rFloor, rse);
+	const rGround = 1 / g.u - rBuildUp;
+	const rTotal = 1 / g.u;
+	notes.push(
+		`Floor on the ground, U by ISO 13370:2017, 8.1 (slab on ground): B′ = A/(0.5·P) = ${fmt(g.characteristicDimensionM)} m, ` +
+			`dt = w + λg·(Rsi + Rf + Rse) = ${fmt(g.wallThicknessM)} + ${fmt(g.groundLambda)}·(${fmt(rsi)} + ${fmt(rFloor)} + ${fmt(rse)}) = ${fmt(g.equivalentThicknessM)} m, ` +
+			(g.regime === 'dt < B′'
+				? `dt < B′: U = 2λg/(π·B′ + dt)·ln(π·B′/dt + 1) = ${fmt(g.u, 4)} W/(m²·K).`
+				: `dt ≥ B′: U = λg/(0.457·B′ + dt) = ${fmt(g.u, 4)} W/(m²·K).`)
+	);
+	notes.push(
+		`The build-up alone (as if exposed to outside air) has RT = ${fmt(rBuildUp)} m²·K/W, U = ${fmt(1 / rBuildUp, 4)} W/(m²·K). ` +
+			`The temperature profile and the surface check use the floor's equivalent resistance 1/U = ${fmt(rTotal)} m²·K/W: the ground adds ${fmt(rGround)} m²·K/W between the underside of the floor and the external air (a steady-state simplification; the ground's heat storage is not modelled).`
+	);
+	return {
+		rTotal,
+		rExternal: rse + rGround,
+		ground: {
+			method: 'ISO 13370:2017, 8.1 (slab on ground)',
+			perimeterM: ground.perimeterM,
+			areaM2: ground.areaM2,
+			characteristicDimensionM: g.characteristicDimensionM,
+			equivalentThicknessM: g.equivalentThicknessM,
+			groundLambda: g.groundLambda,
+			wallThicknessM: g.wallThicknessM,
+			regime: g.regime,
+			rGround,
+			rBuildUp,
+			uBuildUp: 1 / rBuildUp
+		}
+	};
+}
