@@ -4,7 +4,7 @@
 import { analyseElement, type ElementInput } from '../src/lib/physics';
 import { toElementInput, type StoredBuildUp } from '../src/lib/dwellings/element-input';
 import { reportDocument } from '../src/lib/server/reports/document';
-import { renderPdf, FONT } from '../src/lib/server/reports/fonts';
+import { renderPdf, FONT } from '../src/lib/server/pdf';
 import type { ReportSnapshot, SnapshotElement } from '../src/lib/server/reports/snapshot';
 import type { ElementKind } from '../src/lib/dwellings/kinds';
 

@@ -11,9 +11,9 @@ import {
 	DEFAULT_HEAT_FLOW,
 	DWELLING_STATUSES,
 	ELEMENT_KINDS,
-	GIVEN_U_KINDS,
-	MATERIAL_CATEGORIES
+	GIVEN_U_KINDS
 } from '../../src/lib/dwellings/kinds';
+import { MATERIAL_CATEGORIES } from '../../src/lib/library/categories';
 import { LAMBDA_KINDS } from '../../src/lib/library/schema';
 
 const CHECK_VIOLATION = '23514';

@@ -1,4 +1,5 @@
-import type { ElementKind, MaterialCategory } from '$lib/dwellings/kinds';
+import { type ElementKind } from '$lib/dwellings/kinds';
+import { type MaterialCategory } from '$lib/library/categories';
 
 /**
  * Plausible ranges an auditor checks entered values against. A value outside a range is not wrong by

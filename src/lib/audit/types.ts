@@ -1,6 +1,6 @@
 /** What the audit of one dwelling reads (the bundle the server loads) and what it gives back. */
 import type { ElementInput, ElementResult } from '$lib/physics';
-import type { ElementKind } from '$lib/dwellings/kinds';
+import { type ElementKind } from '$lib/dwellings/kinds';
 import type {
 	ClimateMonthValues as ClimateMonthRow,
 	StoredBuildUp,

@@ -3,9 +3,7 @@
  * engine's `ElementInput`. Pure: used by the editor in the page, by the server when it recomputes,
  * by reports and by audits, so every place computes the same thing from the same record.
  */
-import type { ElementInput, Layer, RoofSpace } from '$lib/physics';
-
-export type HeatFlowDirection = 'upward' | 'horizontal' | 'downward';
+import type { ElementInput, HeatFlow, Layer, RoofSpace } from '$lib/physics';
 
 /** A layer as stored in `elements.build_up` / `templates.build_up`: the engine's layer plus where it came from. */
 export type StoredLayer = Layer & {
@@ -81,7 +79,7 @@ export function toEngineLayer(stored: StoredLayer): Layer {
  */
 export function toElementInput(
 	el: {
-		heatFlow: HeatFlowDirection;
+		heatFlow: HeatFlow;
 		buildUp: StoredBuildUp | null | undefined;
 		internal?: Partial<StoredInternal> | null;
 		/** the element's area, m²: the floor area of a ground floor when the build-up does not give one */

@@ -1,3 +1,5 @@
+import type { HeatFlow } from '$lib/physics';
+
 /** Kinds of element a dwelling has, with the heat-flow direction each implies by default (ISO 6946 §6.8, from memory:
  * walls horizontal, roofs and ceilings upward, floors downward, for heat flowing out of the dwelling in winter). */
 export const ELEMENT_KINDS = [
@@ -24,8 +26,6 @@ export const ELEMENT_KIND_LABELS: Record<ElementKind, string> = {
 	window: 'Window',
 	door: 'Door'
 };
-
-export type HeatFlow = 'upward' | 'horizontal' | 'downward';
 
 export const DEFAULT_HEAT_FLOW: Record<ElementKind, HeatFlow> = {
 	'external-wall': 'horizontal',
@@ -58,26 +58,4 @@ export const DWELLING_STATUS_LABELS: Record<DwellingStatus, string> = {
 	accepted: 'Accepted',
 	returned: 'Returned',
 	archived: 'Archived'
-};
-
-export const MATERIAL_CATEGORIES = [
-	'masonry',
-	'concrete',
-	'timber-boards',
-	'insulation',
-	'membranes',
-	'plasters-linings',
-	'air-layers',
-	'other'
-] as const;
-export type MaterialCategory = (typeof MATERIAL_CATEGORIES)[number];
-export const MATERIAL_CATEGORY_LABELS: Record<MaterialCategory, string> = {
-	masonry: 'Masonry',
-	concrete: 'Concrete',
-	'timber-boards': 'Timber and boards',
-	insulation: 'Insulation',
-	membranes: 'Membranes',
-	'plasters-linings': 'Plasters and linings',
-	'air-layers': 'Air layers',
-	other: 'Other'
 };

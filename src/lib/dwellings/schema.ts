@@ -12,7 +12,7 @@ import {
 	GIVEN_U_KINDS,
 	type ElementKind
 } from '$lib/dwellings/kinds';
-import { internalSchema, layerSchema, parseElementInput, roofSpaceSchema } from '$lib/physics';
+import { HEAT_FLOWS, internalSchema, layerSchema, parseElementInput, roofSpaceSchema } from '$lib/physics';
 import { toElementInput, type ClimateMonthValues, type StoredBuildUp } from '$lib/dwellings/element-input';
 
 const text = (max: number, what = 'text') =>
@@ -39,7 +39,7 @@ export const STAGE_LABELS: Record<Stage, string> = { design: 'Design', 'as-built
 export const elementKindSchema = z.enum(ELEMENT_KINDS, {
 	error: `must be one of ${ELEMENT_KINDS.join(', ')}`
 });
-export const heatFlowSchema = z.enum(['upward', 'horizontal', 'downward'], {
+export const heatFlowSchema = z.enum(HEAT_FLOWS, {
 	error: 'must be upward, horizontal or downward'
 });
 export const versionSchema = z

@@ -1,8 +1,10 @@
 /**
- * Pure helpers for a dwelling's fabric: pass/fail of each element against its limit and the totals
+ * Pure helpers for a dwelling's fabric: pass/fail of each element against its limit (meetsLimit) and the totals
  * ΣU·A (fabric heat-loss coefficient, W/K) and the area-weighted mean U (W/(m²·K)).
  */
 import type { ElementKind } from '$lib/dwellings/kinds';
+import type { HeatFlow } from '$lib/physics';
+import { meetsLimit } from '$lib/limit-tables/rules';
 
 export type ElementBrief = {
 	id: string;
@@ -10,7 +12,7 @@ export type ElementBrief = {
 	name: string;
 	kind: ElementKind;
 	area: number;
-	heatFlow: 'upward' | 'horizontal' | 'downward';
+	heatFlow: HeatFlow;
 	/** W/(m²·K): the calculated value (unrounded) or the given one for windows and doors */
 	uValue: number | null;
 	uValueRounded: number | null;
@@ -30,15 +32,6 @@ export type ElementSummaryRow = ElementBrief & {
 	/** U·A, W/K */
 	ua: number | null;
 };
-
-/**
- * An element passes when its U-value, as reported (rounded), does not exceed the limit for its kind.
- * Comparing the reported figure is common practice, no source.
- */
-export function passesLimit(uRounded: number | null, limit: number | null | undefined): boolean | null {
-	if (uRounded === null || limit === null || limit === undefined) return null;
-	return uRounded <= limit + 1e-12;
-}
 
 export function summariseElements(
 	elements: ElementBrief[],
@@ -62,7 +55,7 @@ export function summariseElements(
 	let moistureRisk = 0;
 	const rows = elements.map((e) => {
 		const limit = limits?.[e.kind] ?? null;
-		const pass = passesLimit(e.uValueRounded, limit);
+		const pass = meetsLimit(e.uValueRounded, limit);
 		const ua = e.uValue === null ? null : e.uValue * e.area;
 		area += e.area;
 		if (ua === null) withoutResult++;

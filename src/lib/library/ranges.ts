@@ -2,7 +2,7 @@
  * What is usual for each category. A value outside these ranges is not refused (a product may really
  * be unusual) but is a warning a person must confirm before it lands in the library.
  */
-import type { MaterialCategory } from '$lib/dwellings/kinds';
+import { type MaterialCategory } from '$lib/library/categories';
 import type { MaterialValues } from './schema';
 
 type Range = readonly [min: number, max: number];

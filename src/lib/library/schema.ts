@@ -3,10 +3,12 @@
  * import and the seed alike. Pure TypeScript (relative imports only, so the benchmark can load it).
  */
 import { z } from 'zod';
-import { MATERIAL_CATEGORIES, MATERIAL_CATEGORY_LABELS, type MaterialCategory } from '$lib/dwellings/kinds';
+import {
+	MATERIAL_CATEGORIES,
+	MATERIAL_CATEGORY_LABELS,
+	type MaterialCategory
+} from '$lib/library/categories';
 import { fieldIssues, type FieldIssue } from '$lib/validation';
-
-export { MATERIAL_CATEGORIES, MATERIAL_CATEGORY_LABELS, type MaterialCategory };
 
 /** How a λ value was arrived at (the distinction ISO 10456 draws between declared and design values). */
 export const LAMBDA_KINDS = ['declared', 'design', 'table'] as const;

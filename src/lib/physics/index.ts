@@ -34,7 +34,7 @@ export {
 	slightlyVentilatedTotal,
 	layerResistance
 } from './resistances';
-export type { HeatFlow } from './resistances';
+export { HEAT_FLOWS, type HeatFlow } from './resistances';
 export { combinedMethod, bridgeFraction, COMBINED_METHOD_MAX_RATIO } from './bridging';
 export type { CombinedResult, SeriesLayerR } from './bridging';
 export {

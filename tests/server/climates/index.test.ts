@@ -315,7 +315,11 @@ describe.skipIf(!hasDatabase)('climates', async () => {
 
 // The OpenAPI fragment is generated from the same zod schemas the endpoints use (no database needed).
 describe('OpenAPI paths', async () => {
-	const { paths } = await import('../../../src/lib/server/climates/openapi');
+	const paths = {
+		...(await import('../../../src/lib/server/climates/openapi')).paths,
+		...(await import('../../../src/lib/server/limit-tables/openapi')).paths,
+		...(await import('../../../src/lib/server/templates/openapi')).paths
+	};
 	it('describes every climates, limit-tables and templates endpoint with JSON schemas from zod', () => {
 		expect(Object.keys(paths).sort()).toEqual([
 			'/api/v1/climates',

@@ -178,4 +178,62 @@ describe.skipIf(!hasDatabase)('templates', async () => {
 		expect(broken.u).toBeNull();
 		expect(broken.problem).toMatch(/layers\.0\.lambda/);
 	});
+
+	it('keeps every field of an element\u2019s build-up: one schema for both, and a template round-trips each field', async () => {
+		const { storedBuildUpSchema } = await import('../../../src/lib/dwellings/schema');
+		const { templateInputSchema } = await import('../../../src/lib/templates/schema');
+		// The template's build-up is checked by the element's own schema, not a copy of it.
+		expect(templateInputSchema.shape.buildUp).toBe(storedBuildUpSchema);
+		const t = await makeTeam();
+		// Every field an element's build-up stores, each with a value other than its default (invented
+		// values; only their survival is tested).
+		const buildUp = {
+			rsi: 0.1,
+			rse: 0.04,
+			ground: { perimeterM: 32, areaM2: 60, groundLambda: 1.5, wallThicknessM: 0.3 },
+			roofSpace: 'tiles-with-felt-or-boards',
+			layers: [
+				{
+					name: 'Mineral wool between joists',
+					thicknessMm: 100,
+					lambda: 0.035,
+					mu: 1,
+					airGapLevel: 1,
+					bridge: { lambda: 0.13, widthMm: 47, centresMm: 600, name: 'Joist', mu: 20 },
+					bridgeGeometry: { widthMm: 47, centresMm: 600 },
+					materialId: '00000000-0000-4000-8000-000000000001',
+					materialRevisionId: '00000000-0000-4000-8000-000000000002',
+					materialCode: 'IN-MW-035'
+				},
+				{
+					name: 'Board on fixings',
+					thicknessMm: 50,
+					lambda: 0.022,
+					sd: 2,
+					fasteners: { lambda: 50, areaMm2: 12.6, perM2: 4, penetrationMm: 50 },
+					fastenerDiameterMm: 4
+				},
+				{ name: 'Cavity', thicknessMm: 50, air: 'slightly-ventilated', openingAreaMm2: 1000, mu: 1 },
+				{ name: 'Membrane', thicknessMm: 0.2, resistance: 0 }
+			]
+		};
+		// Every key of the element schema appears in the sample, so a new field cannot be forgotten here.
+		expect(Object.keys(buildUp).sort()).toEqual(Object.keys(storedBuildUpSchema.shape).sort());
+		const body = { name: 'Every field', kind: 'ground-floor', buildUp };
+		const created = await call(list.POST, t.assessor, 'POST', '/api/v1/templates', { body });
+		expect(created.status).toBe(201);
+		const id = (created.json as { id: string }).id;
+		const read = await call(one.GET, t.assessor, 'GET', `/api/v1/templates/${id}`, {
+			params: { templateId: id }
+		});
+		const back = (read.json as { buildUp: typeof buildUp }).buildUp;
+		expect(back).toEqual(storedBuildUpSchema.parse(buildUp));
+		for (const [i, layer] of buildUp.layers.entries()) {
+			for (const [field, value] of Object.entries(layer)) {
+				expect((back.layers[i] as Record<string, unknown>)[field], `layer ${i + 1}, ${field}`).toEqual(value);
+			}
+		}
+		expect(back.ground).toEqual(buildUp.ground);
+		expect(back.roofSpace).toBe('tiles-with-felt-or-boards');
+	});
 });

@@ -3,7 +3,7 @@
  * source). A value outside a range is not wrong by itself; it is a reason to look.
  */
 import type { StoredLayer } from '$lib/dwellings/element-input';
-import type { MaterialCategory } from '$lib/dwellings/kinds';
+import { type MaterialCategory } from '$lib/library/categories';
 import type { Flag } from '$lib/audit/flags';
 import {
 	MAX_INSULATION_LAYER_MM,

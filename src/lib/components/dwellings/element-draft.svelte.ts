@@ -2,7 +2,7 @@
  * The element as it is being edited: every field as the person types it (text, so "0,035" and
  * half-typed numbers survive), and the same fields as the API takes them.
  */
-import type { ElementResult, RoofSpace } from '$lib/physics';
+import type { ElementResult, HeatFlow, RoofSpace } from '$lib/physics';
 import type { StoredBuildUp, StoredInternal } from '$lib/dwellings/element-input';
 import {
 	DEFAULT_HEAT_FLOW,
@@ -20,7 +20,6 @@ import {
 	type GroundText
 } from '$lib/dwellings/editor';
 
-export type HeatFlowChoice = 'upward' | 'horizontal' | 'downward';
 export type HumidityMode = 'class' | 'rh';
 
 export type ClimateOption = {
@@ -36,7 +35,7 @@ export type SavedElement = {
 	name: string;
 	kind: ElementKind;
 	area: number;
-	heatFlow: HeatFlowChoice;
+	heatFlow: HeatFlow;
 	buildUp: StoredBuildUp | null;
 	givenU: number | null;
 	givenUSource: string | null;
@@ -51,7 +50,7 @@ export type ElementFieldValues = {
 	name: string;
 	kind: ElementKind;
 	area: number | string | undefined;
-	heatFlow: HeatFlowChoice;
+	heatFlow: HeatFlow;
 	climateId: string | null;
 	internal: Record<string, unknown>;
 	buildUp: StoredBuildUp | null;
@@ -72,7 +71,7 @@ export class ElementDraft {
 	name: string = $state('');
 	kind: ElementKind = $state('external-wall');
 	area: string = $state('');
-	heatFlow: HeatFlowChoice = $state('horizontal');
+	heatFlow: HeatFlow = $state('horizontal');
 	climateId: string = $state('');
 	internalTemp: string = $state('');
 	humidityMode: HumidityMode = $state('class');

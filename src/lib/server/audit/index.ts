@@ -20,7 +20,7 @@ import {
 } from './recompute';
 import { FLAG_LABELS, DECISION_LABELS, type Decision, type Flag, type ItemState } from '$lib/audit/flags';
 import type { BatchFilter, DecisionInput, NewBatch } from '$lib/audit/schemas';
-import type { ElementKind } from '$lib/dwellings/kinds';
+import { type ElementKind } from '$lib/dwellings/kinds';
 import {
 	ConflictError,
 	ForbiddenError,
@@ -28,6 +28,7 @@ import {
 	ValidationError,
 	type FieldIssue
 } from '$lib/server/errors';
+import { exceedsLimit } from '$lib/limit-tables/rules';
 
 export type { BatchProgress, BatchSource };
 
@@ -739,7 +740,7 @@ export async function batchSummary(organisationId: string, batchId: string): Pro
 			if (typeof u !== 'number') continue;
 			const k = kinds.get(el.kind) ?? { kind: el.kind, limit: el.limit, values: [] };
 			if (k.limit === null && el.limit !== null) k.limit = el.limit;
-			k.values.push({ u, reference: it.reference, over: el.limit !== null && u > el.limit + 1e-9 });
+			k.values.push({ u, reference: it.reference, over: exceedsLimit(u, el.limit) });
 			kinds.set(el.kind, k);
 		}
 	}

@@ -3,49 +3,11 @@
  * one audited dwelling, decisions, resubmissions and the "returned to me" list. Request schemas come from
  * the zod schemas the endpoints validate with. Merged into /api/v1/openapi.json.
  */
-import { z } from 'zod';
 import { decisionSchema, newBatchSchema, resubmitSchema } from '$lib/audit/schemas';
 import { DECISIONS, FLAG_CODES, SEVERITIES } from '$lib/audit/flags';
 import { DWELLING_STATUSES } from '$lib/dwellings/kinds';
+import { fail, idParam, jsonBody, list, ok, uuid } from '$lib/server/openapi-kit';
 
-const schema = (s: z.ZodType) =>
-	z.toJSONSchema(s, { io: 'input', unrepresentable: 'any' }) as Record<string, unknown>;
-const body = (s: z.ZodType) => ({
-	required: true,
-	content: { 'application/json': { schema: schema(s) } }
-});
-
-const problem = {
-	type: 'object',
-	properties: {
-		message: { type: 'string' },
-		issues: {
-			type: 'array',
-			items: {
-				type: 'object',
-				properties: { path: { type: 'string' }, message: { type: 'string' }, line: { type: 'integer' } }
-			}
-		}
-	},
-	required: ['message']
-};
-const err = (description: string) => ({ description, content: { 'application/json': { schema: problem } } });
-const ok = (description: string, s: Record<string, unknown>) => ({
-	description,
-	content: { 'application/json': { schema: s } }
-});
-const list = (items: Record<string, unknown>) => ({
-	type: 'object',
-	properties: { items: { type: 'array', items } },
-	required: ['items']
-});
-const idParam = (name: 'batchId' | 'itemId') => ({
-	name,
-	in: 'path',
-	required: true,
-	schema: { type: 'string', format: 'uuid' }
-});
-const uuid = { type: 'string', format: 'uuid' };
 const nullable = (type: string, extra: Record<string, unknown> = {}) => ({ type: [type, 'null'], ...extra });
 
 const itemState = { type: 'string', enum: ['awaiting-review', 'resubmitted', ...DECISIONS] };
@@ -193,11 +155,11 @@ export const paths: Record<string, unknown> = {
 			tags,
 			summary: 'Create a batch from a filter or a list of dwelling references; the recompute is queued',
 			description: 'Supervisors and admins only.',
-			requestBody: body(newBatchSchema),
+			requestBody: jsonBody(newBatchSchema),
 			responses: {
 				201: ok('The new batch', batch),
-				400: err('The request is not valid (every field at fault is named)'),
-				403: err('Only supervisors and admins create batches')
+				400: fail('The request is not valid (every field at fault is named)'),
+				403: fail('Only supervisors and admins create batches')
 			}
 		}
 	},
@@ -206,7 +168,7 @@ export const paths: Record<string, unknown> = {
 			tags,
 			summary: 'One batch with the progress of its recompute',
 			parameters: [idParam('batchId')],
-			responses: { 200: ok('The batch', batch), 404: err('No such batch in your organisation') }
+			responses: { 200: ok('The batch', batch), 404: fail('No such batch in your organisation') }
 		}
 	},
 	'/api/v1/audit/batches/{batchId}/items': {
@@ -214,7 +176,7 @@ export const paths: Record<string, unknown> = {
 			tags,
 			summary: 'The dwellings of a batch with their flags and decisions',
 			parameters: [idParam('batchId')],
-			responses: { 200: ok('Items', list(item)), 404: err('No such batch in your organisation') }
+			responses: { 200: ok('Items', list(item)), 404: fail('No such batch in your organisation') }
 		}
 	},
 	'/api/v1/audit/batches/{batchId}/summary': {
@@ -222,7 +184,7 @@ export const paths: Record<string, unknown> = {
 			tags,
 			summary: 'Counts of a batch: by state, by flag, per assessor, U-values by element kind',
 			parameters: [idParam('batchId')],
-			responses: { 200: ok('Summary', summary), 404: err('No such batch in your organisation') }
+			responses: { 200: ok('Summary', summary), 404: fail('No such batch in your organisation') }
 		}
 	},
 	'/api/v1/audit/batches/{batchId}/refresh': {
@@ -233,8 +195,8 @@ export const paths: Record<string, unknown> = {
 			parameters: [idParam('batchId')],
 			responses: {
 				202: ok('Queued', { type: 'object', properties: { state: { type: 'string' } } }),
-				403: err('Only supervisors and admins recompute batches'),
-				404: err('No such batch in your organisation')
+				403: fail('Only supervisors and admins recompute batches'),
+				404: fail('No such batch in your organisation')
 			}
 		}
 	},
@@ -243,7 +205,7 @@ export const paths: Record<string, unknown> = {
 			tags,
 			summary: 'One audited dwelling: flags, recomputed figures beside the issued ones, history',
 			parameters: [idParam('itemId')],
-			responses: { 200: ok('The item', itemDetail), 404: err('No such audit item in your organisation') }
+			responses: { 200: ok('The item', itemDetail), 404: fail('No such audit item in your organisation') }
 		}
 	},
 	'/api/v1/audit/items/{itemId}/decision': {
@@ -252,13 +214,13 @@ export const paths: Record<string, unknown> = {
 			summary: 'Decide: accepted, accepted with advice, or returned for correction (with a comment)',
 			description: 'Supervisors and admins only. A comment is required unless the decision is accepted.',
 			parameters: [idParam('itemId')],
-			requestBody: body(decisionSchema),
+			requestBody: jsonBody(decisionSchema),
 			responses: {
 				200: ok('The decided item', item),
-				400: err('The request is not valid'),
-				403: err('Only supervisors and admins decide'),
-				404: err('No such audit item in your organisation'),
-				409: err('The item cannot be decided in its present state')
+				400: fail('The request is not valid'),
+				403: fail('Only supervisors and admins decide'),
+				404: fail('No such audit item in your organisation'),
+				409: fail('The item cannot be decided in its present state')
 			}
 		}
 	},
@@ -268,13 +230,13 @@ export const paths: Record<string, unknown> = {
 			summary: 'Answer a return after issuing the dwelling report again',
 			description: "The dwelling's assessor or an admin.",
 			parameters: [idParam('itemId')],
-			requestBody: body(resubmitSchema),
+			requestBody: jsonBody(resubmitSchema),
 			responses: {
 				200: ok('The resubmitted item', item),
-				400: err('The request is not valid'),
-				403: err("Only the dwelling's assessor (or an admin) resubmits it"),
-				404: err('No such audit item in your organisation'),
-				409: err('Not returned, or no dwelling report issued since the return')
+				400: fail('The request is not valid'),
+				403: fail("Only the dwelling's assessor (or an admin) resubmits it"),
+				404: fail('No such audit item in your organisation'),
+				409: fail('Not returned, or no dwelling report issued since the return')
 			}
 		}
 	},

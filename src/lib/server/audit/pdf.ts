@@ -1,8 +1,4 @@
-/** The batch audit report as PDF (pdfmake, Source Sans 3 from the npm package `source-sans`). */
-import { createRequire } from 'node:module';
-import fs from 'node:fs';
-import path from 'node:path';
-import pdfmake from 'pdfmake';
+/** The batch audit report as PDF (pdfmake through the shared renderer, Source Sans 3). */
 import type { Content, TDocumentDefinitions } from 'pdfmake/interfaces';
 import { CAUTIONS } from '$lib/physics';
 import { FLAG_LABELS, ITEM_STATE_LABELS, SEVERITY_LABELS } from '$lib/audit/flags';
@@ -10,41 +6,7 @@ import { DWELLING_STATUS_LABELS, type DwellingStatus } from '$lib/dwellings/kind
 import type { Batch, BatchSummary, ItemRow } from '$lib/server/audit';
 import { uChartSvg } from './chart';
 import { whenUtc } from '$lib/format';
-
-const FONT = 'SourceSans3';
-
-function fontDir(): string {
-	const candidates: string[] = [];
-	try {
-		const require = createRequire(import.meta.url);
-		candidates.push(path.join(path.dirname(require.resolve('source-sans/package.json')), 'TTF'));
-	} catch {
-		// fall back to the working directory
-	}
-	candidates.push(path.resolve('node_modules/source-sans/TTF'));
-	const dir = candidates.find((d) => fs.existsSync(path.join(d, 'SourceSans3-Regular.ttf')));
-	if (!dir) throw new Error('Source Sans 3 TTF files not found (npm package source-sans)');
-	return dir;
-}
-
-let configured = false;
-/** Adds the font family (the same files and name the report PDFs use) without replacing other settings. */
-function configure() {
-	if (configured) return;
-	const dir = fontDir();
-	const file = (n: string) => path.join(dir, n);
-	pdfmake.addFonts({
-		[FONT]: {
-			normal: file('SourceSans3-Regular.ttf'),
-			bold: file('SourceSans3-Semibold.ttf'),
-			italics: file('SourceSans3-It.ttf'),
-			bolditalics: file('SourceSans3-SemiboldIt.ttf')
-		}
-	});
-	pdfmake.setUrlAccessPolicy(() => false);
-	pdfmake.setLocalAccessPolicy((p: string) => path.resolve(p).startsWith(dir + path.sep));
-	configured = true;
-}
+import { FONT, renderPdf } from '$lib/server/pdf';
 
 const th = (t: string, right = false): Content => ({
 	text: t,
@@ -60,7 +22,6 @@ export async function batchReportPdf(
 	generatedBy: string,
 	organisation: string
 ): Promise<Buffer> {
-	configure();
 	const s = batch.sampling;
 	const rule =
 		s.rule === 'all'
@@ -217,6 +178,5 @@ export async function batchReportPdf(
 			}
 		]
 	};
-	const buf = await pdfmake.createPdf(doc).getBuffer();
-	return Buffer.from(buf);
+	return renderPdf(doc);
 }

@@ -16,7 +16,8 @@ import { FLAG_LABELS, type Flag } from '$lib/audit/flags';
 import type { BatchFilter } from '$lib/audit/schemas';
 import type { SamplingRule } from '$lib/audit/sampling';
 import type { ClimateMonthValues } from '$lib/dwellings/element-input';
-import type { ElementKind } from '$lib/dwellings/kinds';
+import { type ElementKind } from '$lib/dwellings/kinds';
+import { limitTableFor } from '$lib/limit-tables/rules';
 
 type Db = Knex | Knex.Transaction;
 
@@ -91,8 +92,7 @@ export async function insertItems(
 
 type Context = {
 	climates: Map<string, ClimateMonthValues[]>;
-	limitTables: Map<string, LimitTableInfo>;
-	defaultLimitTable: LimitTableInfo | null;
+	limitTables: (LimitTableInfo & { id: string; isDefault: boolean })[];
 };
 
 async function loadContext(trx: Db, orgId: string): Promise<Context> {
@@ -102,17 +102,15 @@ async function loadContext(trx: Db, orgId: string): Promise<Context> {
 			.where({ organisation_id: orgId })
 			.select('id', 'name', 'edition', 'limits', 'is_default')
 	]);
-	const limitTables = new Map<string, LimitTableInfo>();
-	let defaultLimitTable: LimitTableInfo | null = null;
-	for (const t of tables) {
-		const info = { name: t.name, edition: t.edition, limits: t.limits ?? {} };
-		limitTables.set(t.id, info);
-		if (t.is_default) defaultLimitTable = info;
-	}
 	return {
 		climates: new Map(climates.map((c) => [c.id as string, c.months as ClimateMonthValues[]])),
-		limitTables,
-		defaultLimitTable
+		limitTables: tables.map((t) => ({
+			id: t.id as string,
+			isDefault: Boolean(t.is_default),
+			name: t.name as string,
+			edition: t.edition as string,
+			limits: t.limits ?? {}
+		}))
 	};
 }
 
@@ -284,7 +282,8 @@ function auditRows(rows: DwellingRows, c: Context): Map<string, DwellingAudit> {
 	const out = new Map<string, DwellingAudit>();
 	const cache: AnalysisCache = new Map();
 	for (const d of rows.dwellings) {
-		const limitTable = (d.limit_table_id ? c.limitTables.get(d.limit_table_id) : null) ?? c.defaultLimitTable;
+		const table = limitTableFor(d.limit_table_id, c.limitTables);
+		const limitTable = table && { name: table.name, edition: table.edition, limits: table.limits };
 		out.set(
 			d.id,
 			auditDwelling(

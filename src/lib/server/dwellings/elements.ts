@@ -2,7 +2,13 @@ import { z } from 'zod';
 import { db, type Db } from '$lib/server/db';
 import { logActivity } from '$lib/server/activity';
 import type { Member } from '$lib/server/guard';
-import { analyseElement, ENGINE_VERSION, type ElementInput, type ElementResult } from '$lib/physics';
+import {
+	analyseElement,
+	ENGINE_VERSION,
+	type ElementInput,
+	type ElementResult,
+	type HeatFlow
+} from '$lib/physics';
 import { toElementInput, type StoredBuildUp, type StoredInternal } from '$lib/dwellings/element-input';
 import { DEFAULT_HEAT_FLOW, type ElementKind } from '$lib/dwellings/kinds';
 import {
@@ -19,7 +25,8 @@ import {
 	ValidationError,
 	type FieldIssue
 } from '$lib/server/errors';
-import { passesLimit, type ElementBrief } from '$lib/dwellings/summary';
+import type { ElementBrief } from '$lib/dwellings/summary';
+import { meetsLimit } from '$lib/limit-tables/rules';
 import { getClimateBrief, type ClimateBrief } from '$lib/server/climates';
 import { getApplicableLimitTable } from '$lib/server/limit-tables';
 import { lockDwelling, touchDwelling } from './locks';
@@ -463,7 +470,7 @@ export function withVerdict(
 ): ElementWithVerdict {
 	const limit = limitFor(limitTable, element.kind);
 	const u = element.givenU ?? element.lastResult?.uValueRounded ?? null;
-	return { ...element, limit, pass: passesLimit(u, limit) };
+	return { ...element, limit, pass: meetsLimit(u, limit) };
 }
 
 function toElement(r: Record<string, unknown>): Element {
@@ -495,7 +502,7 @@ export type Element = {
 	name: string;
 	kind: ElementKind;
 	area: number;
-	heatFlow: 'upward' | 'horizontal' | 'downward';
+	heatFlow: HeatFlow;
 	buildUp: StoredBuildUp | null;
 	givenU: number | null;
 	givenUSource: string | null;

@@ -1,4 +1,5 @@
 import { db, type Db } from '$lib/server/db';
+import { calendarDay } from '$lib/format';
 import { logActivity } from '$lib/server/activity';
 import type { Member } from '$lib/server/guard';
 import {
@@ -18,7 +19,7 @@ import {
 	type FieldIssue
 } from '$lib/server/errors';
 import { fieldIssues } from '$lib/validation';
-import type { DwellingStatus, ElementKind } from '$lib/dwellings/kinds';
+import { type DwellingStatus, type ElementKind } from '$lib/dwellings/kinds';
 import { summariseElements, type ElementSummaryRow } from '$lib/dwellings/summary';
 import { listElementSummaries, toElementBrief } from './elements';
 import { getClimateBrief, type ClimateBrief } from '$lib/server/climates';
@@ -198,6 +199,7 @@ export async function getDwellingPage(
 				id: t.id as string,
 				name: t.name as string,
 				edition: t.edition as string,
+				dated: calendarDay(t.dated),
 				source: (t.source ?? null) as string | null,
 				isDefault: Boolean(t.is_default),
 				chosen: Boolean(dwelling.limitTableId),

@@ -1,7 +1,7 @@
 /** Row locks and touches that the dwelling and element services share (neither imports the other for them). */
 import type { Db } from '$lib/server/db';
 import { NotFoundError } from '$lib/server/errors';
-import type { DwellingStatus } from '$lib/dwellings/kinds';
+import { type DwellingStatus } from '$lib/dwellings/kinds';
 
 /** Lock the dwelling row for the transaction; 404 when it is not the organisation's. */
 export async function lockDwelling(t: Db, organisationId: string, id: string) {

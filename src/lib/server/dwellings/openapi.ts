@@ -1,5 +1,4 @@
 /** OpenAPI path items of dwellings, elements and the stateless calculation, from the same zod schemas the API validates with. */
-import { z } from 'zod';
 import { elementInputSchema, elementResultSchema } from '$lib/physics';
 import { elementOrderSchema } from '$lib/server/dwellings/elements';
 import {
@@ -12,41 +11,25 @@ import {
 	elementUpdateSchema,
 	thicknessRequestSchema
 } from '$lib/dwellings/schema';
+import {
+	common,
+	conflict,
+	idParam,
+	invalid,
+	jsonBody,
+	notFound,
+	ok,
+	queryParams,
+	schema
+} from '$lib/server/openapi-kit';
 
-const schema = (s: z.ZodType) =>
-	z.toJSONSchema(s, { io: 'input', unrepresentable: 'any', target: 'draft-2020-12' });
-const body = (s: z.ZodType) => ({ required: true, content: { 'application/json': { schema: schema(s) } } });
-const ok = (description: string, s?: Record<string, unknown>) => ({
-	description,
-	...(s ? { content: { 'application/json': { schema: s } } } : {})
-});
-const issues = {
-	type: 'object',
-	properties: {
-		message: { type: 'string' },
-		issues: {
-			type: 'array',
-			items: { type: 'object', properties: { path: { type: 'string' }, message: { type: 'string' } } }
-		}
-	}
-};
 const errors = {
-	'400': ok('Invalid input: each issue names the field (dotted path) and why', issues),
-	'401': ok('Not signed in'),
-	'403': ok('Your role does not allow this'),
-	'404': ok('Not found in your organisation')
+	...invalid('Invalid input: each issue names the field (dotted path) and why'),
+	...common,
+	...notFound('Not found in your organisation')
 };
-const conflict = {
-	'409': ok('Stale version: changed by someone else since you loaded it', {
-		type: 'object',
-		properties: { message: { type: 'string' }, currentVersion: { type: 'integer' } }
-	})
-};
-const idParam = (name: string) => ({
-	name,
-	in: 'path',
-	required: true,
-	schema: { type: 'string', format: 'uuid' }
+const stale = conflict('Stale version: changed by someone else since you loaded it', {
+	currentVersion: { type: 'integer', description: 'the version now stored' }
 });
 const versionQuery = {
 	name: 'version',
@@ -63,10 +46,6 @@ const element = {
 	description: 'An element with its stored lastResult (ElementResult), limit and pass'
 };
 
-const queryParams = Object.entries(
-	(schema(dwellingListQuerySchema) as { properties: Record<string, unknown> }).properties
-).map(([name, s]) => ({ name, in: 'query', required: false, schema: s }));
-
 export const paths: Record<string, unknown> = {
 	'/api/v1/calculate': {
 		post: {
@@ -82,11 +61,11 @@ export const paths: Record<string, unknown> = {
 					schema: { type: 'string', enum: ['full', 'summary'] }
 				}
 			],
-			requestBody: body(elementInputSchema),
+			requestBody: jsonBody(elementInputSchema),
 			responses: {
 				'200': ok('The result', schema(elementResultSchema)),
 				'400': errors['400'],
-				'401': errors['401']
+				'401': common['401']
 			}
 		}
 	},
@@ -94,11 +73,11 @@ export const paths: Record<string, unknown> = {
 		post: {
 			tags: ['calculation'],
 			summary: 'Thickness of one layer that reaches a target U, rounded up to a product size. Stateless.',
-			requestBody: body(thicknessRequestSchema),
+			requestBody: jsonBody(thicknessRequestSchema),
 			responses: {
 				'200': ok('exactMm, roundedMm, uAtExact, uAtRounded, method, notes'),
 				'400': errors['400'],
-				'401': errors['401']
+				'401': common['401']
 			}
 		}
 	},
@@ -106,13 +85,13 @@ export const paths: Record<string, unknown> = {
 		get: {
 			tags: ['dwellings'],
 			summary: 'List, search, filter, sort and paginate dwellings',
-			parameters: queryParams,
+			parameters: queryParams(dwellingListQuerySchema),
 			responses: { '200': ok('{ items, total, page, pageSize }'), ...errors }
 		},
 		post: {
 			tags: ['dwellings'],
 			summary: 'Create a dwelling (assessor, admin)',
-			requestBody: body(dwellingFieldsSchema),
+			requestBody: jsonBody(dwellingFieldsSchema),
 			responses: { '201': ok('Created', dwelling), ...errors }
 		}
 	},
@@ -126,14 +105,14 @@ export const paths: Record<string, unknown> = {
 		patch: {
 			tags: ['dwellings'],
 			summary: 'Change details (send version)',
-			requestBody: body(dwellingUpdateSchema),
-			responses: { '200': ok('Updated', dwelling), ...errors, ...conflict }
+			requestBody: jsonBody(dwellingUpdateSchema),
+			responses: { '200': ok('Updated', dwelling), ...errors, ...stale }
 		},
 		delete: {
 			tags: ['dwellings'],
 			summary: 'Delete a dwelling without reports or audits',
 			parameters: [versionQuery],
-			responses: { '204': ok('Deleted'), ...errors, ...conflict }
+			responses: { '204': ok('Deleted'), ...errors, ...stale }
 		}
 	},
 	'/api/v1/dwellings/{dwellingId}/copy': {
@@ -141,7 +120,7 @@ export const paths: Record<string, unknown> = {
 		post: {
 			tags: ['dwellings'],
 			summary: 'Copy with all elements as a new draft',
-			requestBody: body(dwellingCopySchema),
+			requestBody: jsonBody(dwellingCopySchema),
 			responses: { '201': ok('The copy', dwelling), ...errors }
 		}
 	},
@@ -150,8 +129,8 @@ export const paths: Record<string, unknown> = {
 		post: {
 			tags: ['dwellings'],
 			summary: 'Archive or restore to draft',
-			requestBody: body(archiveSchema),
-			responses: { '200': ok('Updated', dwelling), ...errors, ...conflict }
+			requestBody: jsonBody(archiveSchema),
+			responses: { '200': ok('Updated', dwelling), ...errors, ...stale }
 		}
 	},
 	'/api/v1/dwellings/{dwellingId}/elements': {
@@ -164,7 +143,7 @@ export const paths: Record<string, unknown> = {
 		post: {
 			tags: ['elements'],
 			summary: 'Add an element; the server computes its result',
-			requestBody: body(elementFieldsSchema),
+			requestBody: jsonBody(elementFieldsSchema),
 			responses: { '201': ok('Created', element), ...errors }
 		}
 	},
@@ -173,8 +152,8 @@ export const paths: Record<string, unknown> = {
 		post: {
 			tags: ['elements'],
 			summary: "Set the order of the dwelling's elements (every id once; send the dwelling's version)",
-			requestBody: body(elementOrderSchema),
-			responses: { '200': ok('{ version, ids }'), ...errors, ...conflict }
+			requestBody: jsonBody(elementOrderSchema),
+			responses: { '200': ok('{ version, ids }'), ...errors, ...stale }
 		}
 	},
 	'/api/v1/elements/{elementId}': {
@@ -187,14 +166,14 @@ export const paths: Record<string, unknown> = {
 		put: {
 			tags: ['elements'],
 			summary: 'Replace an element (send version); the server recomputes',
-			requestBody: body(elementUpdateSchema),
-			responses: { '200': ok('Updated', element), ...errors, ...conflict }
+			requestBody: jsonBody(elementUpdateSchema),
+			responses: { '200': ok('Updated', element), ...errors, ...stale }
 		},
 		delete: {
 			tags: ['elements'],
 			summary: 'Delete an element',
 			parameters: [versionQuery],
-			responses: { '204': ok('Deleted'), ...errors, ...conflict }
+			responses: { '204': ok('Deleted'), ...errors, ...stale }
 		}
 	},
 	'/api/v1/elements/{elementId}/duplicate': {

@@ -23,13 +23,12 @@ import {
 	FIELD_LABELS,
 	LAMBDA_KIND_LABELS,
 	LAMBDA_KINDS,
-	MATERIAL_CATEGORIES,
-	MATERIAL_CATEGORY_LABELS,
 	materialValuesSchema,
 	REVISION_FIELDS,
 	type FieldChange,
 	type MaterialValues
 } from '$lib/library/schema';
+import { MATERIAL_CATEGORIES, MATERIAL_CATEGORY_LABELS } from '$lib/library/categories';
 import { plausibilityWarnings } from '$lib/library/ranges';
 import {
 	currentByCodes,

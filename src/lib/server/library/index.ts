@@ -44,7 +44,8 @@ export type Actor = { userId: string; organisationId: string };
 
 const dateText = calendarDay;
 
-type Row = Record<string, any>; // eslint-disable-line @typescript-eslint/no-explicit-any
+// Rows as Knex returns them (snake_case, untyped); converted at the module edge by the functions below.
+type Row = Record<string, any>;
 
 /** The values of a revision row, in the shape of MaterialValues. */
 export function valuesOfRow(r: Row): MaterialValues {

@@ -2,17 +2,9 @@
  * OpenAPI 3.1 path items for the material library, with JSON schemas generated from the same zod
  * schemas the endpoints validate with. Merged into /api/v1/openapi.json.
  */
-import { z } from 'zod';
-import {
-	listQuerySchema,
-	materialValuesObject,
-	MATERIAL_STATUSES,
-	LAMBDA_KINDS,
-	MATERIAL_CATEGORIES
-} from '$lib/library/schema';
-
-const schema = (s: z.ZodType, io: 'input' | 'output' = 'input') =>
-	z.toJSONSchema(s, { io, unrepresentable: 'any' }) as Record<string, unknown>;
+import { listQuerySchema, materialValuesObject, MATERIAL_STATUSES, LAMBDA_KINDS } from '$lib/library/schema';
+import { MATERIAL_CATEGORIES } from '$lib/library/categories';
+import { fail, idParam, issue, json, ok, queryParams, schema } from '$lib/server/openapi-kit';
 
 const num = { type: ['number', 'null'] };
 const text = { type: ['string', 'null'] };
@@ -57,35 +49,20 @@ const revision = {
 		}
 	]
 };
-const problem = {
-	type: 'object',
-	properties: {
-		message: { type: 'string' },
-		issues: {
-			type: 'array',
-			items: { type: 'object', properties: { field: { type: 'string' }, message: { type: 'string' } } }
-		},
-		warnings: {
-			type: 'array',
-			items: { type: 'object', properties: { field: { type: 'string' }, message: { type: 'string' } } }
-		}
-	},
-	required: ['message']
-};
 const change = {
 	type: 'object',
 	properties: { field: { type: 'string' }, from: {}, to: {} },
 	required: ['field', 'from', 'to']
 };
-const json = (s: Record<string, unknown>) => ({ 'application/json': { schema: s } });
-const ok = (description: string, s: Record<string, unknown>) => ({ description, content: json(s) });
-const fail = (description: string) => ({ description, content: json(problem) });
-const idParam = {
-	name: 'materialId',
-	in: 'path',
-	required: true,
-	schema: { type: 'string', format: 'uuid' }
-};
+const materialId = idParam('materialId');
+const unusual = (description: string) =>
+	fail(description, {
+		warnings: {
+			type: 'array',
+			items: issue,
+			description: 'values that are valid but unusual for the category, one per field'
+		}
+	});
 const values = schema(materialValuesObject);
 const writeBody = {
 	required: true,
@@ -102,21 +79,12 @@ const writeBody = {
 	})
 };
 
-const listParams = Object.entries((schema(listQuerySchema).properties ?? {}) as Record<string, unknown>).map(
-	([name, s]) => ({
-		name,
-		in: 'query',
-		required: false,
-		schema: s
-	})
-);
-
 export const paths: Record<string, unknown> = {
 	'/api/v1/materials': {
 		get: {
 			summary: 'The library: search, filter, sort, one page',
 			tags: ['Library'],
-			parameters: listParams,
+			parameters: queryParams(listQuerySchema),
 			responses: {
 				200: ok('A page of materials (current revisions)', {
 					type: 'object',
@@ -139,12 +107,12 @@ export const paths: Record<string, unknown> = {
 				201: ok('The material', revision),
 				400: fail('Values refused, field by field'),
 				409: fail('The code is already in the library'),
-				422: fail('Values unusual for the category: send again with confirmWarnings')
+				422: unusual('Values unusual for the category: send again with confirmWarnings')
 			}
 		}
 	},
 	'/api/v1/materials/{materialId}': {
-		parameters: [idParam],
+		parameters: [materialId],
 		get: {
 			summary: 'A material with every revision, newest first',
 			tags: ['Library'],
@@ -185,12 +153,12 @@ export const paths: Record<string, unknown> = {
 				400: fail('Values refused'),
 				404: fail('No such material'),
 				409: fail('A newer revision was written meanwhile'),
-				422: fail('Values unusual: confirm')
+				422: unusual('Values unusual: confirm')
 			}
 		}
 	},
 	'/api/v1/materials/{materialId}/status': {
-		parameters: [idParam],
+		parameters: [materialId],
 		post: {
 			summary:
 				'Verify or supersede the current revision; supervisors and admins, never the revision’s author for verify',
@@ -256,17 +224,10 @@ export const paths: Record<string, unknown> = {
 					properties: { kind: { enum: ['preview', 'mapping', 'summary'] } },
 					required: ['kind']
 				}),
-				400: {
-					description: 'The file is refused (size, encoding, delimiter, header, truncation…)',
-					content: json({
-						type: 'object',
-						properties: {
-							message: { type: 'string' },
-							code: { type: 'string' },
-							line: { type: ['integer', 'null'] }
-						}
-					})
-				},
+				400: fail('The file is refused (size, encoding, delimiter, header, truncation…)', {
+					code: { type: 'string', description: 'what is wrong with the file as a whole' },
+					line: { type: ['integer', 'null'], description: 'the line at fault, when it can be placed' }
+				}),
 				409: fail('The file or library changed since the preview'),
 				422: fail('Rows with warnings need confirmWarnings')
 			}

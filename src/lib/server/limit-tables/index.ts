@@ -2,7 +2,7 @@ import { calendarDay } from '$lib/format';
 import { db, type Db } from '$lib/server/db';
 import { logActivity } from '$lib/server/activity';
 import type { Member } from '$lib/server/guard';
-import type { ElementKind } from '$lib/dwellings/kinds';
+import { type ElementKind } from '$lib/dwellings/kinds';
 import { limitTableInputSchema, type LimitTableInput } from '$lib/limit-tables/schema';
 import { ConflictError, pgCode, PG_FOREIGN_KEY_VIOLATION, PG_UNIQUE_VIOLATION } from '$lib/server/errors';
 
@@ -51,8 +51,17 @@ export async function getApplicableLimitTable(
 		? await getLimitTable(organisationId, limitTableId, trx)
 		: await getDefaultLimitTable(organisationId, trx);
 	if (!table) return null;
-	const { id, name, edition, source, isDefault, limits } = table;
-	return { id, name, edition, source, isDefault: Boolean(isDefault), chosen: Boolean(limitTableId), limits };
+	const { id, name, edition, dated, source, isDefault, limits } = table;
+	return {
+		id,
+		name,
+		edition,
+		dated,
+		source,
+		isDefault: Boolean(isDefault),
+		chosen: Boolean(limitTableId),
+		limits
+	};
 }
 
 export type LimitTableBrief = NonNullable<Awaited<ReturnType<typeof getApplicableLimitTable>>>;

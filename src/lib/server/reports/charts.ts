@@ -4,7 +4,7 @@
  */
 import { scaleLinear } from 'd3-scale';
 import type { ElementResult } from '$lib/physics';
-import { FONT } from './fonts';
+import { FONT } from '$lib/server/pdf';
 import { fx, monthName, trim } from '$lib/format';
 
 export const CHART_COLOURS = {

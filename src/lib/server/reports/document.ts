@@ -7,7 +7,7 @@ import type { Content, TDocumentDefinitions, CustomTableLayout, TableCell } from
 import { CAUTIONS, type ElementResult, type LayerResult } from '$lib/physics';
 import { ELEMENT_KIND_LABELS } from '$lib/dwellings/kinds';
 import type { StoredLayer } from '$lib/dwellings/element-input';
-import { FONT } from './fonts';
+import { FONT } from '$lib/server/pdf';
 import { temperatureChart, vapourChart, CHART_COLOURS } from './charts';
 import { fx, trim, pct, monthName, longDate, MONTHS } from '$lib/format';
 import type { ReportSnapshot, SnapshotElement } from './snapshot';

@@ -18,9 +18,11 @@ import {
 import { toElementInput, type StoredBuildUp, type StoredInternal } from '$lib/dwellings/element-input';
 import { GIVEN_U_KINDS, ELEMENT_KIND_LABELS, type ElementKind } from '$lib/dwellings/kinds';
 import { reportDocument, passWord, moistureWord } from './document';
-import { renderPdf } from './fonts';
+import { renderPdf } from '$lib/server/pdf';
 import { groupCode, longDate } from '$lib/format';
 import { supersededMailRefusal } from '$lib/reports/rules';
+import { meetsLimit } from '$lib/limit-tables/rules';
+import { getApplicableLimitTable } from '$lib/server/limit-tables';
 import type {
 	ReportScope,
 	ReportSnapshot,
@@ -130,18 +132,9 @@ export async function buildSnapshot(
 		problems.push('The dwelling has no elements yet: add at least one before issuing.');
 
 	// Limit table: the dwelling's, else the organisation's default.
-	const lt = d.limit_table_id
-		? await trx('limit_tables').where({ id: d.limit_table_id, organisation_id: organisationId }).first()
-		: await trx('limit_tables').where({ organisation_id: organisationId, is_default: true }).first();
+	const lt = await getApplicableLimitTable(organisationId, d.limit_table_id, trx);
 	const limitTable: SnapshotLimitTable | null = lt
-		? {
-				id: lt.id,
-				name: lt.name,
-				edition: lt.edition,
-				dated: lt.dated ? new Date(lt.dated).toISOString().slice(0, 10) : null,
-				source: lt.source ?? null,
-				limits: lt.limits ?? {}
-			}
+		? { id: lt.id, name: lt.name, edition: lt.edition, dated: lt.dated, source: lt.source, limits: lt.limits }
 		: null;
 
 	const climateIds = [
@@ -245,7 +238,7 @@ export async function buildSnapshot(
 				result: null,
 				u,
 				limit: limitValue,
-				pass: limitValue === null || u === null ? null : u <= limitValue + 1e-12
+				pass: meetsLimit(u, limitValue)
 			};
 		}
 		if (!buildUp?.layers?.length) {
@@ -273,7 +266,7 @@ export async function buildSnapshot(
 			result,
 			u,
 			limit: limitValue,
-			pass: limitValue === null || u === null ? null : u <= limitValue + 1e-12
+			pass: meetsLimit(u, limitValue)
 		};
 	});
 

@@ -2,22 +2,10 @@
  * OpenAPI 3.1 path items for reports: issue, read, download the PDF, e-mail through the outbox. Request
  * schemas come from the zod schemas the endpoints validate with. Merged into /api/v1/openapi.json.
  */
-import { z } from 'zod';
 import { emailSchema, issueSchema } from '$lib/reports/schema';
+import { fail, idParam, jsonBody, ok, uuid } from '$lib/server/openapi-kit';
 
-const schema = (s: z.ZodType) =>
-	z.toJSONSchema(s, { io: 'input', unrepresentable: 'any' }) as Record<string, unknown>;
-
-const problem = {
-	type: 'object',
-	properties: {
-		message: { type: 'string' },
-		issues: { type: 'array', items: {} }
-	},
-	required: ['message']
-};
-const err = (description: string) => ({ description, content: { 'application/json': { schema: problem } } });
-const reportId = { name: 'reportId', in: 'path', required: true, schema: { type: 'string', format: 'uuid' } };
+const reportId = idParam('reportId');
 
 const summary = {
 	type: 'object',
@@ -61,20 +49,11 @@ export const paths: Record<string, unknown> = {
 		get: {
 			tags: ['Reports'],
 			summary: "A dwelling's issued reports, newest first",
-			parameters: [
-				{ name: 'dwellingId', in: 'query', required: true, schema: { type: 'string', format: 'uuid' } }
-			],
+			parameters: [{ name: 'dwellingId', in: 'query', required: true, schema: uuid }],
 			responses: {
-				200: {
-					description: 'Reports',
-					content: {
-						'application/json': {
-							schema: { type: 'object', properties: { items: { type: 'array', items: summary } } }
-						}
-					}
-				},
-				400: err('dwellingId missing or not an id'),
-				404: err('No such dwelling in your organisation')
+				200: ok('Reports', { type: 'object', properties: { items: { type: 'array', items: summary } } }),
+				400: fail('dwellingId missing or not an id'),
+				404: fail('No such dwelling in your organisation')
 			}
 		},
 		post: {
@@ -82,15 +61,15 @@ export const paths: Record<string, unknown> = {
 			summary: 'Issue a dwelling report, or an element report with elementId (assessor, admin)',
 			description:
 				'Freezes every input and result, renders the PDF, stores it with its SHA-256 and a verification code. A further issue of the same dwelling or element is the next revision and supersedes the previous one. A dwelling report marks the dwelling issued.',
-			requestBody: { required: true, content: { 'application/json': { schema: schema(issueSchema) } } },
+			requestBody: jsonBody(issueSchema),
 			responses: {
-				201: { description: 'Issued', content: { 'application/json': { schema: summary } } },
-				400: err(
+				201: ok('Issued', summary),
+				400: fail(
 					'Invalid body, or elements that cannot be reported (each named with its field and reason in issues)'
 				),
-				403: err('Role may not issue'),
-				404: err('No such dwelling or element in your organisation'),
-				409: err('The dwelling is archived')
+				403: fail('Role may not issue'),
+				404: fail('No such dwelling or element in your organisation'),
+				409: fail('The dwelling is archived')
 			}
 		}
 	},
@@ -100,22 +79,15 @@ export const paths: Record<string, unknown> = {
 			summary: 'One issued report with the e-mails sent with it (?snapshot=1 adds the frozen snapshot)',
 			parameters: [reportId, { name: 'snapshot', in: 'query', schema: { type: 'string', enum: ['1'] } }],
 			responses: {
-				200: {
-					description: 'Report',
-					content: {
-						'application/json': {
-							schema: {
-								...summary,
-								properties: {
-									...summary.properties,
-									pdfUrl: { type: 'string' },
-									mail: { type: 'array', items: mail }
-								}
-							}
-						}
+				200: ok('Report', {
+					...summary,
+					properties: {
+						...summary.properties,
+						pdfUrl: { type: 'string' },
+						mail: { type: 'array', items: mail }
 					}
-				},
-				404: err('No such report in your organisation')
+				}),
+				404: fail('No such report in your organisation')
 			}
 		}
 	},
@@ -129,7 +101,7 @@ export const paths: Record<string, unknown> = {
 					description: 'PDF',
 					content: { 'application/pdf': { schema: { type: 'string', format: 'binary' } } }
 				},
-				404: err('No such report in your organisation')
+				404: fail('No such report in your organisation')
 			}
 		}
 	},
@@ -139,12 +111,12 @@ export const paths: Record<string, unknown> = {
 			summary:
 				'E-mail the report with its PDF attached (assessor, admin); queued in the outbox and retried until sent',
 			parameters: [reportId],
-			requestBody: { required: true, content: { 'application/json': { schema: schema(emailSchema) } } },
+			requestBody: jsonBody(emailSchema),
 			responses: {
-				202: { description: 'Queued', content: { 'application/json': { schema: mail } } },
-				400: err('Invalid address or message'),
-				403: err('Role may not send'),
-				404: err('No such report in your organisation')
+				202: ok('Queued', mail),
+				400: fail('Invalid address or message'),
+				403: fail('Role may not send'),
+				404: fail('No such report in your organisation')
 			}
 		}
 	}

@@ -3,8 +3,8 @@
  * revisions and the limit table. The PDF is rendered from this alone, so a re-render of a stored
  * snapshot prints the same numbers.
  */
-import type { ElementInput, ElementResult } from '$lib/physics';
-import type { ElementKind } from '$lib/dwellings/kinds';
+import type { ElementInput, ElementResult, HeatFlow } from '$lib/physics';
+import { type ElementKind } from '$lib/dwellings/kinds';
 import type { StoredBuildUp, StoredInternal } from '$lib/dwellings/element-input';
 
 export type ReportScope = 'element' | 'dwelling';
@@ -43,7 +43,7 @@ export type SnapshotElement = {
 	name: string;
 	kind: ElementKind;
 	area: number;
-	heatFlow: 'upward' | 'horizontal' | 'downward';
+	heatFlow: HeatFlow;
 	givenU?: number | null;
 	givenUSource?: string | null;
 	buildUp: StoredBuildUp | null;

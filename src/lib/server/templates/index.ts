@@ -1,7 +1,7 @@
 import { db, type Db } from '$lib/server/db';
 import { logActivity } from '$lib/server/activity';
 import type { Member } from '$lib/server/guard';
-import type { ElementKind } from '$lib/dwellings/kinds';
+import { type ElementKind } from '$lib/dwellings/kinds';
 import { templateInputSchema, templatePatchSchema, type TemplateInput } from '$lib/templates/schema';
 import { type StoredBuildUp as BuildUp } from '$lib/dwellings/element-input';
 import { ConflictError, ForbiddenError, pgCode, PG_UNIQUE_VIOLATION } from '$lib/server/errors';
