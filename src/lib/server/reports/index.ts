@@ -113,189 +113,242 @@ export async function buildSnapshot(
 ): Promise<{ snapshot: ReportSnapshot; problems: string[] }> {
 	const d = await getDwellingRow(organisationId, dwellingId, trx);
 	const org = await trx('organisations').where({ id: organisationId }).first('id', 'name');
-	const assessor = d.assessor_id
-		? await trx('users as u')
-				.join('memberships as m', 'm.user_id', 'u.id')
-				.where({ 'u.id': d.assessor_id, 'm.organisation_id': organisationId })
-				.first('u.id', 'u.name', 'u.email', 'u.registration_number')
-		: null;
-
-	const elQuery = trx('elements')
-		.where({ organisation_id: organisationId, dwelling_id: dwellingId })
-		.orderBy([{ column: 'position' }, { column: 'created_at' }, { column: 'id' }]);
-	if (elementId) elQuery.andWhere({ id: elementId });
-	const elements = await elQuery.select('*');
-	if (elementId && elements.length === 0) throw new NotFoundError('No such element in this dwelling.');
+	const assessor = await readAssessor(trx, organisationId, d.assessor_id);
+	const elements = await readElementRows(trx, organisationId, dwellingId, elementId);
 
 	const problems: string[] = [];
 	if (elements.length === 0)
 		problems.push('The dwelling has no elements yet: add at least one before issuing.');
 
-	// Limit table: the dwelling's, else the organisation's default.
 	const lt = await getApplicableLimitTable(organisationId, d.limit_table_id, trx);
 	const limitTable: SnapshotLimitTable | null = lt
 		? { id: lt.id, name: lt.name, edition: lt.edition, dated: lt.dated, source: lt.source, limits: lt.limits }
 		: null;
-
-	const climateIds = [
-		...new Set(elements.map((e) => e.climate_id ?? d.climate_id).filter(Boolean))
-	] as string[];
-	const climates = new Map<string, SnapshotClimate>();
-	if (climateIds.length) {
-		const rows = await trx('climates')
-			.where({ organisation_id: organisationId })
-			.whereIn('id', climateIds)
-			.select('*');
-		for (const c of rows) {
-			climates.set(c.id, {
-				id: c.id,
-				name: c.name,
-				source: c.source,
-				illustrative: Boolean(c.illustrative),
-				months: [...(c.months as SnapshotClimate['months'])].sort((a, b) => a.month - b.month)
-			});
-		}
-	}
-
-	const revisionIds = new Set<string>();
-	for (const e of elements) {
-		for (const l of (e.build_up as StoredBuildUp | null)?.layers ?? []) {
-			if (l.materialRevisionId) revisionIds.add(l.materialRevisionId);
-		}
-	}
-	const revisions = new Map<string, Record<string, unknown>>();
-	if (revisionIds.size) {
-		const rows = await trx('material_revisions as r')
-			.join('materials as m', 'm.id', 'r.material_id')
-			.where('r.organisation_id', organisationId)
-			.whereIn('r.id', [...revisionIds])
-			.select(
-				'r.id',
-				'r.material_id',
-				'r.revision',
-				'r.name',
-				'r.manufacturer',
-				'r.lambda_kind',
-				'r.source',
-				'm.code'
-			);
-		for (const r of rows) revisions.set(r.id, r);
-	}
-
-	const snapElements: SnapshotElement[] = elements.map((e) => {
-		const kind = e.kind as ElementKind;
-		const label = `Element "${e.name}"`;
-		const buildUp = (e.build_up as StoredBuildUp | null) ?? null;
-		const internal = (e.internal as StoredInternal | null) ?? null;
-		const climateId = e.climate_id ?? d.climate_id;
-		const climate = climateId ? (climates.get(climateId) ?? null) : null;
-		const limit = limitTable?.limits?.[kind];
-		const limitValue = typeof limit === 'number' ? limit : null;
-		const materialRevisions: SnapshotMaterialRevision[] = [];
-		(buildUp?.layers ?? []).forEach((l, i) => {
-			if (!l.materialRevisionId) return;
-			const r = revisions.get(l.materialRevisionId);
-			if (!r) {
-				problems.push(
-					`${label}, layer ${i + 1}: its library revision is not in this organisation's library.`
-				);
-				return;
-			}
-			materialRevisions.push({
-				layerIndex: i,
-				materialId: String(r.material_id),
-				revisionId: String(r.id),
-				revision: Number(r.revision),
-				code: (r.code as string) ?? null,
-				name: (r.name as string) ?? null,
-				manufacturer: (r.manufacturer as string) ?? null,
-				lambdaKind: (r.lambda_kind as string) ?? null,
-				source: (r.source as string) ?? null
-			});
-		});
-		const base = {
-			id: e.id as string,
-			name: e.name as string,
-			kind,
-			area: Number(e.area),
-			heatFlow: e.heat_flow,
-			givenU: e.given_u ?? null,
-			givenUSource: e.given_u_source ?? null,
-			buildUp,
-			internal,
-			climate,
-			materialRevisions
-		};
-		const usesGiven = GIVEN_U_KINDS.includes(kind) || (!buildUp?.layers?.length && e.given_u != null);
-		if (usesGiven) {
-			if (e.given_u == null || !Number.isFinite(Number(e.given_u)) || Number(e.given_u) <= 0) {
-				problems.push(`${label} (${ELEMENT_KIND_LABELS[kind] ?? kind}): no given U-value is recorded.`);
-			}
-			const u = e.given_u == null ? null : Number(e.given_u);
-			return {
-				...base,
-				input: null,
-				result: null,
-				u,
-				limit: limitValue,
-				pass: meetsLimit(u, limitValue)
-			};
-		}
-		if (!buildUp?.layers?.length) {
-			problems.push(`${label}: no build-up is recorded.`);
-			return { ...base, input: null, result: null, u: null, limit: limitValue, pass: null };
-		}
-		let input: ElementInput | null = null;
-		let result: ElementResult | null = null;
-		const raw = toElementInput({ heatFlow: e.heat_flow, buildUp, internal }, climate?.months ?? null);
-		const parsed = parseElementInput(raw);
-		if (!parsed.ok) {
-			for (const issue of parsed.issues) problems.push(`${label}: ${issue.path}: ${issue.message}.`);
-		} else {
-			input = parsed.data;
-			try {
-				result = analyseElement(input);
-			} catch (err) {
-				problems.push(`${label}: ${err instanceof Error ? err.message : String(err)}`);
-			}
-		}
-		const u = result ? result.uValueRounded : null;
-		return {
-			...base,
-			input,
-			result,
-			u,
-			limit: limitValue,
-			pass: meetsLimit(u, limitValue)
-		};
-	});
-
+	const context: ElementContext = {
+		dwellingClimateId: d.climate_id,
+		limitTable,
+		climates: await readClimates(trx, organisationId, elements, d.climate_id),
+		revisions: await readLayerRevisions(trx, organisationId, elements)
+	};
 	const snapshot: ReportSnapshot = {
-		dwelling: {
-			id: d.id,
-			reference: d.reference,
-			address: d.address ?? '',
-			programme: d.programme ?? null,
-			stage: d.stage,
-			clientName: d.client_name ?? null,
-			clientEmail: d.client_email ?? null,
-			assessor: assessor
-				? {
-						id: assessor.id,
-						name: assessor.name ?? assessor.email,
-						email: assessor.email,
-						registrationNumber: assessor.registration_number ?? null
-					}
-				: null
-		},
+		dwelling: snapshotDwelling(d, assessor),
 		organisation: { id: organisationId, name: org?.name ?? '' },
 		limitTable,
-		elements: snapElements,
+		elements: elements.map((e) => snapshotElement(e, context, problems)),
 		engineVersion: ENGINE_VERSION,
 		issuedAt,
 		document
 	};
 	return { snapshot, problems };
+}
+
+type Row = Record<string, any>; // rows as Knex returns them; converted below
+
+/** The dwelling's assessor, if they are (still) a member of the organisation. */
+async function readAssessor(trx: Db, organisationId: string, assessorId: string | null) {
+	if (!assessorId) return null;
+	return (
+		(await trx('users as u')
+			.join('memberships as m', 'm.user_id', 'u.id')
+			.where({ 'u.id': assessorId, 'm.organisation_id': organisationId })
+			.first('u.id', 'u.name', 'u.email', 'u.registration_number')) ?? null
+	);
+}
+
+/** The dwelling's elements in their order, or the one element (404 when it is not the dwelling's). */
+async function readElementRows(
+	trx: Db,
+	organisationId: string,
+	dwellingId: string,
+	elementId: string | null
+) {
+	const q = trx('elements')
+		.where({ organisation_id: organisationId, dwelling_id: dwellingId })
+		.orderBy([{ column: 'position' }, { column: 'created_at' }, { column: 'id' }]);
+	if (elementId) q.andWhere({ id: elementId });
+	const rows: Row[] = await q.select('*');
+	if (elementId && rows.length === 0) throw new NotFoundError('No such element in this dwelling.');
+	return rows;
+}
+
+/** The climates the elements use (their own, else the dwelling's), months in calendar order. */
+async function readClimates(
+	trx: Db,
+	organisationId: string,
+	elements: Row[],
+	dwellingClimateId: string | null
+) {
+	const ids = [
+		...new Set(elements.map((e) => e.climate_id ?? dwellingClimateId).filter(Boolean))
+	] as string[];
+	const climates = new Map<string, SnapshotClimate>();
+	if (!ids.length) return climates;
+	const rows = await trx('climates')
+		.where({ organisation_id: organisationId })
+		.whereIn('id', ids)
+		.select('*');
+	for (const c of rows) {
+		climates.set(c.id, {
+			id: c.id,
+			name: c.name,
+			source: c.source,
+			illustrative: Boolean(c.illustrative),
+			months: [...(c.months as SnapshotClimate['months'])].sort((a, b) => a.month - b.month)
+		});
+	}
+	return climates;
+}
+
+/** The library revisions the layers point at, by revision id. */
+async function readLayerRevisions(trx: Db, organisationId: string, elements: Row[]) {
+	const ids = new Set<string>();
+	for (const e of elements) {
+		for (const l of (e.build_up as StoredBuildUp | null)?.layers ?? []) {
+			if (l.materialRevisionId) ids.add(l.materialRevisionId);
+		}
+	}
+	const revisions = new Map<string, Row>();
+	if (!ids.size) return revisions;
+	const rows = await trx('material_revisions as r')
+		.join('materials as m', 'm.id', 'r.material_id')
+		.where('r.organisation_id', organisationId)
+		.whereIn('r.id', [...ids])
+		.select(
+			'r.id',
+			'r.material_id',
+			'r.revision',
+			'r.name',
+			'r.manufacturer',
+			'r.lambda_kind',
+			'r.source',
+			'm.code'
+		);
+	for (const r of rows) revisions.set(r.id, r);
+	return revisions;
+}
+
+function snapshotDwelling(d: DwellingRow, assessor: Row | null): ReportSnapshot['dwelling'] {
+	return {
+		id: d.id,
+		reference: d.reference,
+		address: d.address ?? '',
+		programme: d.programme ?? null,
+		stage: d.stage,
+		clientName: d.client_name ?? null,
+		clientEmail: d.client_email ?? null,
+		assessor: assessor
+			? {
+					id: assessor.id,
+					name: assessor.name ?? assessor.email,
+					email: assessor.email,
+					registrationNumber: assessor.registration_number ?? null
+				}
+			: null
+	};
+}
+
+type ElementContext = {
+	dwellingClimateId: string | null;
+	limitTable: SnapshotLimitTable | null;
+	climates: Map<string, SnapshotClimate>;
+	revisions: Map<string, Row>;
+};
+
+/** The library revision behind each layer, as printed; a revision outside the organisation is a problem. */
+function layerRevisions(
+	buildUp: StoredBuildUp | null,
+	revisions: Map<string, Row>,
+	label: string,
+	problems: string[]
+) {
+	const out: SnapshotMaterialRevision[] = [];
+	(buildUp?.layers ?? []).forEach((l, i) => {
+		if (!l.materialRevisionId) return;
+		const r = revisions.get(l.materialRevisionId);
+		if (!r) {
+			problems.push(`${label}, layer ${i + 1}: its library revision is not in this organisation's library.`);
+			return;
+		}
+		out.push({
+			layerIndex: i,
+			materialId: String(r.material_id),
+			revisionId: String(r.id),
+			revision: Number(r.revision),
+			code: (r.code as string) ?? null,
+			name: (r.name as string) ?? null,
+			manufacturer: (r.manufacturer as string) ?? null,
+			lambdaKind: (r.lambda_kind as string) ?? null,
+			source: (r.source as string) ?? null
+		});
+	});
+	return out;
+}
+
+/**
+ * One element as the report prints it: a given U (windows, doors) or its build-up recomputed with
+ * today's engine, judged against the limit for its kind. What stops it being reported goes to `problems`.
+ */
+function snapshotElement(e: Row, ctx: ElementContext, problems: string[]): SnapshotElement {
+	const kind = e.kind as ElementKind;
+	const label = `Element "${e.name}"`;
+	const buildUp = (e.build_up as StoredBuildUp | null) ?? null;
+	const internal = (e.internal as StoredInternal | null) ?? null;
+	const climateId = e.climate_id ?? ctx.dwellingClimateId;
+	const climate = climateId ? (ctx.climates.get(climateId) ?? null) : null;
+	const limit = ctx.limitTable?.limits?.[kind];
+	const limitValue = typeof limit === 'number' ? limit : null;
+	const base = {
+		id: e.id as string,
+		name: e.name as string,
+		kind,
+		area: Number(e.area),
+		heatFlow: e.heat_flow,
+		givenU: e.given_u ?? null,
+		givenUSource: e.given_u_source ?? null,
+		buildUp,
+		internal,
+		climate,
+		materialRevisions: layerRevisions(buildUp, ctx.revisions, label, problems)
+	};
+	const usesGiven = GIVEN_U_KINDS.includes(kind) || (!buildUp?.layers?.length && e.given_u != null);
+	if (usesGiven) {
+		if (e.given_u == null || !Number.isFinite(Number(e.given_u)) || Number(e.given_u) <= 0) {
+			problems.push(`${label} (${ELEMENT_KIND_LABELS[kind] ?? kind}): no given U-value is recorded.`);
+		}
+		const u = e.given_u == null ? null : Number(e.given_u);
+		return { ...base, input: null, result: null, u, limit: limitValue, pass: meetsLimit(u, limitValue) };
+	}
+	if (!buildUp?.layers?.length) {
+		problems.push(`${label}: no build-up is recorded.`);
+		return { ...base, input: null, result: null, u: null, limit: limitValue, pass: null };
+	}
+	const { input, result } = recompute(e, buildUp, internal, climate, label, problems);
+	const u = result ? result.uValueRounded : null;
+	return { ...base, input, result, u, limit: limitValue, pass: meetsLimit(u, limitValue) };
+}
+
+/** The element's engine input and result from its stored build-up; failures go to `problems`. */
+function recompute(
+	e: Row,
+	buildUp: StoredBuildUp,
+	internal: StoredInternal | null,
+	climate: SnapshotClimate | null,
+	label: string,
+	problems: string[]
+): { input: ElementInput | null; result: ElementResult | null } {
+	const parsed = parseElementInput(
+		toElementInput({ heatFlow: e.heat_flow, buildUp, internal }, climate?.months ?? null)
+	);
+	if (!parsed.ok) {
+		for (const issue of parsed.issues) problems.push(`${label}: ${issue.path}: ${issue.message}.`);
+		return { input: null, result: null };
+	}
+	try {
+		return { input: parsed.data, result: analyseElement(parsed.data) };
+	} catch (err) {
+		problems.push(`${label}: ${err instanceof Error ? err.message : String(err)}`);
+		return { input: parsed.data, result: null };
+	}
 }
 
 /** Render the PDF of a snapshot (a draft or an issued one). */
