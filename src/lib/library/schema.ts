@@ -69,6 +69,12 @@ const isoDate = z
 
 const optionalNumber = (schema: z.ZodNumber) => schema.nullable().optional();
 
+/** A vapour resistance factor μ (dry or wet cup); still air is 1 (ISO 10456:2007 §3). */
+const vapourResistanceFactor = () =>
+	optionalNumber(
+		number().gte(1, 'must be at least 1 (still air has μ = 1)').lte(1e7, 'must be at most 10 000 000')
+	);
+
 /**
  * The values of one revision of a material. Limits here are physical (λ > 0, μ ≥ 1, …); what is merely
  * unusual for a category is a warning from `plausibilityWarnings`, which a person must confirm.
@@ -100,14 +106,10 @@ export const materialValuesObject = z.object({
 	resistance: optionalNumber(
 		number().gte(0, 'must be 0 or more m²·K/W').lte(100, 'must be at most 100 m²·K/W')
 	),
-	/** vapour resistance factor, dry cup; still air is 1 (ISO 10456:2007 §3) */
-	muDry: optionalNumber(
-		number().gte(1, 'must be at least 1 (still air has μ = 1)').lte(1e7, 'must be at most 10 000 000')
-	),
+	/** vapour resistance factor, dry cup */
+	muDry: vapourResistanceFactor(),
 	/** vapour resistance factor, wet cup */
-	muWet: optionalNumber(
-		number().gte(1, 'must be at least 1 (still air has μ = 1)').lte(1e7, 'must be at most 10 000 000')
-	),
+	muWet: vapourResistanceFactor(),
 	/** m, a fixed vapour diffusion-equivalent air layer thickness instead of μ */
 	sd: optionalNumber(number().gte(0, 'must be 0 or more m').lte(100000, 'must be at most 100 000 m')),
 	/** kg/m³ */
@@ -191,6 +193,9 @@ export const PHYSICAL_FIELDS = [
 	'density',
 	'specificHeat'
 ] as const;
+
+/** Fields that hold a number (the form and the CSV import read them as numbers, with a point or a comma). */
+export const NUMBER_FIELDS = [...PHYSICAL_FIELDS, 'thicknessMinMm', 'thicknessMaxMm'] as const;
 
 /**
  * The snake_case name of every field: the database column of a revision, and the CSV column the

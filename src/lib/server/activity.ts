@@ -22,6 +22,34 @@ export async function logActivity(
 	});
 }
 
+/** Who acts: the signed-in member (anything with their organisation and user id). */
+export type ActingMember = { organisationId: string; user: { id: string } };
+
+/**
+ * The log of one kind of record: `log(member, action, entityId, details, trx)` appends what a member
+ * did to a record of their organisation.
+ */
+export function activityLog(entity: string) {
+	return (
+		member: ActingMember,
+		action: string,
+		entityId: string,
+		details: Record<string, unknown>,
+		trx: Db = db
+	): Promise<void> =>
+		logActivity(
+			{
+				organisationId: member.organisationId,
+				userId: member.user.id,
+				action,
+				entity,
+				entityId,
+				details
+			},
+			trx
+		);
+}
+
 export async function listActivity(
 	organisationId: string,
 	filter: { entity?: string; entityId?: string; limit?: number } = {}

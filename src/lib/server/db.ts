@@ -27,3 +27,6 @@ export const authPool = new pg.Pool({ connectionString: connectionString(), max:
 
 /** Knex or a transaction; functions that write accept either so callers can compose them. */
 export type Db = Knex | Knex.Transaction;
+
+/** An ILIKE pattern that finds `text` anywhere, its own %, _ and backslash matched as themselves. */
+export const containsPattern = (text: string) => `%${text.replace(/[\\%_]/g, (c) => '\\' + c)}%`;

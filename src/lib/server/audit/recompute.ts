@@ -306,6 +306,18 @@ function auditRows(rows: DwellingRows, c: Context): Map<string, DwellingAudit> {
 
 const STALE_AFTER_MS = 2 * 60_000;
 
+/** Members of a batch's progress to set (null clears one). */
+type ProgressPatch = { [K in keyof BatchProgress]?: BatchProgress[K] | null };
+
+/** The batch's progress with `patch` merged in (jsonb `||`), for an update of audit_batches. */
+const progressWith = (k: Db, patch: ProgressPatch) => k.raw(`progress || ?::jsonb`, [JSON.stringify(patch)]);
+
+/** Merge `patch` into the progress of the batch; `touch` moves its updated_at too. */
+const writeProgress = (k: Db, organisationId: string, batchId: string, patch: ProgressPatch, touch = false) =>
+	k('audit_batches')
+		.where({ id: batchId, organisation_id: organisationId })
+		.update({ progress: progressWith(k, patch), ...(touch ? { updated_at: k.fn.now() } : {}) });
+
 /**
  * Recompute every dwelling of a batch's population in chunks, writing each item's flags and figures and
  * the batch's progress after every chunk (the page follows it). With `includeFlagged`, dwellings outside
@@ -328,9 +340,7 @@ export async function recomputeBatchWith(
 				])
 		)
 		.update({
-			progress: db.raw(`progress || ?::jsonb`, [
-				JSON.stringify({ state: 'running', startedAt: now, heartbeat: now, done: 0, error: null })
-			]),
+			progress: progressWith(db, { state: 'running', startedAt: now, heartbeat: now, done: 0, error: null }),
 			updated_at: db.fn.now()
 		})
 		.returning(['filter', 'sampling']);
@@ -420,37 +430,23 @@ export async function recomputeBatchWith(
 					);
 				}
 				const done = Math.min(total, i + ids.length);
-				await trx('audit_batches')
-					.where({ id: batchId, organisation_id: organisationId })
-					.update({
-						progress: trx.raw(`progress || ?::jsonb`, [
-							JSON.stringify({
-								state: 'running',
-								done,
-								total,
-								flagged,
-								added,
-								heartbeat: new Date().toISOString()
-							})
-						])
-					});
+				await writeProgress(trx, organisationId, batchId, {
+					state: 'running',
+					done,
+					total,
+					flagged,
+					added,
+					heartbeat: new Date().toISOString()
+				});
 			});
 		}
-		await db('audit_batches')
-			.where({ id: batchId, organisation_id: organisationId })
-			.update({
-				progress: db.raw(`progress || ?::jsonb`, [
-					JSON.stringify({
-						state: 'done',
-						done: total,
-						total,
-						flagged,
-						added,
-						finishedAt: new Date().toISOString()
-					})
-				]),
-				updated_at: db.fn.now()
-			});
+		await writeProgress(
+			db,
+			organisationId,
+			batchId,
+			{ state: 'done', done: total, total, flagged, added, finishedAt: new Date().toISOString() },
+			true
+		);
 		await logRow(db, {
 			organisationId,
 			userId: opts.userId ?? null,
@@ -461,17 +457,11 @@ export async function recomputeBatchWith(
 		});
 		return true;
 	} catch (e) {
-		await db('audit_batches')
-			.where({ id: batchId, organisation_id: organisationId })
-			.update({
-				progress: db.raw(`progress || ?::jsonb`, [
-					JSON.stringify({
-						state: 'failed',
-						error: e instanceof Error ? e.message : String(e),
-						finishedAt: new Date().toISOString()
-					})
-				])
-			});
+		await writeProgress(db, organisationId, batchId, {
+			state: 'failed',
+			error: e instanceof Error ? e.message : String(e),
+			finishedAt: new Date().toISOString()
+		});
 		throw e;
 	}
 }
@@ -482,7 +472,7 @@ export async function markQueuedWith(db: Knex, organisationId: string, batchId: 
 		.where({ organisation_id: organisationId, id: batchId })
 		.whereRaw(`coalesce(progress->>'state', '') <> 'running'`)
 		.update({
-			progress: db.raw(`progress || ?::jsonb`, [JSON.stringify({ state: 'queued', done: 0 })]),
+			progress: progressWith(db, { state: 'queued', done: 0 }),
 			updated_at: db.fn.now()
 		});
 	return n > 0;

@@ -1,8 +1,8 @@
 import { db, type Db } from '$lib/server/db';
-import { logActivity } from '$lib/server/activity';
+import { activityLog } from '$lib/server/activity';
 import type { Member } from '$lib/server/guard';
 import { climateInputSchema, type ClimateInput } from '$lib/climates/schema';
-import { ConflictError, pgCode, PG_FOREIGN_KEY_VIOLATION, PG_UNIQUE_VIOLATION } from '$lib/server/errors';
+import { ConflictError, pgCode, PG_FOREIGN_KEY_VIOLATION, uniqueViolationAs } from '$lib/server/errors';
 
 /** An organisation's climates: twelve months of external conditions with their source. */
 
@@ -33,12 +33,21 @@ export async function getClimate(organisationId: string, id: string, trx: Db = d
 /** The climate's name, source and months (the brief the dwelling and element pages show). */
 export async function getClimateBrief(organisationId: string, climateId: string, trx: Db = db) {
 	const climate = await getClimate(organisationId, climateId, trx);
-	if (!climate) return null;
-	const { id, name, source, illustrative, months } = climate;
-	return { id, name, source, illustrative: Boolean(illustrative), months };
+	return climate ? toClimateBrief(climate) : null;
 }
 
-export type ClimateBrief = NonNullable<Awaited<ReturnType<typeof getClimateBrief>>>;
+/** The brief of a climate, or of its row (the same names; also as read inside a JSON aggregate). */
+export function toClimateBrief(c: Record<string, unknown>) {
+	return {
+		id: c.id as string,
+		name: c.name as string,
+		source: c.source as string,
+		illustrative: Boolean(c.illustrative),
+		months: c.months as ClimateMonth[]
+	};
+}
+
+export type ClimateBrief = ReturnType<typeof toClimateBrief>;
 
 /** How many dwellings and elements name the climate. */
 export async function getClimateUsage(organisationId: string, id: string, trx: Db = db) {
@@ -64,17 +73,7 @@ export async function createClimate(member: Member, input: ClimateInput, trx?: D
 					months: JSON.stringify(data.months)
 				})
 				.returning('*');
-			await logActivity(
-				{
-					organisationId: member.organisationId,
-					userId: member.user.id,
-					action: 'create',
-					entity: 'climate',
-					entityId: row.id,
-					details: { name: data.name }
-				},
-				t
-			);
+			await log(member, 'create', row.id, { name: data.name }, t);
 			return toClimate(row);
 		} catch (e) {
 			throw nameTaken(e, data.name);
@@ -102,17 +101,7 @@ export async function updateClimate(
 				})
 				.returning('*');
 			if (!row) return null;
-			await logActivity(
-				{
-					organisationId: member.organisationId,
-					userId: member.user.id,
-					action: 'update',
-					entity: 'climate',
-					entityId: id,
-					details: { name: data.name }
-				},
-				t
-			);
+			await log(member, 'update', id, { name: data.name }, t);
 			return toClimate(row);
 		} catch (e) {
 			throw nameTaken(e, data.name);
@@ -133,17 +122,7 @@ export async function deleteClimate(member: Member, id: string): Promise<boolean
 			if (pgCode(e) === PG_FOREIGN_KEY_VIOLATION) throw inUse(row.name, usage);
 			throw e;
 		}
-		await logActivity(
-			{
-				organisationId: member.organisationId,
-				userId: member.user.id,
-				action: 'delete',
-				entity: 'climate',
-				entityId: id,
-				details: { name: row.name }
-			},
-			t
-		);
+		await log(member, 'delete', id, { name: row.name }, t);
 		return true;
 	});
 }
@@ -157,12 +136,10 @@ function inUse(name: string, usage: { dwellings: number; elements: number }) {
 	);
 }
 
-function nameTaken(e: unknown, name: string) {
-	if (pgCode(e) === PG_UNIQUE_VIOLATION) {
-		return new ConflictError(`A climate named "${name}" already exists; choose another name.`);
-	}
-	return e;
-}
+const log = activityLog('climate');
+
+const nameTaken = (e: unknown, name: string) =>
+	uniqueViolationAs(e, new ConflictError(`A climate named "${name}" already exists; choose another name.`));
 
 function toClimate(r: Record<string, any>): Climate {
 	return {

@@ -1,6 +1,6 @@
 import { z } from 'zod';
 import { db, type Db } from '$lib/server/db';
-import { logActivity } from '$lib/server/activity';
+import { activityLog } from '$lib/server/activity';
 import type { Member } from '$lib/server/guard';
 import {
 	analyseElement,
@@ -21,8 +21,8 @@ import {
 import {
 	ConflictError,
 	NotFoundError,
-	STALE_MESSAGE,
 	ValidationError,
+	assertVersion,
 	type FieldIssue
 } from '$lib/server/errors';
 import type { ElementBrief } from '$lib/dwellings/summary';
@@ -234,6 +234,23 @@ function assertWritable(status: string) {
 		throw new ConflictError('This dwelling is archived; restore it before changing its elements.');
 }
 
+/**
+ * Lock an element for a change, in the order every writer takes the locks: its dwelling (which must not
+ * be archived), then the element, whose version must be the one the caller loaded.
+ */
+async function lockElement(t: Db, organisationId: string, id: string, version: number) {
+	const existing = await t('elements').where({ organisation_id: organisationId, id }).first('dwelling_id');
+	if (!existing) throw new NotFoundError('No such element.');
+	const dwelling = await lockDwelling(t, organisationId, existing.dwelling_id);
+	assertWritable(dwelling.status);
+	const current = await t('elements').where({ organisation_id: organisationId, id }).forUpdate().first();
+	assertVersion(current.version, version);
+	return { dwellingId: existing.dwelling_id as string, current };
+}
+
+const elementLog = activityLog('element');
+const dwellingLog = activityLog('dwelling');
+
 /** Add an element to a dwelling; the server computes and stores its result. */
 export async function createElement(
 	member: Member,
@@ -260,19 +277,15 @@ export async function createElement(
 			})
 			.returning('*');
 		await touchDwelling(t, member.organisationId, dwellingId);
-		await logActivity(
+		await elementLog(
+			member,
+			'create',
+			row.id,
 			{
-				organisationId: member.organisationId,
-				userId: member.user.id,
-				action: 'create',
-				entity: 'element',
-				entityId: row.id,
-				details: {
-					dwellingId,
-					name: data.name,
-					kind: data.kind,
-					uValue: result?.uValue ?? data.givenU ?? null
-				}
+				dwellingId,
+				name: data.name,
+				kind: data.kind,
+				uValue: result?.uValue ?? data.givenU ?? null
 			},
 			t
 		);
@@ -289,19 +302,8 @@ export async function updateElement(member: Member, id: string, raw: unknown): P
 	const v = versionSchema.safeParse((raw as { version?: unknown } | null)?.version);
 	if (!v.success) throw new ValidationError([{ path: 'version', message: v.error.issues[0].message }]);
 	return db.transaction(async (t) => {
-		const existing = await t('elements')
-			.where({ organisation_id: member.organisationId, id })
-			.first('dwelling_id');
-		if (!existing) throw new NotFoundError('No such element.');
-		const dwelling = await lockDwelling(t, member.organisationId, existing.dwelling_id);
-		assertWritable(dwelling.status);
-		const current = await t('elements')
-			.where({ organisation_id: member.organisationId, id })
-			.forUpdate()
-			.first();
-		if (current.version !== v.data)
-			throw new ConflictError(STALE_MESSAGE, { currentVersion: current.version });
-		const d = await t('dwellings').where({ id: existing.dwelling_id }).first('climate_id', 'limit_table_id');
+		const { dwellingId, current } = await lockElement(t, member.organisationId, id, v.data);
+		const d = await t('dwellings').where({ id: dwellingId }).first('climate_id', 'limit_table_id');
 		const { data, result } = await calculateElement(member.organisationId, raw, d.climate_id, t);
 		const [row] = await t('elements')
 			.where({ organisation_id: member.organisationId, id })
@@ -312,20 +314,16 @@ export async function updateElement(member: Member, id: string, raw: unknown): P
 				updated_at: t.fn.now()
 			})
 			.returning('*');
-		await touchDwelling(t, member.organisationId, existing.dwelling_id);
-		await logActivity(
+		await touchDwelling(t, member.organisationId, dwellingId);
+		await elementLog(
+			member,
+			'update',
+			id,
 			{
-				organisationId: member.organisationId,
-				userId: member.user.id,
-				action: 'update',
-				entity: 'element',
-				entityId: id,
-				details: {
-					dwellingId: existing.dwelling_id,
-					version: current.version + 1,
-					uBefore: current.last_result?.uValue ?? current.given_u ?? null,
-					uAfter: result?.uValue ?? data.givenU ?? null
-				}
+				dwellingId,
+				version: current.version + 1,
+				uBefore: current.last_result?.uValue ?? current.given_u ?? null,
+				uAfter: result?.uValue ?? data.givenU ?? null
 			},
 			t
 		);
@@ -338,31 +336,10 @@ export async function updateElement(member: Member, id: string, raw: unknown): P
 
 export async function deleteElement(member: Member, id: string, version: number): Promise<void> {
 	await db.transaction(async (t) => {
-		const existing = await t('elements')
-			.where({ organisation_id: member.organisationId, id })
-			.first('dwelling_id');
-		if (!existing) throw new NotFoundError('No such element.');
-		const dwelling = await lockDwelling(t, member.organisationId, existing.dwelling_id);
-		assertWritable(dwelling.status);
-		const current = await t('elements')
-			.where({ organisation_id: member.organisationId, id })
-			.forUpdate()
-			.first();
-		if (current.version !== version)
-			throw new ConflictError(STALE_MESSAGE, { currentVersion: current.version });
+		const { dwellingId, current } = await lockElement(t, member.organisationId, id, version);
 		await t('elements').where({ organisation_id: member.organisationId, id }).delete();
-		await touchDwelling(t, member.organisationId, existing.dwelling_id);
-		await logActivity(
-			{
-				organisationId: member.organisationId,
-				userId: member.user.id,
-				action: 'delete',
-				entity: 'element',
-				entityId: id,
-				details: { dwellingId: existing.dwelling_id, name: current.name }
-			},
-			t
-		);
+		await touchDwelling(t, member.organisationId, dwellingId);
+		await elementLog(member, 'delete', id, { dwellingId, name: current.name }, t);
 	});
 }
 
@@ -393,8 +370,7 @@ export async function reorderElements(
 	return db.transaction(async (t) => {
 		const dwelling = await lockDwelling(t, member.organisationId, dwellingId);
 		assertWritable(dwelling.status);
-		if (dwelling.version !== version)
-			throw new ConflictError(STALE_MESSAGE, { currentVersion: dwelling.version });
+		assertVersion(dwelling.version, version);
 		const rows: { id: string; position: number }[] = await t('elements')
 			.where({ organisation_id: member.organisationId, dwelling_id: dwellingId })
 			.orderBy([{ column: 'position' }, { column: 'created_at' }])
@@ -430,17 +406,7 @@ export async function reorderElements(
 		await t('dwellings')
 			.where({ organisation_id: member.organisationId, id: dwellingId })
 			.update({ version: dwelling.version + 1, updated_at: t.fn.now() });
-		await logActivity(
-			{
-				organisationId: member.organisationId,
-				userId: member.user.id,
-				action: 'reorder',
-				entity: 'dwelling',
-				entityId: dwellingId,
-				details: { before, after: ids }
-			},
-			t
-		);
+		await dwellingLog(member, 'reorder', dwellingId, { before, after: ids }, t);
 		return { version: dwelling.version + 1, ids };
 	});
 }

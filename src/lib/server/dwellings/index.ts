@@ -1,6 +1,5 @@
-import { db, type Db } from '$lib/server/db';
-import { calendarDay } from '$lib/format';
-import { logActivity } from '$lib/server/activity';
+import { containsPattern, db, type Db } from '$lib/server/db';
+import { activityLog } from '$lib/server/activity';
 import type { Member } from '$lib/server/guard';
 import {
 	dwellingCopySchema,
@@ -12,20 +11,20 @@ import {
 import {
 	ConflictError,
 	NotFoundError,
-	PG_UNIQUE_VIOLATION,
-	STALE_MESSAGE,
 	ValidationError,
-	pgCode,
+	assertVersion,
+	uniqueViolationAs,
 	type FieldIssue
 } from '$lib/server/errors';
 import { fieldIssues } from '$lib/validation';
-import { type DwellingStatus, type ElementKind } from '$lib/dwellings/kinds';
+import { type DwellingStatus } from '$lib/dwellings/kinds';
 import { summariseElements, type ElementSummaryRow } from '$lib/dwellings/summary';
 import { listElementSummaries, toElementBrief } from './elements';
-import { getClimateBrief, type ClimateBrief } from '$lib/server/climates';
+import { getClimateBrief, toClimateBrief, type ClimateBrief } from '$lib/server/climates';
 import {
 	applicableLimitTableSql,
 	getApplicableLimitTable,
+	toLimitTableBrief,
 	type LimitTableBrief
 } from '$lib/server/limit-tables';
 import { lockDwelling } from './locks';
@@ -52,7 +51,7 @@ export async function listDwellings(organisationId: string, rawQuery: unknown): 
 		.leftJoin('users as u', 'u.id', 'd.assessor_id')
 		.where('d.organisation_id', organisationId);
 	if (q.q) {
-		const like = `%${q.q.replace(/[\\%_]/g, (c) => '\\' + c)}%`;
+		const like = containsPattern(q.q);
 		base.andWhere((w) =>
 			w
 				.whereILike('d.reference', like)
@@ -194,49 +193,35 @@ export async function getDwellingPage(
 	if (!r || !r.dwelling) return null;
 	const dwelling = toDwelling(r.dwelling as Record<string, unknown>);
 	const t = r.limit_table as Record<string, unknown> | null;
-	const limitTable: LimitTableBrief | null = t
-		? {
-				id: t.id as string,
-				name: t.name as string,
-				edition: t.edition as string,
-				dated: calendarDay(t.dated),
-				source: (t.source ?? null) as string | null,
-				isDefault: Boolean(t.is_default),
-				chosen: Boolean(dwelling.limitTableId),
-				limits: (t.limits ?? {}) as Partial<Record<ElementKind, number>>
-			}
-		: null;
+	const limitTable: LimitTableBrief | null = t ? toLimitTableBrief(t, Boolean(dwelling.limitTableId)) : null;
 	const c = r.climate as Record<string, unknown> | null;
-	const climate: ClimateBrief | null = c
-		? {
-				id: c.id as string,
-				name: c.name as string,
-				source: c.source as string,
-				illustrative: Boolean(c.illustrative),
-				months: c.months as ClimateBrief['months']
-			}
-		: null;
+	const climate: ClimateBrief | null = c ? toClimateBrief(c) : null;
 	const briefs = (r.elements as Record<string, unknown>[]).map(toElementBrief);
 	const { rows: elements, totals } = summariseElements(briefs, limitTable?.limits ?? null);
 	const options = {
-		climates: (r.climates as Record<string, unknown>[]).map((x) => ({
-			id: x.id as string,
-			name: x.name as string,
-			illustrative: Boolean(x.illustrative)
-		})),
-		limitTables: (r.limit_tables as Record<string, unknown>[]).map((x) => ({
-			id: x.id as string,
-			name: `${x.name} (${x.edition})`,
-			isDefault: Boolean(x.is_default)
-		})),
-		assessors: (r.assessors as Record<string, unknown>[]).map((x) => ({
-			id: x.id as string,
-			name: (x.name ?? x.email) as string,
-			email: x.email as string
-		}))
+		climates: (r.climates as Record<string, unknown>[]).map(climateOption),
+		limitTables: (r.limit_tables as Record<string, unknown>[]).map(limitTableOption),
+		assessors: (r.assessors as Record<string, unknown>[]).map(assessorOption)
 	};
 	return { dwelling, elements, totals, limitTable, climate, options };
 }
+
+/* The choices of the dwelling form, from their rows (also as read inside a JSON aggregate). */
+const climateOption = (x: Record<string, unknown>) => ({
+	id: x.id as string,
+	name: x.name as string,
+	illustrative: Boolean(x.illustrative)
+});
+const limitTableOption = (x: Record<string, unknown>) => ({
+	id: x.id as string,
+	name: `${x.name} (${x.edition})`,
+	isDefault: Boolean(x.is_default)
+});
+const assessorOption = (x: Record<string, unknown>) => ({
+	id: x.id as string,
+	name: (x.name ?? x.email) as string,
+	email: x.email as string
+});
 
 /** Members of the organisation who can be named as the dwelling's assessor. */
 export async function listAssessors(organisationId: string) {
@@ -246,11 +231,7 @@ export async function listAssessors(organisationId: string) {
 		.whereIn('m.role', ['assessor', 'admin'])
 		.orderBy('u.name')
 		.select('u.id', 'u.name', 'u.email', 'm.role');
-	return rows.map((r) => ({
-		id: r.id as string,
-		name: (r.name ?? r.email) as string,
-		email: r.email as string
-	}));
+	return rows.map(assessorOption);
 }
 
 /** Options for the dwelling form: climates and limit tables of the organisation. */
@@ -267,16 +248,8 @@ export async function listDwellingOptions(organisationId: string) {
 		listAssessors(organisationId)
 	]);
 	return {
-		climates: climates.map((c) => ({
-			id: c.id as string,
-			name: c.name as string,
-			illustrative: Boolean(c.illustrative)
-		})),
-		limitTables: limitTables.map((t) => ({
-			id: t.id as string,
-			name: `${t.name} (${t.edition})`,
-			isDefault: Boolean(t.is_default)
-		})),
+		climates: climates.map(climateOption),
+		limitTables: limitTables.map(limitTableOption),
 		assessors
 	};
 }
@@ -310,8 +283,16 @@ async function checkReferences(
 	if (issues.length) throw new ValidationError(issues);
 }
 
-const referenceTaken = (reference: string) =>
-	new ValidationError([{ path: 'reference', message: `“${reference}” is already used by another dwelling` }]);
+const log = activityLog('dwelling');
+
+/** A unique violation of the reference as its refusal; any other error as it is. */
+const referenceTaken = (e: unknown, reference: string) =>
+	uniqueViolationAs(
+		e,
+		new ValidationError([
+			{ path: 'reference', message: `“${reference}” is already used by another dwelling` }
+		])
+	);
 
 export async function createDwelling(member: Member, raw: unknown, trx?: Db): Promise<Dwelling> {
 	const parsed = dwellingFieldsSchema.safeParse(raw);
@@ -334,21 +315,10 @@ export async function createDwelling(member: Member, raw: unknown, trx?: Db): Pr
 					climate_id: data.climateId
 				})
 				.returning('id');
-			await logActivity(
-				{
-					organisationId: member.organisationId,
-					userId: member.user.id,
-					action: 'create',
-					entity: 'dwelling',
-					entityId: row.id,
-					details: { reference: data.reference }
-				},
-				t
-			);
+			await log(member, 'create', row.id, { reference: data.reference }, t);
 			return (await getDwelling(member.organisationId, row.id, t)) as Dwelling;
 		} catch (e) {
-			if (pgCode(e) === PG_UNIQUE_VIOLATION) throw referenceTaken(data.reference);
-			throw e;
+			throw referenceTaken(e, data.reference);
 		}
 	};
 	return trx ? write(trx) : db.transaction(write);
@@ -377,8 +347,7 @@ export async function updateDwelling(member: Member, id: string, raw: unknown): 
 		const current = await lockDwelling(t, member.organisationId, id);
 		if (current.status === 'archived')
 			throw new ConflictError('This dwelling is archived; restore it before changing it.');
-		if (current.version !== version)
-			throw new ConflictError(STALE_MESSAGE, { currentVersion: current.version });
+		assertVersion(current.version, version);
 		await checkReferences(member.organisationId, data, t);
 		const patch: Record<string, unknown> = { version: current.version + 1, updated_at: t.fn.now() };
 		const changed: string[] = [];
@@ -390,20 +359,9 @@ export async function updateDwelling(member: Member, id: string, raw: unknown): 
 		try {
 			await t('dwellings').where({ organisation_id: member.organisationId, id }).update(patch);
 		} catch (e) {
-			if (pgCode(e) === PG_UNIQUE_VIOLATION) throw referenceTaken(String(data.reference));
-			throw e;
+			throw referenceTaken(e, String(data.reference));
 		}
-		await logActivity(
-			{
-				organisationId: member.organisationId,
-				userId: member.user.id,
-				action: 'update',
-				entity: 'dwelling',
-				entityId: id,
-				details: { changed }
-			},
-			t
-		);
+		await log(member, 'update', id, { changed }, t);
 		return (await getDwelling(member.organisationId, id, t)) as Dwelling;
 	});
 }
@@ -417,8 +375,7 @@ export async function setDwellingArchived(
 ): Promise<Dwelling> {
 	return db.transaction(async (t) => {
 		const current = await lockDwelling(t, member.organisationId, id);
-		if (current.version !== version)
-			throw new ConflictError(STALE_MESSAGE, { currentVersion: current.version });
+		assertVersion(current.version, version);
 		if (archived === (current.status === 'archived'))
 			throw new ConflictError(archived ? 'Already archived.' : 'Not archived.');
 		await t('dwellings')
@@ -428,17 +385,7 @@ export async function setDwellingArchived(
 				version: current.version + 1,
 				updated_at: t.fn.now()
 			});
-		await logActivity(
-			{
-				organisationId: member.organisationId,
-				userId: member.user.id,
-				action: archived ? 'archive' : 'restore',
-				entity: 'dwelling',
-				entityId: id,
-				details: { reference: current.reference }
-			},
-			t
-		);
+		await log(member, archived ? 'archive' : 'restore', id, { reference: current.reference }, t);
 		return (await getDwelling(member.organisationId, id, t)) as Dwelling;
 	});
 }
@@ -447,8 +394,7 @@ export async function setDwellingArchived(
 export async function deleteDwelling(member: Member, id: string, version: number): Promise<void> {
 	await db.transaction(async (t) => {
 		const current = await lockDwelling(t, member.organisationId, id);
-		if (current.version !== version)
-			throw new ConflictError(STALE_MESSAGE, { currentVersion: current.version });
+		assertVersion(current.version, version);
 		const [{ n: reports }] = await t('reports')
 			.where({ organisation_id: member.organisationId, dwelling_id: id })
 			.count({ n: '*' });
@@ -464,17 +410,7 @@ export async function deleteDwelling(member: Member, id: string, version: number
 			.where({ organisation_id: member.organisationId, dwelling_id: id })
 			.update({ dwelling_id: null });
 		await t('dwellings').where({ organisation_id: member.organisationId, id }).delete();
-		await logActivity(
-			{
-				organisationId: member.organisationId,
-				userId: member.user.id,
-				action: 'delete',
-				entity: 'dwelling',
-				entityId: id,
-				details: { reference: current.reference }
-			},
-			t
-		);
+		await log(member, 'delete', id, { reference: current.reference }, t);
 	});
 }
 
@@ -503,8 +439,7 @@ export async function copyDwelling(member: Member, id: string, raw: unknown): Pr
 				.returning('id');
 			newId = row.id;
 		} catch (e) {
-			if (pgCode(e) === PG_UNIQUE_VIOLATION) throw referenceTaken(parsed.data.reference);
-			throw e;
+			throw referenceTaken(e, parsed.data.reference);
 		}
 		const elements = await t('elements')
 			.where({ organisation_id: member.organisationId, dwelling_id: id })
@@ -529,19 +464,15 @@ export async function copyDwelling(member: Member, id: string, raw: unknown): Pr
 				}))
 			);
 		}
-		await logActivity(
+		await log(
+			member,
+			'copy',
+			newId,
 			{
-				organisationId: member.organisationId,
-				userId: member.user.id,
-				action: 'copy',
-				entity: 'dwelling',
-				entityId: newId,
-				details: {
-					from: id,
-					fromReference: source.reference,
-					reference: parsed.data.reference,
-					elements: elements.length
-				}
+				from: id,
+				fromReference: source.reference,
+				reference: parsed.data.reference,
+				elements: elements.length
 			},
 			t
 		);

@@ -24,6 +24,7 @@ import {
 	LAMBDA_KIND_LABELS,
 	LAMBDA_KINDS,
 	materialValuesSchema,
+	NUMBER_FIELDS,
 	REVISION_FIELDS,
 	type FieldChange,
 	type MaterialValues
@@ -46,17 +47,7 @@ export type ImportField = (typeof IMPORT_FIELDS)[number];
 /** The column names the export writes and the import reads first. */
 export const CSV_COLUMNS: Record<ImportField, string> = FIELD_COLUMNS;
 
-const NUMERIC = new Set<ImportField>([
-	'lambda',
-	'resistance',
-	'muDry',
-	'muWet',
-	'sd',
-	'density',
-	'specificHeat',
-	'thicknessMinMm',
-	'thicknessMaxMm'
-]);
+const NUMERIC = new Set<ImportField>(NUMBER_FIELDS);
 const REQUIRED: ImportField[] = ['code', 'name', 'category'];
 
 /** A header as a key: lower case, units in brackets dropped, runs of other characters as one '_'. */

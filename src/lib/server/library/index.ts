@@ -10,7 +10,7 @@ import { Readable } from 'node:stream';
 import { pipeline } from 'node:stream/promises';
 import type pg from 'pg';
 import { from as copyFrom } from 'pg-copy-streams';
-import { db, type Db } from '$lib/server/db';
+import { containsPattern, db, type Db } from '$lib/server/db';
 import { logActivity } from '$lib/server/activity';
 import {
 	diffValues,
@@ -18,6 +18,7 @@ import {
 	materialValuesSchema,
 	asMaterialIssue,
 	materialIssues,
+	NUMBER_FIELDS,
 	REVISION_FIELDS,
 	type ListQuery,
 	type MaterialRevision,
@@ -47,10 +48,9 @@ const dateText = calendarDay;
 // Rows as Knex returns them (snake_case, untyped); converted at the module edge by the functions below.
 type Row = Record<string, any>;
 
-/** The values of a revision row, in the shape of MaterialValues. */
-export function valuesOfRow(r: Row): MaterialValues {
+/** The columns of a revision row that both its values and its list row carry, name to source. */
+function describedValues(r: Row) {
 	return {
-		code: r.code,
 		name: r.name,
 		manufacturer: r.manufacturer,
 		category: r.category,
@@ -64,7 +64,15 @@ export function valuesOfRow(r: Row): MaterialValues {
 		specificHeat: r.specific_heat,
 		thicknessMinMm: r.thickness_min_mm,
 		thicknessMaxMm: r.thickness_max_mm,
-		source: r.source,
+		source: r.source
+	};
+}
+
+/** The values of a revision row, in the shape of MaterialValues. */
+export function valuesOfRow(r: Row): MaterialValues {
+	return {
+		code: r.code,
+		...describedValues(r),
 		sourceIssued: dateText(r.source_issued),
 		sourceExpires: dateText(r.source_expires),
 		indicative: Boolean(r.indicative),
@@ -78,20 +86,7 @@ function toSummary(r: Row): MaterialSummary {
 		code: r.code,
 		revisionId: r.id,
 		revision: r.revision,
-		name: r.name,
-		manufacturer: r.manufacturer,
-		category: r.category,
-		lambda: r.lambda,
-		lambdaKind: r.lambda_kind,
-		resistance: r.resistance,
-		muDry: r.mu_dry,
-		muWet: r.mu_wet,
-		sd: r.sd,
-		density: r.density,
-		specificHeat: r.specific_heat,
-		thicknessMinMm: r.thickness_min_mm,
-		thicknessMaxMm: r.thickness_max_mm,
-		source: r.source,
+		...describedValues(r),
 		status: r.status
 	};
 }
@@ -136,8 +131,6 @@ const SORT_COLUMNS: Record<string, string[]> = {
 	updated: ['r.created_at', 'm.code']
 };
 
-const likeEscape = (s: string) => s.replace(/[\\%_]/g, (c) => '\\' + c);
-
 /** The library list: search over code, name, manufacturer and source; filters; sort; one page. */
 export async function listMaterials(
 	organisationId: string,
@@ -147,7 +140,7 @@ export async function listMaterials(
 		.join('material_revisions as r', 'r.id', 'm.current_revision_id')
 		.where('m.organisation_id', organisationId);
 	if (query.q) {
-		const like = `%${likeEscape(query.q)}%`;
+		const like = containsPattern(query.q);
 		base.andWhere((w) =>
 			w
 				.whereILike('m.code', like)
@@ -685,18 +678,6 @@ export async function listAllCurrent(organisationId: string): Promise<MaterialVa
 	return rows.map(valuesOfRow);
 }
 
-const FORM_NUMBERS = [
-	'lambda',
-	'resistance',
-	'muDry',
-	'muWet',
-	'sd',
-	'density',
-	'specificHeat',
-	'thicknessMinMm',
-	'thicknessMaxMm'
-];
-
 /** The values of the material form (numbers with a point or a comma), and issues for what is not a number. */
 export function valuesFromForm(fd: FormData): {
 	raw: Record<string, unknown>;
@@ -713,7 +694,7 @@ export function valuesFromForm(fd: FormData): {
 	for (const k of ['lambdaKind', 'source', 'sourceIssued', 'sourceExpires', 'notes'])
 		raw[k] = text(k) || null;
 	if (!raw.manufacturer) raw.manufacturer = 'generic';
-	for (const k of FORM_NUMBERS) {
+	for (const k of NUMBER_FIELDS) {
 		const n = parseNumber(text(k), ';');
 		if (n.ok) raw[k] = n.value;
 		else issues.push({ field: k, message: n.message });

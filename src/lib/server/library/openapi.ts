@@ -4,7 +4,16 @@
  */
 import { listQuerySchema, materialValuesObject, MATERIAL_STATUSES, LAMBDA_KINDS } from '$lib/library/schema';
 import { MATERIAL_CATEGORIES } from '$lib/library/categories';
-import { fail, idParam, issue, json, ok, queryParams, schema } from '$lib/server/openapi-kit';
+import {
+	fail,
+	idParam,
+	issue,
+	jsonBody,
+	ok,
+	queryParams,
+	schema,
+	type JsonSchema
+} from '$lib/server/openapi-kit';
 
 const num = { type: ['number', 'null'] };
 const text = { type: ['string', 'null'] };
@@ -64,20 +73,12 @@ const unusual = (description: string) =>
 		}
 	});
 const values = schema(materialValuesObject);
-const writeBody = {
-	required: true,
-	content: json({
-		allOf: [
-			values,
-			{
-				type: 'object',
-				properties: {
-					confirmWarnings: { type: 'boolean', description: 'save values that are unusual for the category' }
-				}
-			}
-		]
-	})
-};
+/** A body of material values with the members that steer the write. */
+const valuesBody = (properties: Record<string, JsonSchema>) =>
+	jsonBody({ allOf: [values, { type: 'object', properties }] });
+const writeBody = valuesBody({
+	confirmWarnings: { type: 'boolean', description: 'save values that are unusual for the category' }
+});
 
 export const paths: Record<string, unknown> = {
 	'/api/v1/materials': {
@@ -126,21 +127,10 @@ export const paths: Record<string, unknown> = {
 		put: {
 			summary: 'Change values: writes a new revision when anything differs; assessors and admins',
 			tags: ['Library'],
-			requestBody: {
-				required: true,
-				content: json({
-					allOf: [
-						values,
-						{
-							type: 'object',
-							properties: {
-								confirmWarnings: { type: 'boolean' },
-								expectedRevisionId: { type: 'string', format: 'uuid' }
-							}
-						}
-					]
-				})
-			},
+			requestBody: valuesBody({
+				confirmWarnings: { type: 'boolean' },
+				expectedRevisionId: { type: 'string', format: 'uuid' }
+			}),
 			responses: {
 				200: ok('Outcome', {
 					type: 'object',
@@ -163,17 +153,14 @@ export const paths: Record<string, unknown> = {
 			summary:
 				'Verify or supersede the current revision; supervisors and admins, never the revision’s author for verify',
 			tags: ['Library'],
-			requestBody: {
-				required: true,
-				content: json({
-					type: 'object',
-					properties: {
-						action: { enum: ['verify', 'supersede'] },
-						expectedRevisionId: { type: 'string', format: 'uuid' }
-					},
-					required: ['action']
-				})
-			},
+			requestBody: jsonBody({
+				type: 'object',
+				properties: {
+					action: { enum: ['verify', 'supersede'] },
+					expectedRevisionId: { type: 'string', format: 'uuid' }
+				},
+				required: ['action']
+			}),
 			responses: {
 				200: ok('The current revision', revision),
 				400: fail('Not right'),
@@ -244,16 +231,13 @@ export const paths: Record<string, unknown> = {
 		post: {
 			summary: 'Layers of a build-up whose material has a newer revision, with what would change',
 			tags: ['Library'],
-			requestBody: {
-				required: true,
-				content: json({
-					type: 'object',
-					properties: {
-						buildUp: { type: 'object', properties: { layers: { type: 'array', items: { type: 'object' } } } }
-					},
-					required: ['buildUp']
-				})
-			},
+			requestBody: jsonBody({
+				type: 'object',
+				properties: {
+					buildUp: { type: 'object', properties: { layers: { type: 'array', items: { type: 'object' } } } }
+				},
+				required: ['buildUp']
+			}),
 			responses: {
 				200: ok('One entry per layer to update', {
 					type: 'array',

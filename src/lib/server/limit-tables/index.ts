@@ -1,10 +1,10 @@
 import { calendarDay } from '$lib/format';
 import { db, type Db } from '$lib/server/db';
-import { logActivity } from '$lib/server/activity';
+import { activityLog } from '$lib/server/activity';
 import type { Member } from '$lib/server/guard';
 import { type ElementKind } from '$lib/dwellings/kinds';
 import { limitTableInputSchema, type LimitTableInput } from '$lib/limit-tables/schema';
-import { ConflictError, pgCode, PG_FOREIGN_KEY_VIOLATION, PG_UNIQUE_VIOLATION } from '$lib/server/errors';
+import { ConflictError, pgCode, PG_FOREIGN_KEY_VIOLATION, uniqueViolationAs } from '$lib/server/errors';
 
 /**
  * Limit tables: maximum U by element kind, per jurisdiction or scheme. One per organisation is the
@@ -24,17 +24,33 @@ export async function listLimitTables(organisationId: string): Promise<LimitTabl
 	return rows.map((r) => ({ ...toLimitTable(r), usage: { dwellings: Number(r.dwellings_using) } }));
 }
 
+const tableRow = (trx: Db, organisationId: string, id: string) =>
+	trx('limit_tables').where({ organisation_id: organisationId, id }).first();
+
+const defaultRow = (trx: Db, organisationId: string) =>
+	trx('limit_tables').where({ organisation_id: organisationId, is_default: true }).first();
+
+/** The table's row, locked until the transaction ends. */
+const lockedRow = (t: Db, organisationId: string, id: string) =>
+	t('limit_tables').where({ organisation_id: organisationId, id }).forUpdate().first();
+
+/** The organisation's default is no longer the default (before another becomes it). */
+const unsetDefault = (t: Db, organisationId: string) =>
+	t('limit_tables')
+		.where({ organisation_id: organisationId, is_default: true })
+		.update({ is_default: false, updated_at: t.fn.now() });
+
 export async function getLimitTable(
 	organisationId: string,
 	id: string,
 	trx: Db = db
 ): Promise<LimitTable | null> {
-	const row = await trx('limit_tables').where({ organisation_id: organisationId, id }).first();
+	const row = await tableRow(trx, organisationId, id);
 	return row ? toLimitTable(row) : null;
 }
 
 export async function getDefaultLimitTable(organisationId: string, trx: Db = db): Promise<LimitTable | null> {
-	const row = await trx('limit_tables').where({ organisation_id: organisationId, is_default: true }).first();
+	const row = await defaultRow(trx, organisationId);
 	return row ? toLimitTable(row) : null;
 }
 
@@ -47,24 +63,30 @@ export async function getApplicableLimitTable(
 	limitTableId: string | null,
 	trx: Db = db
 ) {
-	const table = limitTableId
-		? await getLimitTable(organisationId, limitTableId, trx)
-		: await getDefaultLimitTable(organisationId, trx);
-	if (!table) return null;
-	const { id, name, edition, dated, source, isDefault, limits } = table;
+	const row = limitTableId
+		? await tableRow(trx, organisationId, limitTableId)
+		: await defaultRow(trx, organisationId);
+	return row ? toLimitTableBrief(row, Boolean(limitTableId)) : null;
+}
+
+/**
+ * A limit table row as the brief a dwelling is judged with (also as read inside a JSON aggregate);
+ * `chosen`: the dwelling names it, rather than falling back to the default.
+ */
+export function toLimitTableBrief(r: Record<string, any>, chosen: boolean) {
 	return {
-		id,
-		name,
-		edition,
-		dated,
-		source,
-		isDefault: Boolean(isDefault),
-		chosen: Boolean(limitTableId),
-		limits
+		id: r.id as string,
+		name: r.name as string,
+		edition: r.edition as string,
+		dated: calendarDay(r.dated),
+		source: (r.source ?? null) as string | null,
+		isDefault: Boolean(r.is_default),
+		chosen,
+		limits: (r.limits ?? {}) as Partial<Record<ElementKind, number>>
 	};
 }
 
-export type LimitTableBrief = NonNullable<Awaited<ReturnType<typeof getApplicableLimitTable>>>;
+export type LimitTableBrief = ReturnType<typeof toLimitTableBrief>;
 
 /**
  * The same rule as an SQL condition, for queries that join a dwelling (`dwelling` alias) to the
@@ -86,11 +108,7 @@ export async function createLimitTable(
 			.where({ organisation_id: member.organisationId })
 			.count({ n: '*' });
 		const makeDefault = Number(n) === 0 || data.isDefault === true;
-		if (makeDefault) {
-			await t('limit_tables')
-				.where({ organisation_id: member.organisationId, is_default: true })
-				.update({ is_default: false, updated_at: t.fn.now() });
-		}
+		if (makeDefault) await unsetDefault(t, member.organisationId);
 		try {
 			const [row] = await t('limit_tables')
 				.insert({
@@ -193,10 +211,7 @@ export async function updateLimitTable(
 ): Promise<LimitTable | null> {
 	const data = limitTableInputSchema.parse(input);
 	return db.transaction(async (t) => {
-		const current = await t('limit_tables')
-			.where({ organisation_id: member.organisationId, id })
-			.forUpdate()
-			.first();
+		const current = await lockedRow(t, member.organisationId, id);
 		if (!current) return null;
 		const previousLimits: Partial<Record<ElementKind, number>> = current.limits ?? {};
 		const changes = limitChanges(previousLimits, data.limits);
@@ -209,11 +224,7 @@ export async function updateLimitTable(
 				changes
 			);
 		}
-		if (data.isDefault === true && !current.is_default) {
-			await t('limit_tables')
-				.where({ organisation_id: member.organisationId, is_default: true })
-				.update({ is_default: false, updated_at: t.fn.now() });
-		}
+		if (data.isDefault === true && !current.is_default) await unsetDefault(t, member.organisationId);
 		try {
 			const [row] = await t('limit_tables')
 				.where({ organisation_id: member.organisationId, id })
@@ -252,15 +263,10 @@ export async function updateLimitTable(
 /** Makes the table the organisation's default; returns null when there is no such table. */
 export async function setDefaultLimitTable(member: Member, id: string): Promise<LimitTable | null> {
 	return db.transaction(async (t) => {
-		const current = await t('limit_tables')
-			.where({ organisation_id: member.organisationId, id })
-			.forUpdate()
-			.first();
+		const current = await lockedRow(t, member.organisationId, id);
 		if (!current) return null;
 		if (current.is_default) return toLimitTable(current);
-		await t('limit_tables')
-			.where({ organisation_id: member.organisationId, is_default: true })
-			.update({ is_default: false, updated_at: t.fn.now() });
+		await unsetDefault(t, member.organisationId);
 		const [row] = await t('limit_tables')
 			.where({ organisation_id: member.organisationId, id })
 			.update({ is_default: true, updated_at: t.fn.now() })
@@ -276,10 +282,7 @@ export async function setDefaultLimitTable(member: Member, id: string): Promise<
  */
 export async function deleteLimitTable(member: Member, id: string): Promise<boolean> {
 	return db.transaction(async (t) => {
-		const row = await t('limit_tables')
-			.where({ organisation_id: member.organisationId, id })
-			.forUpdate()
-			.first();
+		const row = await lockedRow(t, member.organisationId, id);
 		if (!row) return false;
 		const label = `${row.name} (${row.edition})`;
 		const [{ n }] = await t('dwellings')
@@ -342,28 +345,15 @@ export function limitFor(table: Pick<LimitTable, 'limits'> | null, kind: Element
 	return typeof v === 'number' ? v : null;
 }
 
-async function log(member: Member, action: string, id: string, details: Record<string, unknown>, t: Db) {
-	await logActivity(
-		{
-			organisationId: member.organisationId,
-			userId: member.user.id,
-			action,
-			entity: 'limit-table',
-			entityId: id,
-			details
-		},
-		t
-	);
-}
+const log = activityLog('limit-table');
 
-function nameTaken(e: unknown, name: string, edition: string) {
-	if (pgCode(e) === PG_UNIQUE_VIOLATION) {
-		return new ConflictError(
+const nameTaken = (e: unknown, name: string, edition: string) =>
+	uniqueViolationAs(
+		e,
+		new ConflictError(
 			`A limit table "${name}", edition "${edition}", already exists; change the name or edition.`
-		);
-	}
-	return e;
-}
+		)
+	);
 
 function toLimitTable(r: Record<string, any>): LimitTable {
 	return {

@@ -103,6 +103,16 @@ export async function inviteMember(
 	return trx ? run(trx) : db.transaction(run);
 }
 
+/** The member's membership, locked until the transaction ends; refused when they are not a member here. */
+async function lockMembership(t: Db, organisationId: string, userId: string) {
+	const m = await t('memberships')
+		.where({ organisation_id: organisationId, user_id: userId })
+		.forUpdate()
+		.first();
+	if (!m) throw refusal('No such member in this organisation.', 'userId');
+	return m;
+}
+
 async function assertNotLastAdmin(t: Db, organisationId: string, userId: string) {
 	const admins = await t('memberships')
 		.where({ organisation_id: organisationId, role: 'admin' })
@@ -118,11 +128,7 @@ export async function changeMemberRole(
 	role: Role
 ) {
 	return db.transaction(async (t) => {
-		const m = await t('memberships')
-			.where({ organisation_id: actor.organisationId, user_id: userId })
-			.forUpdate()
-			.first();
-		if (!m) throw refusal('No such member in this organisation.', 'userId');
+		const m = await lockMembership(t, actor.organisationId, userId);
 		if (m.role === 'admin' && role !== 'admin') await assertNotLastAdmin(t, actor.organisationId, userId);
 		await t('memberships').where({ id: m.id }).update({ role });
 		await logActivity(
@@ -141,11 +147,7 @@ export async function changeMemberRole(
 
 export async function removeMember(actor: { userId: string; organisationId: string }, userId: string) {
 	return db.transaction(async (t) => {
-		const m = await t('memberships')
-			.where({ organisation_id: actor.organisationId, user_id: userId })
-			.forUpdate()
-			.first();
-		if (!m) throw refusal('No such member in this organisation.', 'userId');
+		const m = await lockMembership(t, actor.organisationId, userId);
 		if (m.role === 'admin') await assertNotLastAdmin(t, actor.organisationId, userId);
 		await t('memberships').where({ id: m.id }).delete();
 		// End their open sessions so removal takes effect at once.

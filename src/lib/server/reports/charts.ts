@@ -78,6 +78,21 @@ function polyline(points: [number, number][], stroke: string, width = 1.3, dash?
 	return `<polyline points="${d}" fill="none" stroke="${stroke}" stroke-width="${width}" stroke-linejoin="round"${dash ? ` stroke-dasharray="${dash}"` : ''}/>`;
 }
 
+/** A layer's band from xa to xb between yTop and yBottom, with its number on top when it is wide enough. */
+function layerBand(xa: number, xb: number, yTop: number, yBottom: number, fill: string, n: number) {
+	const band = `<rect x="${xa.toFixed(2)}" y="${yTop}" width="${Math.max(xb - xa, 0.3).toFixed(2)}" height="${yBottom - yTop}" fill="${fill}" stroke="${CHART_COLOURS.line}" stroke-width="0.4"/>`;
+	if (xb - xa < 7) return band;
+	return (
+		band +
+		text((xa + xb) / 2, yTop + 9, String(n), { anchor: 'middle', size: 6.5, fill: CHART_COLOURS.faint })
+	);
+}
+
+/** The chart's SVG document. */
+function svg(width: number, height: number, parts: string[]) {
+	return `<svg xmlns="http://www.w3.org/2000/svg" width="${width}" height="${height}" viewBox="0 0 ${width} ${height}">${parts.join('')}</svg>`;
+}
+
 function legend(x: number, y: number, items: { label: string; colour: string; dash?: string }[]) {
 	let cx = x;
 	const parts: string[] = [];
@@ -121,19 +136,7 @@ export function temperatureChart(result: ElementResult, width = 500, height = 19
 				: i % 2
 					? CHART_COLOURS.bandB
 					: CHART_COLOURS.bandA;
-		const xa = x(l.positionStartMm);
-		const xb = x(l.positionEndMm);
-		parts.push(
-			`<rect x="${xa.toFixed(2)}" y="${yTop}" width="${Math.max(xb - xa, 0.3).toFixed(2)}" height="${yBottom - yTop}" fill="${fill}" stroke="${CHART_COLOURS.line}" stroke-width="0.4"/>`
-		);
-		if (xb - xa >= 7)
-			parts.push(
-				text((xa + xb) / 2, yTop + 9, String(i + 1), {
-					anchor: 'middle',
-					size: 6.5,
-					fill: CHART_COLOURS.faint
-				})
-			);
+		parts.push(layerBand(x(l.positionStartMm), x(l.positionEndMm), yTop, yBottom, fill, i + 1));
 	});
 	parts.push(
 		text(x(-stub / 2), yBottom - 4, 'inside', { anchor: 'middle', size: 6.5, fill: CHART_COLOURS.faint })
@@ -192,7 +195,7 @@ export function temperatureChart(result: ElementResult, width = 500, height = 19
 			fill: CHART_COLOURS.ink
 		})
 	);
-	return `<svg xmlns="http://www.w3.org/2000/svg" width="${width}" height="${height}" viewBox="0 0 ${width} ${height}">${parts.join('')}</svg>`;
+	return svg(width, height, parts);
 }
 
 /**
@@ -224,17 +227,7 @@ export function vapourChart(result: ElementResult, width = 500, height = 190): s
 		const xb = x(cum + sd);
 		cum += sd;
 		const fill = i % 2 ? CHART_COLOURS.bandB : CHART_COLOURS.bandA;
-		parts.push(
-			`<rect x="${xa.toFixed(2)}" y="${yTop}" width="${Math.max(xb - xa, 0.3).toFixed(2)}" height="${yBottom - yTop}" fill="${fill}" stroke="${CHART_COLOURS.line}" stroke-width="0.4"/>`
-		);
-		if (xb - xa >= 7)
-			parts.push(
-				text((xa + xb) / 2, yTop + 9, String(i + 1), {
-					anchor: 'middle',
-					size: 6.5,
-					fill: CHART_COLOURS.faint
-				})
-			);
+		parts.push(layerBand(xa, xb, yTop, yBottom, fill, i + 1));
 	});
 	parts.push(
 		frame(
@@ -278,5 +271,5 @@ export function vapourChart(result: ElementResult, width = 500, height = 190): s
 			{ label: 'vapour pressure', colour: CHART_COLOURS.damp, dash: VAPOUR_DASH }
 		])
 	);
-	return `<svg xmlns="http://www.w3.org/2000/svg" width="${width}" height="${height}" viewBox="0 0 ${width} ${height}">${parts.join('')}</svg>`;
+	return svg(width, height, parts);
 }

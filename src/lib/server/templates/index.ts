@@ -1,10 +1,10 @@
-import { db, type Db } from '$lib/server/db';
-import { logActivity } from '$lib/server/activity';
+import { containsPattern, db, type Db } from '$lib/server/db';
+import { activityLog } from '$lib/server/activity';
 import type { Member } from '$lib/server/guard';
 import { type ElementKind } from '$lib/dwellings/kinds';
 import { templateInputSchema, templatePatchSchema, type TemplateInput } from '$lib/templates/schema';
 import { type StoredBuildUp as BuildUp } from '$lib/dwellings/element-input';
-import { ConflictError, ForbiddenError, pgCode, PG_UNIQUE_VIOLATION } from '$lib/server/errors';
+import { ConflictError, ForbiddenError, uniqueViolationAs } from '$lib/server/errors';
 
 /**
  * Templates: reusable build-ups an element can start from. Any assessor or admin may save one;
@@ -23,7 +23,7 @@ export async function listTemplates(
 		.select('t.*', 'u.name as created_by_name', 'u.email as created_by_email');
 	if (kind) query.andWhere('t.kind', kind);
 	if (q && q.trim()) {
-		const like = `%${q.trim().replace(/[\\%_]/g, (c) => '\\' + c)}%`;
+		const like = containsPattern(q.trim());
 		query.andWhere((w) => w.whereILike('t.name', like).orWhereILike('t.description', like));
 	}
 	return (await query).map(toTemplate);
@@ -123,26 +123,10 @@ export async function deleteTemplate(member: Member, id: string): Promise<boolea
 	});
 }
 
-async function log(member: Member, action: string, id: string, details: Record<string, unknown>, t: Db) {
-	await logActivity(
-		{
-			organisationId: member.organisationId,
-			userId: member.user.id,
-			action,
-			entity: 'template',
-			entityId: id,
-			details
-		},
-		t
-	);
-}
+const log = activityLog('template');
 
-function nameTaken(e: unknown, name: string) {
-	if (pgCode(e) === PG_UNIQUE_VIOLATION) {
-		return new ConflictError(`A template named "${name}" already exists; choose another name.`);
-	}
-	return e;
-}
+const nameTaken = (e: unknown, name: string) =>
+	uniqueViolationAs(e, new ConflictError(`A template named "${name}" already exists; choose another name.`));
 
 function toTemplate(r: Record<string, any>): Template {
 	return {
