@@ -1,7 +1,7 @@
 import { test, expect, request as newRequest } from '@playwright/test';
-import { DEMO, db, waitForMail, INBOX } from './helpers';
+import { DEMO, db, sessionCookie, waitForMail, INBOX } from './helpers';
 
-// Host-header poisoning of the sign-in link (an account-takeover hole; OWASP Web Security Testing Guide
+// Hardening checks that stay: host-header poisoning of the sign-in link (an account-takeover hole; OWASP Web Security Testing Guide
 // v4.2, WSTG-INPV-17 "Testing for Host Header Injection"). Every link Envelo e-mails must be built from
 // its configured origin (ORIGIN), never from the request's Host or X-Forwarded-* headers.
 
@@ -97,6 +97,107 @@ test.describe('the sign-in link names Envelo\u2019s own origin', () => {
 		});
 		expect(res.status()).toBe(308);
 		expect(res.headers()['location']).toBe(`${ORIGIN}/signin?next=%2Fdwellings`);
+		await api.dispose();
+	});
+});
+
+// Open redirect after sign-in (OWASP WSTG v4.2, WSTG-CLNT-04; identifier from memory): a signed-in
+// person sent to /signin?next=… must stay on Envelo whatever `next` says.
+test.describe('after sign-in, next never leaves the site', () => {
+	for (const next of ['/\\evil.example.test', '/\t/evil.example.test', '//evil.example.test']) {
+		test(`next=${JSON.stringify(next)} goes to the dwellings`, async () => {
+			const api = await newRequest.newContext({
+				baseURL: ORIGIN,
+				extraHTTPHeaders: { cookie: await sessionCookie(DEMO.assessor) }
+			});
+			const res = await api.get(`/signin?next=${encodeURIComponent(next)}`, { maxRedirects: 0 });
+			expect(res.status()).toBe(303);
+			expect(res.headers()['location']).toBe('/dwellings');
+			await api.dispose();
+		});
+	}
+	test('a path of the site is kept', async () => {
+		const api = await newRequest.newContext({
+			baseURL: ORIGIN,
+			extraHTTPHeaders: { cookie: await sessionCookie(DEMO.assessor) }
+		});
+		const res = await api.get(`/signin?next=${encodeURIComponent('/library?q=wool')}`, { maxRedirects: 0 });
+		expect(res.headers()['location']).toBe('/library?q=wool');
+		await api.dispose();
+	});
+});
+
+test('signed-in pages and API answers are never cached; public pages may be', async () => {
+	const api = await newRequest.newContext({
+		baseURL: ORIGIN,
+		extraHTTPHeaders: { cookie: await sessionCookie(DEMO.assessor) }
+	});
+	for (const path of ['/dwellings', '/api/v1/me', '/api/v1/dwellings']) {
+		const res = await api.get(path, { maxRedirects: 0 });
+		expect(res.status(), path).toBe(200);
+		expect(res.headers()['cache-control'], path).toMatch(/no-store/);
+	}
+	const pub = await api.get('/healthz');
+	expect(pub.headers()['cache-control'] ?? '').not.toMatch(/no-store/);
+	await api.dispose();
+});
+
+// Bad input gets a 4xx that says what is wrong, never "Something went wrong on our side" (a 500).
+test.describe('bad input is refused with a 4xx, not a server error', () => {
+	async function signedIn() {
+		return newRequest.newContext({
+			baseURL: ORIGIN,
+			extraHTTPHeaders: { cookie: await sessionCookie(DEMO.assessor), origin: ORIGIN }
+		});
+	}
+	async function demoDwellingId(): Promise<string> {
+		const row = await db()('dwellings as d')
+			.join('memberships as m', 'm.organisation_id', 'd.organisation_id')
+			.join('users as u', 'u.id', 'm.user_id')
+			.where('u.email', DEMO.assessor)
+			.first('d.id');
+		return row.id;
+	}
+
+	test('a zero byte in a search', async () => {
+		const api = await signedIn();
+		// The list page shows the search's problem beside the search box (the page itself loads).
+		const page = await api.get('/dwellings?q=%00');
+		expect(page.status()).toBeLessThan(500);
+		expect(await page.text()).toMatch(/zero byte/);
+		const res = await api.get('/api/v1/dwellings?q=%00');
+		expect(res.status()).toBe(400);
+		expect((await res.json()).message).toMatch(/zero byte/);
+		await api.dispose();
+	});
+
+	test('an id that is not an id in a form action', async () => {
+		const api = await signedIn();
+		const id = await demoDwellingId();
+		for (const action of ['duplicateElement', 'deleteElement']) {
+			const res = await api.post(`/dwellings/${id}?/${action}`, {
+				form: { elementId: 'not-a-uuid', version: '1' },
+				maxRedirects: 0
+			});
+			expect(res.status(), action).toBeGreaterThanOrEqual(400);
+			expect(res.status(), action).toBeLessThan(500);
+			expect(await res.text(), action).not.toMatch(/Something went wrong/);
+		}
+		await api.dispose();
+	});
+
+	test('a JSON body sent to a form action, and a body over the size limit', async () => {
+		const api = await signedIn();
+		const id = await demoDwellingId();
+		const json = await api.post(`/dwellings/${id}?/duplicateElement`, { data: { elementId: 'x' } });
+		expect(json.status()).toBe(415);
+		expect(await json.text()).not.toMatch(/Something went wrong/);
+		const big = await api.post('/api/v1/dwellings', {
+			headers: { 'content-type': 'application/json' },
+			data: '"' + 'x'.repeat(30 * 1024 * 1024) + '"'
+		});
+		expect(big.status()).toBe(413);
+		expect(await big.text()).not.toMatch(/Something went wrong/);
 		await api.dispose();
 	});
 });

@@ -9,6 +9,9 @@ declare global {
 			errorId?: string;
 		}
 		interface Locals {
+			/** Set by handleError when an error stands for a refusal (bad input the database saw, a database
+			 * outage): the answer gets its status instead of 500. */
+			refusal?: { status: number; retryAfter?: number };
 			/** The signed-in person, or null. */
 			user: { id: string; email: string; name: string | null } | null;
 			/** Their organisation and role, or null when they are not a member of one (yet). */

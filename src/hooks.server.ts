@@ -3,7 +3,9 @@ import { sequence } from '@sveltejs/kit/hooks';
 import { randomUUID } from 'node:crypto';
 import { dev } from '$app/environment';
 import { authHandle } from '$lib/server/auth';
-import { behindProxy, configuredOrigin } from '$lib/server/config';
+import { behindProxy, configuredOrigin, publicOrigin } from '$lib/server/config';
+import { securityHeaders } from '$lib/server/http';
+import { refusalOf, UnavailableError } from '$lib/server/errors';
 import { getSignedInMember } from '$lib/server/members';
 import { startWorkers } from '$lib/server/workers';
 // Background workers register themselves when their module is imported (one line each, below).
@@ -121,9 +123,9 @@ const guard: Handle = async ({ event, resolve }) => {
 		}
 	}
 	const response = await resolve(event);
-	response.headers.set('x-content-type-options', 'nosniff');
-	response.headers.set('referrer-policy', 'same-origin');
-	response.headers.set('permissions-policy', 'camera=(), microphone=(), geolocation=()');
+	for (const [name, value] of Object.entries(securityHeaders(publicOrigin(), !isPublic, response.headers))) {
+		response.headers.set(name, value);
+	}
 	return response;
 };
 
@@ -160,6 +162,32 @@ const checkHost: Handle = async ({ event, resolve }) => {
 };
 
 /**
+ * Errors that stand for a refusal get their own status instead of 500: bad input that only the database
+ * noticed (400) and a database that cannot be reached (503 with Retry-After), whether they were thrown
+ * in a load or action (handleError marks them) or in a handle before any route ran (caught here).
+ */
+const refusals: Handle = async ({ event, resolve }) => {
+	let response: Response;
+	try {
+		response = await resolve(event);
+	} catch (e) {
+		const r = refusalOf(e);
+		if (!r) throw e;
+		event.locals.refusal = {
+			status: r.status,
+			retryAfter: r instanceof UnavailableError ? r.retryAfter : undefined
+		};
+		response = json({ message: r.message }, 500);
+	}
+	const refusal = event.locals.refusal;
+	if (refusal && response.status === 500) {
+		response = new Response(response.body, { status: refusal.status, headers: response.headers });
+		if (refusal.retryAfter) response.headers.set('retry-after', String(refusal.retryAfter));
+	}
+	return response;
+};
+
+/**
  * Auth.js only answers its own routes (/auth/…: the sign-in link, the callback, sign-out); elsewhere its
  * handle would only build its configuration again for each request. Nothing reads `locals.auth`: who is
  * asking comes from `identify`, and the sign-in and sign-out forms call Auth.js's signIn and signOut.
@@ -167,10 +195,19 @@ const checkHost: Handle = async ({ event, resolve }) => {
 const auth: Handle = (input) =>
 	input.event.url.pathname.startsWith('/auth/') ? authHandle(input) : input.resolve(input.event);
 
-export const handle = sequence(checkHost, forgetAfterChanges, auth, identify, guard);
+export const handle = sequence(refusals, checkHost, forgetAfterChanges, auth, identify, guard);
 
 export const handleError: HandleServerError = ({ error, event, status, message }) => {
-	if (status === 404) return { message };
+	// The framework's own refusals (404, 413 body too large, 415 a JSON body sent to a form action…).
+	if (status < 500) return { message };
+	const refusal = refusalOf(error);
+	if (refusal) {
+		event.locals.refusal = {
+			status: refusal.status,
+			retryAfter: refusal instanceof UnavailableError ? refusal.retryAfter : undefined
+		};
+		return { message: refusal.message };
+	}
 	const errorId = randomUUID().slice(0, 8);
 	console.error(`[envelo] error ${errorId} on ${event.request.method} ${event.url.pathname}:`, error);
 	return { message: 'Something went wrong on our side. Quote this reference if you report it.', errorId };

@@ -76,7 +76,13 @@ export const dwellingCopySchema = z.object({
 
 export const DWELLING_SORTS = ['reference', 'address', 'status', 'updated', 'assessor'] as const;
 export const dwellingListQuerySchema = z.object({
-	q: z.string().trim().max(100, 'must be at most 100 characters').optional().default(''),
+	q: z
+		.string()
+		.trim()
+		.max(100, 'must be at most 100 characters')
+		.refine((v) => !v.includes('\u0000'), 'must not contain a zero byte (U+0000)')
+		.optional()
+		.default(''),
 	status: z
 		.enum([...DWELLING_STATUSES, 'active', 'all', ''], {
 			error: `must be one of ${DWELLING_STATUSES.join(', ')}, active (all but archived) or all`

@@ -43,3 +43,20 @@ export function appUrl(path: string): string {
 export function behindProxy(): boolean {
 	return /^(1|true|yes)$/i.test(setting('BEHIND_PROXY') ?? '');
 }
+
+/**
+ * A path to go to after signing in, taken from a `next` parameter: resolved against the public origin
+ * and kept only when it stays there (so `//host`, `/\\host`, `/%09/host` and absolute URLs elsewhere
+ * all fall back). Returns the path with its query and fragment.
+ */
+export function localPath(next: string | null | undefined, fallback = '/dwellings'): string {
+	if (!next || !next.startsWith('/')) return fallback;
+	const origin = publicOrigin();
+	let url: URL;
+	try {
+		url = new URL(next, origin);
+	} catch {
+		return fallback;
+	}
+	return url.origin === origin ? url.pathname + url.search + url.hash : fallback;
+}

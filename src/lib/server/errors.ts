@@ -7,7 +7,7 @@ import type { FieldIssue } from '$lib/validation';
 
 export type { FieldIssue };
 
-export type RefusalStatus = 400 | 403 | 404 | 409 | 413 | 422;
+export type RefusalStatus = 400 | 403 | 404 | 409 | 413 | 422 | 503;
 
 /** An expected refusal: its HTTP status, a message for the person, and what else its answer carries. */
 export class AppError extends Error {
@@ -73,6 +73,15 @@ export class ConflictError extends AppError {
 	}
 }
 
+/** The database (or another service Envelo needs) cannot be reached: try again shortly (503, Retry-After). */
+export class UnavailableError extends AppError {
+	/** seconds the client should wait before trying again */
+	readonly retryAfter = 5;
+	constructor(message = 'Envelo cannot reach its database just now. Try again in a few seconds.') {
+		super(503, message);
+	}
+}
+
 export const STALE_MESSAGE =
 	'This was changed by someone else after you opened it. Reload to see their changes; your edits have not been saved.';
 
@@ -85,4 +94,57 @@ export function pgCode(e: unknown): string | undefined {
 	return typeof e === 'object' && e !== null && 'code' in e
 		? String((e as { code: unknown }).code)
 		: undefined;
+}
+
+/** A unique-constraint violation as the given refusal (the name or reference is taken); any other error as it is. */
+export function uniqueViolationAs(e: unknown, refusal: AppError): unknown {
+	return pgCode(e) === PG_UNIQUE_VIOLATION ? refusal : e;
+}
+
+/** A save must carry the version the caller loaded; else 409 with the version now stored. */
+export function assertVersion(stored: number, loaded: number): void {
+	if (stored !== loaded) throw new ConflictError(STALE_MESSAGE, { currentVersion: stored });
+}
+
+/** SQLSTATEs and driver errors of a database that cannot be reached or is shutting down. */
+const UNREACHABLE_CODES = new Set([
+	'ECONNREFUSED',
+	'ECONNRESET',
+	'ETIMEDOUT',
+	'EPIPE',
+	'57P01',
+	'57P02',
+	'57P03',
+	'08000',
+	'08001',
+	'08003',
+	'08006'
+]);
+const UNREACHABLE_TEXT =
+	/Connection terminated|Timeout acquiring a connection|connect ECONNREFUSED|the database system is (starting up|shutting down)/i;
+
+/**
+ * The refusal an error stands for: an AppError as it is; bad input that only the database noticed (a
+ * malformed id, a zero byte in text) as a 400 that says so; a database that cannot be reached as a 503.
+ * Null for anything else, which is a fault of Envelo's own (500 with a reference).
+ */
+export function refusalOf(e: unknown): AppError | null {
+	if (e instanceof AppError) return e;
+	const code = pgCode(e);
+	if (code === '22P02' && /uuid/i.test(String((e as Error).message))) {
+		return new ValidationError(
+			[{ path: '(id)', message: 'is not a valid id' }],
+			'An id in the request is not a valid id.'
+		);
+	}
+	if (code === '22021' || code === '22P05') {
+		return new ValidationError(
+			[{ path: '(text)', message: 'contains a zero byte (U+0000)' }],
+			'Text in the request contains a zero byte (U+0000), which cannot be stored: remove it and try again.'
+		);
+	}
+	if ((code && UNREACHABLE_CODES.has(code)) || UNREACHABLE_TEXT.test(String((e as Error)?.message ?? ''))) {
+		return new UnavailableError();
+	}
+	return null;
 }

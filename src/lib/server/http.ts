@@ -6,7 +6,7 @@
 import { json } from '@sveltejs/kit';
 import type { z } from 'zod';
 import { fieldIssues, issuesSentence } from '$lib/validation';
-import { AppError, ValidationError } from './errors';
+import { refusalOf, UnavailableError, ValidationError } from './errors';
 
 /** The request's JSON body (an empty body is `{}`), or a 400 that says the body is not JSON. */
 export async function readJson(request: Request): Promise<unknown> {
@@ -50,8 +50,11 @@ export function invalid(error: z.ZodError, what = 'request'): Response {
 
 /** An expected refusal as its JSON answer; anything else is rethrown (handleError: 500 with a reference). */
 export function errorResponse(e: unknown): Response {
-	if (e instanceof AppError) return json(e.body(), { status: e.status });
-	throw e;
+	const refusal = refusalOf(e);
+	if (!refusal) throw e;
+	const headers: Record<string, string> = {};
+	if (refusal instanceof UnavailableError) headers['retry-after'] = String(refusal.retryAfter);
+	return json(refusal.body(), { status: refusal.status, headers });
 }
 
 /** Run a handler; expected refusals become their JSON answers. */
@@ -85,4 +88,24 @@ export function pdfResponse(pdf: Buffer, filename: string, disposition: 'inline'
 			'cache-control': 'private, no-store'
 		}
 	});
+}
+
+/**
+ * Headers every answer carries: no sniffing, same-origin referrers, no camera/microphone/location;
+ * `Cache-Control: no-store` for the signed-in area and the API (an organisation's data never sits in a
+ * shared or back-button cache) unless the route set its own; HSTS when Envelo is served over HTTPS.
+ */
+export function securityHeaders(
+	origin: string,
+	isPrivate: boolean,
+	existing: Headers
+): Record<string, string> {
+	const out: Record<string, string> = {
+		'x-content-type-options': 'nosniff',
+		'referrer-policy': 'same-origin',
+		'permissions-policy': 'camera=(), microphone=(), geolocation=()'
+	};
+	if (isPrivate && !existing.has('cache-control')) out['cache-control'] = 'private, no-store';
+	if (origin.startsWith('https:')) out['strict-transport-security'] = 'max-age=31536000; includeSubDomains';
+	return out;
 }

@@ -2,14 +2,12 @@ import { fail, redirect } from '@sveltejs/kit';
 import { superValidate, message } from 'sveltekit-superforms';
 import { zod4 } from 'sveltekit-superforms/adapters';
 import { onPublicOrigin, signIn } from '$lib/server/auth';
+import { localPath } from '$lib/server/config';
 import { isKnownAddress } from '$lib/server/members';
 import { allowSignInAttempt } from '$lib/server/rate-limit';
 import { signInSchema } from './schema';
 
-/** Only same-site paths may be followed after sign-in. */
-function safeNext(next: string | undefined): string {
-	return next && next.startsWith('/') && !next.startsWith('//') ? next : '/dwellings';
-}
+const safeNext = (next: string | null | undefined) => localPath(next);
 
 export const load = async ({ locals, url }) => {
 	if (locals.user && locals.membership) redirect(303, safeNext(url.searchParams.get('next') ?? undefined));
