@@ -36,7 +36,8 @@ async function askForLink(email: string, headers: Record<string, string>) {
 	const api = await newRequest.newContext({ baseURL: ORIGIN });
 	const res = await api.post('/signin', {
 		form: { email, next: '' },
-		headers: { origin: ORIGIN, ...headers },
+		// as a browser posts a form (SvelteKit answers other Accept values with its JSON action result)
+		headers: { origin: ORIGIN, accept: 'text/html', ...headers },
 		maxRedirects: 0
 	});
 	await api.dispose();
@@ -167,7 +168,7 @@ test.describe('bad input is refused with a 4xx, not a server error', () => {
 		expect(await page.text()).toMatch(/zero byte/);
 		const res = await api.get('/api/v1/dwellings?q=%00');
 		expect(res.status()).toBe(400);
-		expect((await res.json()).message).toMatch(/zero byte/);
+		expect(JSON.stringify((await res.json()).issues)).toMatch(/zero byte/);
 		await api.dispose();
 	});
 
@@ -200,4 +201,37 @@ test.describe('bad input is refused with a 4xx, not a server error', () => {
 		expect(await big.text()).not.toMatch(/Something went wrong/);
 		await api.dispose();
 	});
+});
+
+test.afterAll(async () => {
+	if (created.length) await db()('users').whereIn('email', created).del();
+});
+
+test('the sign-in limit answers 429', async () => {
+	const email = await freshMember('limit');
+	const statuses: number[] = [];
+	for (let i = 0; i < 6; i++) statuses.push(await askForLink(email, {}));
+	expect(statuses.slice(0, 5).every((s) => s < 400)).toBe(true);
+	expect(statuses[5]).toBe(429);
+});
+
+test('the calculation API has a per-member limit (429 with Retry-After)', async () => {
+	const api = await newRequest.newContext({
+		baseURL: ORIGIN,
+		extraHTTPHeaders: { cookie: await sessionCookie(DEMO.assessor2), origin: ORIGIN }
+	});
+	const body = {
+		heatFlow: 'horizontal',
+		layers: [{ name: 'Brick', thicknessMm: 215, lambda: 0.77 }]
+	};
+	let last = 0;
+	let retryAfter: string | undefined;
+	for (let i = 0; i < 400 && last !== 429; i++) {
+		const res = await api.post('/api/v1/calculate?detail=summary', { data: body });
+		last = res.status();
+		retryAfter = res.headers()['retry-after'];
+	}
+	expect(last).toBe(429);
+	expect(Number(retryAfter)).toBeGreaterThan(0);
+	await api.dispose();
 });

@@ -7,7 +7,7 @@ import type { FieldIssue } from '$lib/validation';
 
 export type { FieldIssue };
 
-export type RefusalStatus = 400 | 403 | 404 | 409 | 413 | 422 | 503;
+export type RefusalStatus = 400 | 403 | 404 | 409 | 413 | 422 | 429 | 503;
 
 /** An expected refusal: its HTTP status, a message for the person, and what else its answer carries. */
 export class AppError extends Error {
@@ -70,6 +70,17 @@ export class ConflictError extends AppError {
 	constructor(message: string, extra: Record<string, unknown> & { currentVersion?: number | null } = {}) {
 		super(409, message, extra);
 		this.current = extra.currentVersion ?? undefined;
+	}
+}
+
+/** Too many requests of one kind from one member in a while: wait and try again (429, Retry-After). */
+export class RateLimitedError extends AppError {
+	constructor(
+		message: string,
+		/** seconds the client should wait before trying again */
+		readonly retryAfter: number
+	) {
+		super(429, message);
 	}
 }
 

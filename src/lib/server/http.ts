@@ -6,7 +6,7 @@
 import { json } from '@sveltejs/kit';
 import type { z } from 'zod';
 import { fieldIssues, issuesSentence } from '$lib/validation';
-import { refusalOf, UnavailableError, ValidationError } from './errors';
+import { RateLimitedError, refusalOf, UnavailableError, ValidationError } from './errors';
 
 /** The request's JSON body (an empty body is `{}`), or a 400 that says the body is not JSON. */
 export async function readJson(request: Request): Promise<unknown> {
@@ -53,7 +53,8 @@ export function errorResponse(e: unknown): Response {
 	const refusal = refusalOf(e);
 	if (!refusal) throw e;
 	const headers: Record<string, string> = {};
-	if (refusal instanceof UnavailableError) headers['retry-after'] = String(refusal.retryAfter);
+	if (refusal instanceof UnavailableError || refusal instanceof RateLimitedError)
+		headers['retry-after'] = String(refusal.retryAfter);
 	return json(refusal.body(), { status: refusal.status, headers });
 }
 

@@ -1,5 +1,5 @@
 import { fail, redirect } from '@sveltejs/kit';
-import { superValidate, message } from 'sveltekit-superforms';
+import { superValidate } from 'sveltekit-superforms';
 import { zod4 } from 'sveltekit-superforms/adapters';
 import { onPublicOrigin, signIn } from '$lib/server/auth';
 import { localPath } from '$lib/server/config';
@@ -28,9 +28,8 @@ export const actions = {
 		const email = form.data.email.trim().toLowerCase();
 		const client = event.getClientAddress();
 		if (!(await allowSignInAttempt(email, client))) {
-			return message(form, 'Too many sign-in requests. Wait a quarter of an hour and try again.', {
-				status: 429
-			});
+			form.message = 'Too many sign-in requests. Wait a quarter of an hour and try again.';
+			return fail(429, { form });
 		}
 		// Unknown addresses get the same answer as known ones, and no e-mail.
 		if (!(await isKnownAddress(email))) redirect(303, '/signin/check-email');

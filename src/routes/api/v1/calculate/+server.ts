@@ -2,6 +2,7 @@ import { requireMember } from '$lib/server/guard';
 import { analyseElement, parseElementInput, type ElementResult } from '$lib/physics';
 import { answer, readJson } from '$lib/server/http';
 import { ValidationError } from '$lib/server/errors';
+import { takeCalculation } from '$lib/server/rate-limit';
 
 /**
  * The answer without its bulk: every figure, check, note, warning and caution of the full result, less
@@ -37,7 +38,8 @@ const DETAILS = ['full', 'summary'] as const;
  */
 export const POST = (event) =>
 	answer(async () => {
-		requireMember(event);
+		const member = requireMember(event);
+		takeCalculation(member.user.id);
 		const detail = event.url.searchParams.get('detail') ?? 'full';
 		if (!(DETAILS as readonly string[]).includes(detail)) {
 			throw new ValidationError([{ path: 'detail', message: 'must be full or summary' }]);

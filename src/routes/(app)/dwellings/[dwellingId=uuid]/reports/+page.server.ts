@@ -16,6 +16,7 @@ import { requeueMail, kickOutbox } from '$lib/server/outbox';
 import { moistureWord, passWord } from '$lib/server/reports/document';
 import { emailSchema } from '$lib/reports/schema';
 import { ISSUE_ROLES } from '$lib/reports/rules';
+import { checkReportMailLimit } from '$lib/server/rate-limit';
 
 async function dwellingOf(organisationId: string, dwellingId: string) {
 	const d = await getDwelling(organisationId, dwellingId);
@@ -140,6 +141,7 @@ export const actions = {
 			});
 		}
 		try {
+			await checkReportMailLimit(member.user.id);
 			const m = await emailReport(
 				{ userId: member.user.id, organisationId: member.organisationId },
 				parsed.data.reportId,

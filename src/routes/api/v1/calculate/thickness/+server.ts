@@ -4,11 +4,13 @@ import { ElementInputError, parseElementInput, solveThicknessDetailed } from '$l
 import { answer, readJson } from '$lib/server/http';
 import { ValidationError } from '$lib/server/errors';
 import { PRODUCT_THICKNESSES_MM, thicknessRequestSchema } from '$lib/dwellings/schema';
+import { takeCalculation } from '$lib/server/rate-limit';
 
 /** Stateless: the thickness of one layer that reaches a target U, rounded up to a product size. */
 export const POST = (event) =>
 	answer(async () => {
-		requireMember(event);
+		const member = requireMember(event);
+		takeCalculation(member.user.id);
 		const body = thicknessRequestSchema.safeParse(await readJson(event.request));
 		if (!body.success) {
 			throw new ValidationError(
