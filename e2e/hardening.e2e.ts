@@ -235,3 +235,40 @@ test('the calculation API has a per-member limit (429 with Retry-After)', async 
 	expect(Number(retryAfter)).toBeGreaterThan(0);
 	await api.dispose();
 });
+
+// Account enumeration (OWASP WSTG v4.2, WSTG-IDNT-04 "Testing for Account Enumeration"; identifier from
+// memory): a known and an unknown address get the same status, headers and cookies, and the known one
+// is not slower by the time it takes to make and send a link (the link is sent after the answer).
+test('the sign-in answer does not tell whether an address has an account', async () => {
+	async function ask(email: string) {
+		const api = await newRequest.newContext({ baseURL: ORIGIN });
+		const t0 = performance.now();
+		const res = await api.post('/signin', {
+			form: { email, next: '' },
+			headers: { origin: ORIGIN, accept: 'text/html' },
+			maxRedirects: 0
+		});
+		const ms = performance.now() - t0;
+		const headers = res.headers();
+		await api.dispose();
+		return { status: res.status(), location: headers['location'], cookie: 'set-cookie' in headers, ms };
+	}
+	const known: Awaited<ReturnType<typeof ask>>[] = [];
+	const unknown: Awaited<ReturnType<typeof ask>>[] = [];
+	const since = new Date(Date.now() - 1000).toISOString();
+	const emails: string[] = [];
+	for (let i = 0; i < 4; i++) {
+		const email = await freshMember(`enum${i}`);
+		emails.push(email);
+		known.push(await ask(email));
+		unknown.push(await ask(`nobody-${Date.now()}-${i}@example.test`));
+	}
+	for (const r of [...known, ...unknown]) {
+		expect(r).toMatchObject({ status: 303, location: '/signin/check-email', cookie: false });
+	}
+	const median = (xs: number[]) => [...xs].sort((a, b) => a - b)[Math.floor(xs.length / 2)];
+	// A generous margin: making and e-mailing a link took about 170 ms more before.
+	expect(median(known.map((r) => r.ms)) - median(unknown.map((r) => r.ms))).toBeLessThan(100);
+	// The known addresses still get their link.
+	for (const email of emails) await waitForMail(email, /sign-in link/i, since);
+});

@@ -1,7 +1,7 @@
 import { SvelteKitAuth, type SvelteKitAuthConfig } from '@auth/sveltekit';
 import Nodemailer from '@auth/sveltekit/providers/nodemailer';
 import PostgresAdapter from '@auth/pg-adapter';
-import type { RequestEvent } from '@sveltejs/kit';
+import { isRedirect, type RequestEvent } from '@sveltejs/kit';
 import { publicOrigin, setting } from './config';
 import { authPool } from './db';
 import { createTransport, mailFrom, smtpSettings } from './mail';
@@ -80,4 +80,27 @@ export function onPublicOrigin(event: RequestEvent, path: string, body: URLSearc
 	headers.set('host', url.host);
 	headers.set('content-type', 'application/x-www-form-urlencoded');
 	return { ...event, url, request: new Request(url, { method: 'POST', headers, body }) };
+}
+
+/** Cookies that go nowhere: the sign-in link is requested after the answer has left. */
+const NO_COOKIES: RequestEvent['cookies'] = {
+	get: () => undefined,
+	getAll: () => [],
+	set: () => undefined,
+	delete: () => undefined,
+	serialize: () => ''
+};
+
+/**
+ * Ask Auth.js for a sign-in link and e-mail it, without holding the answer: the caller answers every
+ * address the same way at once. Auth.js ends its sign-in by redirecting (a thrown redirect); that and any
+ * failure stay here (a failure is logged: the person asks again).
+ */
+export function sendLinkLater(event: RequestEvent, email: string): void {
+	void Promise.resolve()
+		.then(() => signIn({ ...event, cookies: NO_COOKIES }))
+		.catch((e: unknown) => {
+			if (isRedirect(e)) return;
+			console.error(`[envelo] the sign-in link to ${email} could not be sent:`, e);
+		});
 }

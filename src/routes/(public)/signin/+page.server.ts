@@ -1,7 +1,7 @@
 import { fail, redirect } from '@sveltejs/kit';
 import { superValidate } from 'sveltekit-superforms';
 import { zod4 } from 'sveltekit-superforms/adapters';
-import { onPublicOrigin, signIn } from '$lib/server/auth';
+import { onPublicOrigin, sendLinkLater } from '$lib/server/auth';
 import { localPath } from '$lib/server/config';
 import { isKnownAddress } from '$lib/server/members';
 import { allowSignInAttempt } from '$lib/server/rate-limit';
@@ -31,13 +31,17 @@ export const actions = {
 			form.message = 'Too many sign-in requests. Wait a quarter of an hour and try again.';
 			return fail(429, { form });
 		}
-		// Unknown addresses get the same answer as known ones, and no e-mail.
-		if (!(await isKnownAddress(email))) redirect(303, '/signin/check-email');
-		const body = new URLSearchParams({
-			providerId: 'nodemailer',
-			email,
-			redirectTo: safeNext(form.data.next)
-		});
-		await signIn(onPublicOrigin(event, '/signin', body));
+		// Known and unknown addresses get the same answer, at once: the link is made and sent after the
+		// answer, so neither the status, the headers nor the time taken tell whether the address has an
+		// account.
+		if (await isKnownAddress(email)) {
+			const body = new URLSearchParams({
+				providerId: 'nodemailer',
+				email,
+				redirectTo: safeNext(form.data.next)
+			});
+			sendLinkLater(onPublicOrigin(event, '/signin', body), email);
+		}
+		redirect(303, '/signin/check-email');
 	}
 };
