@@ -17,6 +17,11 @@ export function climateFromForm(fd: FormData) {
 	};
 }
 
+/** The climate edit form: its fields, and the version the page loaded (a hidden field). */
+export function climateUpdateFromForm(fd: FormData) {
+	return { ...climateFromForm(fd), version: formNumber(fd.get('version')) };
+}
+
 /** What the user typed, to put back into the form after a refusal. */
 export function climateFormValues(fd: FormData) {
 	return {

@@ -5,6 +5,7 @@
 import { z } from 'zod';
 import { climateMonthSchema } from '$lib/physics';
 import { requiredText } from '$lib/validation';
+import { versionSchema } from '$lib/dwellings/schema';
 
 /** Twelve months, each of 1–12 exactly once, returned in calendar order. */
 export const climateMonthsSchema = z
@@ -38,3 +39,7 @@ export const climateInputSchema = z.object({
 	months: climateMonthsSchema
 });
 export type ClimateInput = z.input<typeof climateInputSchema>;
+
+/** A replacement of a climate: every field, and the version the caller loaded (a stale one is refused). */
+export const climateUpdateSchema = climateInputSchema.extend({ version: versionSchema });
+export type ClimateUpdate = z.input<typeof climateUpdateSchema>;

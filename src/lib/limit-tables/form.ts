@@ -20,6 +20,12 @@ export function limitTableFromForm(fd: FormData) {
 	};
 }
 
+/** The limit-table edit form: its fields, and the version the page loaded (a hidden field). */
+export function limitTableUpdateFromForm(fd: FormData) {
+	return { ...limitTableFromForm(fd), version: formNumber(fd.get('version')) };
+}
+
+/** What the user typed, to put back into the form after a refusal. */
 export function limitTableFormValues(fd: FormData) {
 	const limits: Record<string, string> = {};
 	for (const kind of LIMIT_KINDS) limits[kind] = text(fd.get(`limit.${kind}`));

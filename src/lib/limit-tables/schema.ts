@@ -2,6 +2,7 @@
 import { z } from 'zod';
 import { ELEMENT_KINDS, type ElementKind } from '$lib/dwellings/kinds';
 import { optionalText, requiredText } from '$lib/validation';
+import { versionSchema } from '$lib/dwellings/schema';
 
 /** The kinds a limit table may name (all of them, windows and doors included). */
 export const LIMIT_KINDS: readonly ElementKind[] = ELEMENT_KINDS;
@@ -31,3 +32,7 @@ export const limitTableInputSchema = z.object({
 	limits: limitValuesSchema
 });
 export type LimitTableInput = z.input<typeof limitTableInputSchema>;
+
+/** A replacement of a limit table: every field, and the version the caller loaded (a stale one is refused). */
+export const limitTableUpdateSchema = limitTableInputSchema.extend({ version: versionSchema });
+export type LimitTableUpdate = z.input<typeof limitTableUpdateSchema>;

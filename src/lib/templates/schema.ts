@@ -4,7 +4,7 @@
  */
 import { z } from 'zod';
 import { ELEMENT_KINDS, GIVEN_U_KINDS, type ElementKind } from '$lib/dwellings/kinds';
-import { storedBuildUpSchema } from '$lib/dwellings/schema';
+import { storedBuildUpSchema, versionSchema } from '$lib/dwellings/schema';
 import { optionalText, requiredText } from '$lib/validation';
 
 /** Kinds that have a build-up (windows and doors take a given U-value instead). */
@@ -23,5 +23,6 @@ export const templateInputSchema = z.object({
 });
 export type TemplateInput = z.input<typeof templateInputSchema>;
 
-/** A partial update of a template: any of its fields. */
-export const templatePatchSchema = templateInputSchema.partial();
+/** A partial update of a template: any of its fields, and the version the caller loaded (a stale one is refused). */
+export const templatePatchSchema = templateInputSchema.partial().extend({ version: versionSchema });
+export type TemplatePatch = z.input<typeof templatePatchSchema>;

@@ -137,7 +137,9 @@ describe.skipIf(!hasDatabase)('climates', async () => {
 				reference: `D-${dwellingId.slice(0, 6)}`,
 				climate_id: c.id
 			});
-			await expect(climates.deleteClimate(asMember(a.admin), c.id)).rejects.toThrow(/used by 1 dwelling;/);
+			await expect(climates.deleteClimate(asMember(a.admin), c.id, c.version)).rejects.toThrow(
+				/used by 1 dwelling;/
+			);
 			await tdb()('dwellings').where({ id: dwellingId }).update({ climate_id: null });
 			await tdb()('elements').insert({
 				organisation_id: a.org.id,
@@ -148,10 +150,12 @@ describe.skipIf(!hasDatabase)('climates', async () => {
 				heat_flow: 'horizontal',
 				climate_id: c.id
 			});
-			await expect(climates.deleteClimate(asMember(a.admin), c.id)).rejects.toThrow(/used by 1 element;/);
+			await expect(climates.deleteClimate(asMember(a.admin), c.id, c.version)).rejects.toThrow(
+				/used by 1 element;/
+			);
 			expect(await climates.getClimate(a.org.id, c.id)).not.toBeNull();
 			await tdb()('elements').where({ dwelling_id: dwellingId }).update({ climate_id: null });
-			expect(await climates.deleteClimate(asMember(a.admin), c.id)).toBe(true);
+			expect(await climates.deleteClimate(asMember(a.admin), c.id, c.version)).toBe(true);
 			expect(await climates.getClimate(a.org.id, c.id)).toBeNull();
 		});
 	});
@@ -281,7 +285,7 @@ describe.skipIf(!hasDatabase)('climates', async () => {
 				reference: `D-${c.id.slice(0, 6)}`,
 				climate_id: c.id
 			});
-			const r = await call(one.DELETE, t.admin, 'DELETE', `/api/v1/climates/${c.id}`, {
+			const r = await call(one.DELETE, t.admin, 'DELETE', `/api/v1/climates/${c.id}?version=${c.version}`, {
 				params: { climateId: c.id }
 			});
 			expect(r.status).toBe(409);

@@ -65,12 +65,16 @@ describe.skipIf(!hasDatabase)('limit tables', async () => {
 			reference: 'LT-1',
 			limit_table_id: other.id
 		});
-		await expect(lt.deleteLimitTable(admin, other.id)).rejects.toThrow(/"Other \(1\)" is used by 1 dwelling/);
-		await expect(lt.deleteLimitTable(admin, def.id)).rejects.toThrow(/make another table the default/);
+		await expect(lt.deleteLimitTable(admin, other.id, other.version)).rejects.toThrow(
+			/"Other \(1\)" is used by 1 dwelling/
+		);
+		await expect(lt.deleteLimitTable(admin, def.id, def.version)).rejects.toThrow(
+			/make another table the default/
+		);
 		await tdb()('dwellings').where({ organisation_id: t.org.id }).update({ limit_table_id: null });
-		expect(await lt.deleteLimitTable(admin, other.id)).toBe(true);
+		expect(await lt.deleteLimitTable(admin, other.id, other.version)).toBe(true);
 		// the only table, with dwellings judged against it
-		await expect(lt.deleteLimitTable(admin, def.id)).rejects.toThrow(/only limit table/);
+		await expect(lt.deleteLimitTable(admin, def.id, def.version)).rejects.toThrow(/only limit table/);
 		expect(await lt.getLimitTable(t.org.id, def.id)).not.toBeNull();
 	});
 
@@ -124,7 +128,13 @@ describe.skipIf(!hasDatabase)('limit tables', async () => {
 		const b = await lt.createLimitTable(asMember(t.admin), { name: 'B', edition: '1', limits: LIMITS });
 		const put = await call(one.PUT, t.admin, 'PUT', `/api/v1/limit-tables/${b.id}`, {
 			params: { limitTableId: b.id },
-			body: { name: 'B', edition: '2', source: 'A test document, table 1', limits: { ...LIMITS, door: 1.8 } }
+			body: {
+				name: 'B',
+				edition: '2',
+				source: 'A test document, table 1',
+				limits: { ...LIMITS, door: 1.8 },
+				version: b.version
+			}
 		});
 		expect(put.status).toBe(200);
 		expect(put.json).toMatchObject({ edition: '2', isDefault: false, limits: { door: 1.8 } });
@@ -173,14 +183,14 @@ describe.skipIf(!hasDatabase)('limit tables', async () => {
 		// a new edition name with the same limits judges nobody differently: no confirmation needed
 		const renamed = await call(one.PUT, t.admin, 'PUT', url, {
 			params,
-			body: { name: 'B', edition: '1a', limits: LIMITS }
+			body: { name: 'B', edition: '1a', limits: LIMITS, version: 1 }
 		});
 		expect(renamed.status).toBe(200);
 		// a changed limit without confirm: 409 with the count and the changes, nothing saved
 		const newLimits = { ...LIMITS, 'external-wall': 0.28 };
 		const refused = await call(one.PUT, t.admin, 'PUT', url, {
 			params,
-			body: { name: 'B', edition: '2', limits: newLimits }
+			body: { name: 'B', edition: '2', limits: newLimits, version: 2 }
 		});
 		expect(refused.status).toBe(409);
 		expect(refused.json).toMatchObject({
@@ -194,13 +204,13 @@ describe.skipIf(!hasDatabase)('limit tables', async () => {
 		expect((await lt.getLimitTable(t.org.id, b.id))?.limits).toEqual(LIMITS);
 		const badConfirm = await call(one.PUT, t.admin, 'PUT', url, {
 			params,
-			body: { name: 'B', edition: '2', limits: newLimits, confirm: 'yes' }
+			body: { name: 'B', edition: '2', limits: newLimits, confirm: 'yes', version: 2 }
 		});
 		expect(badConfirm.status).toBe(400);
 		expect(badConfirm.json.issues).toEqual([{ path: 'confirm', message: 'confirm must be true or false' }]);
 		const saved = await call(one.PUT, t.admin, 'PUT', url, {
 			params,
-			body: { name: 'B', edition: '2', limits: newLimits, confirm: true }
+			body: { name: 'B', edition: '2', limits: newLimits, confirm: true, version: 2 }
 		});
 		expect(saved.status).toBe(200);
 		expect(saved.json.limits).toEqual(newLimits);
@@ -218,7 +228,12 @@ describe.skipIf(!hasDatabase)('limit tables', async () => {
 
 		// the default judges the dwellings naming no table; the page form needs its box ticked
 		await expect(
-			lt.updateLimitTable(asMember(t.admin), a.id, { name: 'A', edition: '1', limits: { window: 1.4 } })
+			lt.updateLimitTable(asMember(t.admin), a.id, {
+				name: 'A',
+				edition: '1',
+				limits: { window: 1.4 },
+				version: a.version
+			})
 		).rejects.toThrow("used by 2 dwellings as the organisation's default;");
 		const page =
 			await import('../../../src/routes/(app)/organisation/limit-tables/[limitTableId=uuid]/+page.server');
@@ -232,6 +247,7 @@ describe.skipIf(!hasDatabase)('limit tables', async () => {
 			fd.set('name', 'A');
 			fd.set('edition', '1');
 			fd.set('limit.window', '1.4');
+			fd.set('version', String(a.version));
 			if (confirm) fd.set('confirm', 'on');
 			const path = `/organisation/limit-tables/${a.id}`;
 			return page.actions.update({

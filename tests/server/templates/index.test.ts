@@ -118,24 +118,35 @@ describe.skipIf(!hasDatabase)('templates', async () => {
 		});
 		const params = { templateId: mine.id };
 		const url = `/api/v1/templates/${mine.id}`;
-		const denied = await call(one.PATCH, second, 'PATCH', url, { params, body: { name: 'Taken over' } });
+		const denied = await call(one.PATCH, second, 'PATCH', url, {
+			params,
+			body: { name: 'Taken over', version: 1 }
+		});
 		expect(denied.status).toBe(403);
-		expect((await call(one.DELETE, second, 'DELETE', url, { params })).status).toBe(403);
-		expect((await call(one.PATCH, t.supervisor, 'PATCH', url, { params, body: { name: 'x' } })).status).toBe(
-			403
-		);
-		const own = await call(one.PATCH, t.assessor, 'PATCH', url, { params, body: { description: 'Updated' } });
+		expect((await call(one.DELETE, second, 'DELETE', `${url}?version=1`, { params })).status).toBe(403);
+		expect(
+			(await call(one.PATCH, t.supervisor, 'PATCH', url, { params, body: { name: 'x', version: 1 } })).status
+		).toBe(403);
+		const own = await call(one.PATCH, t.assessor, 'PATCH', url, {
+			params,
+			body: { description: 'Updated', version: 1 }
+		});
 		expect(own.status).toBe(200);
 		expect(own.json).toMatchObject({ name: 'Mine', description: 'Updated' });
 		const badPatch = await call(one.PATCH, t.admin, 'PATCH', url, {
 			params,
-			body: { buildUp: { layers: [{ name: 'x' }] } }
+			body: { buildUp: { layers: [{ name: 'x' }] }, version: 2 }
 		});
 		expect(badPatch.status).toBe(400);
 		expect(
-			(await call(one.PATCH, t.admin, 'PATCH', url, { params, body: { name: 'Renamed by admin' } })).json.name
+			(
+				await call(one.PATCH, t.admin, 'PATCH', url, {
+					params,
+					body: { name: 'Renamed by admin', version: 2 }
+				})
+			).json.name
 		).toBe('Renamed by admin');
-		expect((await call(one.DELETE, t.admin, 'DELETE', url, { params })).status).toBe(204);
+		expect((await call(one.DELETE, t.admin, 'DELETE', `${url}?version=3`, { params })).status).toBe(204);
 		expect(await templates.getTemplate(t.org.id, mine.id)).toBeNull();
 		const log = await tdb()('activity_log')
 			.where({ organisation_id: t.org.id, entity: 'template' })

@@ -1,8 +1,21 @@
 import { db, type Db } from '$lib/server/db';
 import { activityLog } from '$lib/server/activity';
 import type { Member } from '$lib/server/guard';
-import { climateInputSchema, type ClimateInput } from '$lib/climates/schema';
-import { ConflictError, pgCode, PG_FOREIGN_KEY_VIOLATION, uniqueViolationAs } from '$lib/server/errors';
+import {
+	climateInputSchema,
+	climateUpdateSchema,
+	type ClimateInput,
+	type ClimateUpdate
+} from '$lib/climates/schema';
+import {
+	ConflictError,
+	ValidationError,
+	assertVersion,
+	pgCode,
+	PG_FOREIGN_KEY_VIOLATION,
+	uniqueViolationAs
+} from '$lib/server/errors';
+import { fieldIssues } from '$lib/validation';
 
 /** An organisation's climates: twelve months of external conditions with their source. */
 
@@ -82,13 +95,26 @@ export async function createClimate(member: Member, input: ClimateInput, trx?: D
 	return trx ? write(trx) : db.transaction(write);
 }
 
+/** The climate's row, locked until the transaction ends. */
+const lockedRow = (t: Db, organisationId: string, id: string) =>
+	t('climates').where({ organisation_id: organisationId, id }).forUpdate().first();
+
+/**
+ * Replaces the climate's fields; `version` must be the one the caller loaded, else 409 with the version
+ * now stored and nothing is written. Null when there is no such climate in the organisation.
+ */
 export async function updateClimate(
 	member: Member,
 	id: string,
-	input: ClimateInput
+	input: ClimateUpdate
 ): Promise<Climate | null> {
-	const data = climateInputSchema.parse(input);
+	const parsed = climateUpdateSchema.safeParse(input);
+	if (!parsed.success) throw new ValidationError(fieldIssues(parsed.error));
+	const { version, ...data } = parsed.data;
 	return db.transaction(async (t) => {
+		const current = await lockedRow(t, member.organisationId, id);
+		if (!current) return null;
+		assertVersion(current.version, version);
 		try {
 			const [row] = await t('climates')
 				.where({ organisation_id: member.organisationId, id })
@@ -97,11 +123,11 @@ export async function updateClimate(
 					source: data.source,
 					illustrative: data.illustrative,
 					months: JSON.stringify(data.months),
+					version: current.version + 1,
 					updated_at: t.fn.now()
 				})
 				.returning('*');
-			if (!row) return null;
-			await log(member, 'update', id, { name: data.name }, t);
+			await log(member, 'update', id, { name: data.name, version: row.version }, t);
 			return toClimate(row);
 		} catch (e) {
 			throw nameTaken(e, data.name);
@@ -109,11 +135,15 @@ export async function updateClimate(
 	});
 }
 
-/** Deletes a climate no dwelling or element names; returns false when there is no such climate. */
-export async function deleteClimate(member: Member, id: string): Promise<boolean> {
+/**
+ * Deletes a climate no dwelling or element names; `version` must be the one the caller loaded (else
+ * 409). Returns false when there is no such climate.
+ */
+export async function deleteClimate(member: Member, id: string, version: number): Promise<boolean> {
 	return db.transaction(async (t) => {
-		const row = await t('climates').where({ organisation_id: member.organisationId, id }).forUpdate().first();
+		const row = await lockedRow(t, member.organisationId, id);
 		if (!row) return false;
+		assertVersion(row.version, version);
 		const usage = await getClimateUsage(member.organisationId, id, t);
 		if (usage.dwellings + usage.elements > 0) throw inUse(row.name, usage);
 		try {
@@ -148,6 +178,7 @@ function toClimate(r: Record<string, any>): Climate {
 		source: r.source,
 		illustrative: r.illustrative,
 		months: r.months,
+		version: r.version,
 		createdAt: new Date(r.created_at).toISOString(),
 		updatedAt: new Date(r.updated_at).toISOString()
 	};
@@ -160,6 +191,8 @@ export type Climate = {
 	source: string;
 	illustrative: boolean;
 	months: ClimateMonth[];
+	/** raised by one on every update; a save states the version it loaded */
+	version: number;
 	createdAt: string;
 	updatedAt: string;
 };

@@ -2,7 +2,7 @@
  * OpenAPI 3.1 path items for climates, with JSON schemas generated from the same zod schemas the
  * endpoints validate with. Merged into /api/v1/openapi.json.
  */
-import { climateInputSchema } from '$lib/climates/schema';
+import { climateInputSchema, climateUpdateSchema } from '$lib/climates/schema';
 import {
 	common,
 	conflict,
@@ -16,7 +16,27 @@ import {
 	withMeta
 } from '$lib/server/openapi-kit';
 
-const climate = withMeta(schema(climateInputSchema, 'output'));
+/** A stale save or delete: somebody changed the record since the caller loaded it. */
+const currentVersion = {
+	currentVersion: { type: 'integer', description: 'the version now stored, when the version sent is stale' }
+};
+/** `?version=N` of a DELETE: the version the caller loaded. */
+const versionQuery = {
+	name: 'version',
+	in: 'query',
+	required: true,
+	description: 'the version you loaded; 409 with currentVersion when it is stale',
+	schema: { type: 'integer', minimum: 1 }
+};
+/** A stored record with its version, raised by one on every update. */
+const versioned = (s: Record<string, unknown>) => ({
+	allOf: [
+		s,
+		{ type: 'object', properties: { version: { type: 'integer', minimum: 1 } }, required: ['version'] }
+	]
+});
+
+const climate = versioned(withMeta(schema(climateInputSchema, 'output')));
 const tags = ['Climates'];
 
 export const paths: Record<string, unknown> = {
@@ -71,24 +91,29 @@ export const paths: Record<string, unknown> = {
 		},
 		put: {
 			tags,
-			summary: 'Replace a climate (admins)',
-			requestBody: jsonBody(climateInputSchema),
+			summary: 'Replace a climate (admins); send the version you loaded',
+			requestBody: jsonBody(climateUpdateSchema),
 			responses: {
 				'200': ok('The climate.', climate),
 				...invalid(),
 				...common,
 				...notFound(),
-				...conflict('Name taken.')
+				...conflict(
+					'Name taken, or a stale version (changed by someone else since you loaded it).',
+					currentVersion
+				)
 			}
 		},
 		delete: {
 			tags,
 			summary: 'Delete a climate (admins)',
+			parameters: [versionQuery],
 			responses: {
 				'204': ok('Deleted.'),
+				...invalid('No ?version= given.'),
 				...common,
 				...notFound(),
-				...conflict('A dwelling or element uses it.')
+				...conflict('A dwelling or element uses it, or a stale version.', currentVersion)
 			}
 		}
 	}

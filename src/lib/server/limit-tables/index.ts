@@ -3,8 +3,21 @@ import { db, type Db } from '$lib/server/db';
 import { activityLog } from '$lib/server/activity';
 import type { Member } from '$lib/server/guard';
 import { type ElementKind } from '$lib/dwellings/kinds';
-import { limitTableInputSchema, type LimitTableInput } from '$lib/limit-tables/schema';
-import { ConflictError, pgCode, PG_FOREIGN_KEY_VIOLATION, uniqueViolationAs } from '$lib/server/errors';
+import {
+	limitTableInputSchema,
+	limitTableUpdateSchema,
+	type LimitTableInput,
+	type LimitTableUpdate
+} from '$lib/limit-tables/schema';
+import {
+	ConflictError,
+	ValidationError,
+	assertVersion,
+	pgCode,
+	PG_FOREIGN_KEY_VIOLATION,
+	uniqueViolationAs
+} from '$lib/server/errors';
+import { fieldIssues } from '$lib/validation';
 
 /**
  * Limit tables: maximum U by element kind, per jurisdiction or scheme. One per organisation is the
@@ -34,11 +47,11 @@ const defaultRow = (trx: Db, organisationId: string) =>
 const lockedRow = (t: Db, organisationId: string, id: string) =>
 	t('limit_tables').where({ organisation_id: organisationId, id }).forUpdate().first();
 
-/** The organisation's default is no longer the default (before another becomes it). */
+/** The organisation's default is no longer the default (before another becomes it): an update, so its version goes up. */
 const unsetDefault = (t: Db, organisationId: string) =>
 	t('limit_tables')
 		.where({ organisation_id: organisationId, is_default: true })
-		.update({ is_default: false, updated_at: t.fn.now() });
+		.update({ is_default: false, version: t.raw('version + 1'), updated_at: t.fn.now() });
 
 export async function getLimitTable(
 	organisationId: string,
@@ -200,19 +213,23 @@ export class LimitChangeNeedsConfirm extends ConflictError {
 
 /**
  * Replaces a table's fields; `isDefault: true` makes it the default, `false` is ignored (set another
- * instead). Changing a limit of a table that dwellings are judged against (or of the default) is refused
+ * instead). `version` must be the one the caller loaded, else 409 with the version now stored and nothing
+ * is written. Changing a limit of a table that dwellings are judged against (or of the default) is refused
  * with {@link LimitChangeNeedsConfirm} unless `confirm` is true; the log keeps the old and new limits.
  */
 export async function updateLimitTable(
 	member: Member,
 	id: string,
-	input: LimitTableInput,
+	input: LimitTableUpdate,
 	opts: { confirm?: boolean } = {}
 ): Promise<LimitTable | null> {
-	const data = limitTableInputSchema.parse(input);
+	const parsed = limitTableUpdateSchema.safeParse(input);
+	if (!parsed.success) throw new ValidationError(fieldIssues(parsed.error));
+	const { version, ...data } = parsed.data;
 	return db.transaction(async (t) => {
 		const current = await lockedRow(t, member.organisationId, id);
 		if (!current) return null;
+		assertVersion(current.version, version);
 		const previousLimits: Partial<Record<ElementKind, number>> = current.limits ?? {};
 		const changes = limitChanges(previousLimits, data.limits);
 		const usage = (await limitTableUsage(member.organisationId, id, t))!;
@@ -235,6 +252,7 @@ export async function updateLimitTable(
 					source: data.source,
 					is_default: current.is_default || data.isDefault === true,
 					limits: JSON.stringify(data.limits),
+					version: current.version + 1,
 					updated_at: t.fn.now()
 				})
 				.returning('*');
@@ -245,6 +263,7 @@ export async function updateLimitTable(
 				{
 					name: data.name,
 					edition: data.edition,
+					version: current.version + 1,
 					previousLimits,
 					limits: data.limits,
 					changes,
@@ -269,7 +288,7 @@ export async function setDefaultLimitTable(member: Member, id: string): Promise<
 		await unsetDefault(t, member.organisationId);
 		const [row] = await t('limit_tables')
 			.where({ organisation_id: member.organisationId, id })
-			.update({ is_default: true, updated_at: t.fn.now() })
+			.update({ is_default: true, version: current.version + 1, updated_at: t.fn.now() })
 			.returning('*');
 		await log(member, 'set-default', id, { name: row.name, edition: row.edition }, t);
 		return toLimitTable(row);
@@ -277,13 +296,15 @@ export async function setDefaultLimitTable(member: Member, id: string): Promise<
 }
 
 /**
- * Deletes a table that no dwelling names. The default is refused while other tables exist (dwellings
- * without a table of their own are judged against it): make another the default first.
+ * Deletes a table that no dwelling names; `version` must be the one the caller loaded (else 409). The
+ * default is refused while other tables exist (dwellings without a table of their own are judged against
+ * it): make another the default first.
  */
-export async function deleteLimitTable(member: Member, id: string): Promise<boolean> {
+export async function deleteLimitTable(member: Member, id: string, version: number): Promise<boolean> {
 	return db.transaction(async (t) => {
 		const row = await lockedRow(t, member.organisationId, id);
 		if (!row) return false;
+		assertVersion(row.version, version);
 		const label = `${row.name} (${row.edition})`;
 		const [{ n }] = await t('dwellings')
 			.where({ organisation_id: member.organisationId, limit_table_id: id })
@@ -364,6 +385,7 @@ function toLimitTable(r: Record<string, any>): LimitTable {
 		source: r.source ?? null,
 		isDefault: r.is_default,
 		limits: r.limits ?? {},
+		version: r.version,
 		createdAt: new Date(r.created_at).toISOString(),
 		updatedAt: new Date(r.updated_at).toISOString()
 	};
@@ -379,6 +401,8 @@ export type LimitTable = {
 	isDefault: boolean;
 	/** maximum U in W/(m²·K) by element kind */
 	limits: Partial<Record<ElementKind, number>>;
+	/** raised by one on every update (making another table the default included); a save states the version it loaded */
+	version: number;
 	createdAt: string;
 	updatedAt: string;
 };

@@ -2,7 +2,7 @@
  * OpenAPI 3.1 path items for limit tables, with JSON schemas generated from the same zod schemas the
  * endpoints validate with. Merged into /api/v1/openapi.json.
  */
-import { limitTableInputSchema } from '$lib/limit-tables/schema';
+import { limitTableInputSchema, limitTableUpdateSchema } from '$lib/limit-tables/schema';
 import {
 	common,
 	conflict,
@@ -16,7 +16,27 @@ import {
 	withMeta
 } from '$lib/server/openapi-kit';
 
-const limitTable = withMeta(schema(limitTableInputSchema, 'output'));
+/** A stale save or delete: somebody changed the record since the caller loaded it. */
+const currentVersion = {
+	currentVersion: { type: 'integer', description: 'the version now stored, when the version sent is stale' }
+};
+/** `?version=N` of a DELETE: the version the caller loaded. */
+const versionQuery = {
+	name: 'version',
+	in: 'query',
+	required: true,
+	description: 'the version you loaded; 409 with currentVersion when it is stale',
+	schema: { type: 'integer', minimum: 1 }
+};
+/** A stored record with its version, raised by one on every update. */
+const versioned = (s: Record<string, unknown>) => ({
+	allOf: [
+		s,
+		{ type: 'object', properties: { version: { type: 'integer', minimum: 1 } }, required: ['version'] }
+	]
+});
+
+const limitTable = versioned(withMeta(schema(limitTableInputSchema, 'output')));
 const tags = ['Limit tables'];
 
 export const paths: Record<string, unknown> = {
@@ -47,12 +67,13 @@ export const paths: Record<string, unknown> = {
 		},
 		put: {
 			tags,
-			summary: 'Replace a limit table (admins); isDefault: true makes it the default',
+			summary:
+				'Replace a limit table (admins); isDefault: true makes it the default; send the version you loaded',
 			description:
-				'Changing the limits of a table that dwellings are judged against (or of the default) needs `confirm: true`; without it the answer is 409 with `needsConfirm`, the number of dwellings and the changed limits, and nothing is saved.',
+				'A stale `version` (somebody saved in between) is answered 409 with `currentVersion`. Changing the limits of a table that dwellings are judged against (or of the default) needs `confirm: true`; without it the answer is 409 with `needsConfirm`, the number of dwellings and the changed limits, and nothing is saved.',
 			requestBody: jsonBody({
 				allOf: [
-					schema(limitTableInputSchema),
+					schema(limitTableUpdateSchema),
 					{ type: 'object', properties: { confirm: { type: 'boolean' } } }
 				]
 			}),
@@ -61,17 +82,37 @@ export const paths: Record<string, unknown> = {
 				...invalid(),
 				...common,
 				...notFound(),
-				...conflict('Name taken, or new limits for a table in use not confirmed (needsConfirm).')
+				...conflict(
+					'Name taken, a stale version (currentVersion), or new limits for a table in use not confirmed (needsConfirm).',
+					{
+						...currentVersion,
+						needsConfirm: { type: 'boolean' },
+						dwellings: { type: 'integer', description: 'dwellings judged against the table' },
+						changes: {
+							type: 'array',
+							items: {
+								type: 'object',
+								properties: {
+									kind: { type: 'string' },
+									from: { type: ['number', 'null'] },
+									to: { type: ['number', 'null'] }
+								}
+							}
+						}
+					}
+				)
 			}
 		},
 		delete: {
 			tags,
 			summary: 'Delete a limit table (admins)',
+			parameters: [versionQuery],
 			responses: {
 				'204': ok('Deleted.'),
+				...invalid('No ?version= given.'),
 				...common,
 				...notFound(),
-				...conflict('A dwelling uses it, or it is the default.')
+				...conflict('A dwelling uses it, it is the default, or a stale version.', currentVersion)
 			}
 		}
 	},

@@ -2,9 +2,16 @@ import { containsPattern, db, type Db } from '$lib/server/db';
 import { activityLog } from '$lib/server/activity';
 import type { Member } from '$lib/server/guard';
 import { type ElementKind } from '$lib/dwellings/kinds';
-import { templateInputSchema, templatePatchSchema, type TemplateInput } from '$lib/templates/schema';
+import { templateInputSchema, templatePatchSchema, type TemplatePatch } from '$lib/templates/schema';
 import { type StoredBuildUp as BuildUp } from '$lib/dwellings/element-input';
-import { ConflictError, ForbiddenError, uniqueViolationAs } from '$lib/server/errors';
+import {
+	ConflictError,
+	ForbiddenError,
+	ValidationError,
+	assertVersion,
+	uniqueViolationAs
+} from '$lib/server/errors';
+import { fieldIssues } from '$lib/validation';
 
 /**
  * Templates: reusable build-ups an element can start from. Any assessor or admin may save one;
@@ -86,18 +93,29 @@ export function canEditTemplate(
 
 const NOT_YOURS = 'Only an admin or the person who saved this template can change or delete it.';
 
-/** Changes some fields; null when there is no such template in the organisation. */
+/** The template's id and version, its row locked until the transaction ends. */
+const lockedRow = (t: Db, organisationId: string, id: string) =>
+	t('templates').where({ organisation_id: organisationId, id }).forUpdate().first('id', 'version');
+
+/**
+ * Changes some fields; `version` must be the one the caller loaded, else 409 with the version now stored
+ * and nothing is written. Null when there is no such template in the organisation.
+ */
 export async function updateTemplate(
 	member: Member,
 	id: string,
-	patch: Partial<TemplateInput>
+	patch: TemplatePatch
 ): Promise<Template | null> {
-	const data = templatePatchSchema.parse(patch);
+	const parsed = templatePatchSchema.safeParse(patch);
+	if (!parsed.success) throw new ValidationError(fieldIssues(parsed.error));
+	const { version, ...data } = parsed.data;
 	return db.transaction(async (t) => {
-		const current = await getTemplate(member.organisationId, id, t);
-		if (!current) return null;
+		const locked = await lockedRow(t, member.organisationId, id);
+		if (!locked) return null;
+		const current = (await getTemplate(member.organisationId, id, t))!;
 		if (!canEditTemplate(member, current)) throw new ForbiddenError(NOT_YOURS);
-		const changes: Record<string, unknown> = { updated_at: t.fn.now() };
+		assertVersion(locked.version, version);
+		const changes: Record<string, unknown> = { version: locked.version + 1, updated_at: t.fn.now() };
 		if (data.name !== undefined) changes.name = data.name;
 		if (data.kind !== undefined) changes.kind = data.kind;
 		if (data.description !== undefined) changes.description = data.description;
@@ -107,16 +125,19 @@ export async function updateTemplate(
 		} catch (e) {
 			throw nameTaken(e, data.name ?? current.name);
 		}
-		await log(member, 'update', id, { fields: Object.keys(data) }, t);
+		await log(member, 'update', id, { fields: Object.keys(data), version: locked.version + 1 }, t);
 		return getTemplate(member.organisationId, id, t);
 	});
 }
 
-export async function deleteTemplate(member: Member, id: string): Promise<boolean> {
+/** Deletes the template; `version` must be the one the caller loaded (else 409). False when there is none. */
+export async function deleteTemplate(member: Member, id: string, version: number): Promise<boolean> {
 	return db.transaction(async (t) => {
-		const current = await getTemplate(member.organisationId, id, t);
-		if (!current) return false;
+		const locked = await lockedRow(t, member.organisationId, id);
+		if (!locked) return false;
+		const current = (await getTemplate(member.organisationId, id, t))!;
 		if (!canEditTemplate(member, current)) throw new ForbiddenError(NOT_YOURS);
+		assertVersion(locked.version, version);
 		await t('templates').where({ organisation_id: member.organisationId, id }).delete();
 		await log(member, 'delete', id, { name: current.name, kind: current.kind }, t);
 		return true;
@@ -135,6 +156,7 @@ function toTemplate(r: Record<string, any>): Template {
 		kind: r.kind,
 		description: r.description ?? null,
 		buildUp: r.build_up,
+		version: r.version,
 		createdBy: r.created_by
 			? { id: r.created_by, name: r.created_by_name ?? r.created_by_email ?? null }
 			: null,
@@ -149,6 +171,8 @@ export type Template = {
 	kind: ElementKind;
 	description: string | null;
 	buildUp: BuildUp;
+	/** raised by one on every update; a save states the version it loaded */
+	version: number;
 	createdBy: { id: string; name: string | null } | null;
 	createdAt: string;
 	updatedAt: string;

@@ -17,20 +17,42 @@ import {
 	withMeta
 } from '$lib/server/openapi-kit';
 
-const template = withMeta({
+/** A stale save or delete: somebody changed the record since the caller loaded it. */
+const currentVersion = {
+	currentVersion: { type: 'integer', description: 'the version now stored, when the version sent is stale' }
+};
+/** `?version=N` of a DELETE: the version the caller loaded. */
+const versionQuery = {
+	name: 'version',
+	in: 'query',
+	required: true,
+	description: 'the version you loaded; 409 with currentVersion when it is stale',
+	schema: { type: 'integer', minimum: 1 }
+};
+/** A stored record with its version, raised by one on every update. */
+const versioned = (s: Record<string, unknown>) => ({
 	allOf: [
-		schema(templateInputSchema, 'output'),
-		{
-			type: 'object',
-			properties: {
-				createdBy: {
-					type: ['object', 'null'],
-					properties: { id: { type: 'string' }, name: { type: ['string', 'null'] } }
-				}
-			}
-		}
+		s,
+		{ type: 'object', properties: { version: { type: 'integer', minimum: 1 } }, required: ['version'] }
 	]
 });
+
+const template = versioned(
+	withMeta({
+		allOf: [
+			schema(templateInputSchema, 'output'),
+			{
+				type: 'object',
+				properties: {
+					createdBy: {
+						type: ['object', 'null'],
+						properties: { id: { type: 'string' }, name: { type: ['string', 'null'] } }
+					}
+				}
+			}
+		]
+	})
+);
 const tags = ['Templates'];
 
 export const paths: Record<string, unknown> = {
@@ -79,26 +101,45 @@ export const paths: Record<string, unknown> = {
 		},
 		patch: {
 			tags,
-			summary: 'Change a template (its author or an admin)',
+			summary: 'Change a template (its author or an admin); send the version you loaded',
 			requestBody: jsonBody(templatePatchSchema),
 			responses: {
 				'200': ok('The template.', template),
 				...invalid(),
 				...common,
 				...notFound(),
-				...conflict('Name taken.')
+				...conflict(
+					'Name taken, or a stale version (changed by someone else since you loaded it).',
+					currentVersion
+				)
 			}
 		},
 		put: {
 			tags,
 			summary: 'Same as PATCH',
 			requestBody: jsonBody(templatePatchSchema),
-			responses: { '200': ok('The template.', template), ...invalid(), ...common, ...notFound() }
+			responses: {
+				'200': ok('The template.', template),
+				...invalid(),
+				...common,
+				...notFound(),
+				...conflict(
+					'Name taken, or a stale version (changed by someone else since you loaded it).',
+					currentVersion
+				)
+			}
 		},
 		delete: {
 			tags,
 			summary: 'Delete a template (its author or an admin)',
-			responses: { '204': ok('Deleted.'), ...common, ...notFound() }
+			parameters: [versionQuery],
+			responses: {
+				'204': ok('Deleted.'),
+				...invalid('No ?version= given.'),
+				...common,
+				...notFound(),
+				...conflict('A stale version (changed by someone else since you loaded it).', currentVersion)
+			}
 		}
 	}
 };

@@ -5,12 +5,27 @@ import { parseClimateCsv } from '$lib/server/climates/import';
 import { climateInputSchema } from '$lib/climates/schema';
 import { climateFromForm, climateFormValues } from '$lib/climates/form';
 import { formErrors } from '$lib/validation';
-import { ConflictError } from '$lib/server/errors';
+import { nameTaken } from '../_name-taken';
 
 export const load = async (event) => {
 	const member = requireMember(event);
 	return { climates: await listClimates(member.organisationId) };
 };
+
+/** Saves the new climate and shows its page; a name already taken is refused with `form` kept. */
+async function saveAndShow<T extends object>(
+	member: Parameters<typeof createClimate>[0],
+	input: Parameters<typeof createClimate>[1],
+	form: T
+) {
+	let id: string;
+	try {
+		id = (await createClimate(member, input)).id;
+	} catch (e) {
+		return nameTaken(e, form);
+	}
+	redirect(303, `/climates/${id}?created=1`);
+}
 
 export const actions = {
 	create: async function create(event) {
@@ -21,20 +36,7 @@ export const actions = {
 		if (!input.success) {
 			return fail(400, { action: 'create' as const, values, errors: formErrors(input.error) });
 		}
-		let id: string;
-		try {
-			id = (await createClimate(member, input.data)).id;
-		} catch (e) {
-			if (e instanceof ConflictError) {
-				return fail(409, {
-					action: 'create' as const,
-					values,
-					errors: { name: e.message } as Record<string, string>
-				});
-			}
-			throw e;
-		}
-		redirect(303, `/climates/${id}?created=1`);
+		return saveAndShow(member, input.data, { action: 'create' as const, values });
 	},
 
 	import: async function importCsv(event) {
@@ -76,20 +78,6 @@ export const actions = {
 				problems: parsed.ok ? [] : parsed.problems.map((p) => p.message)
 			});
 		}
-		let id: string;
-		try {
-			id = (await createClimate(member, input.data)).id;
-		} catch (e) {
-			if (e instanceof ConflictError) {
-				return fail(409, {
-					action: 'import' as const,
-					values,
-					errors: { name: e.message } as Record<string, string>,
-					problems: []
-				});
-			}
-			throw e;
-		}
-		redirect(303, `/climates/${id}?created=1`);
+		return saveAndShow(member, input.data, { action: 'import' as const, values, problems: [] });
 	}
 };

@@ -1,17 +1,12 @@
-import { error, fail } from '@sveltejs/kit';
+import { fail } from '@sveltejs/kit';
 import { requireMember, requireRole } from '$lib/server/guard';
-import { batchSummary, getBatch, listItems } from '$lib/server/audit';
 import { enqueueRecompute } from '$lib/server/audit/worker';
 import { uChartSvg } from '$lib/server/audit/chart';
+import { batchInFull, batchOr404 } from './_batch';
 
 export async function load(event) {
 	const member = requireMember(event);
-	const batch = await getBatch(member.organisationId, event.params.batchId);
-	if (!batch) error(404, 'No such batch.');
-	const [items, summary] = await Promise.all([
-		listItems(member.organisationId, batch.id),
-		batchSummary(member.organisationId, batch.id)
-	]);
+	const { batch, items, summary } = await batchInFull(member.organisationId, event.params.batchId);
 	return {
 		batch,
 		items,
@@ -25,8 +20,7 @@ export async function load(event) {
 export const actions = {
 	refresh: async (event) => {
 		const member = requireRole(event, 'supervisor', 'admin');
-		const batch = await getBatch(member.organisationId, event.params.batchId);
-		if (!batch) error(404, 'No such batch.');
+		const batch = await batchOr404(member.organisationId, event.params.batchId);
 		const state = await enqueueRecompute(member.organisationId, batch.id, member.user.id);
 		if (state === 'running') return fail(409, { message: 'A recompute of this batch is already running.' });
 		return { queued: true };

@@ -1,10 +1,7 @@
 import { fail, redirect } from '@sveltejs/kit';
 import { requireRole } from '$lib/server/guard';
 import { createMaterial, valuesFromForm } from '$lib/server/library';
-import { AppError, type FieldIssue } from '$lib/server/errors';
-
-/** Issues keyed by the library's field names, as the material form shows them. */
-const byField = (issues: FieldIssue[]) => issues.map((i) => ({ field: i.path, message: i.message }));
+import { materialRefused } from '../_material-refused';
 
 export const load = (event) => {
 	requireRole(event, 'assessor', 'admin');
@@ -24,14 +21,7 @@ export const actions = {
 				})
 			).id;
 		} catch (e) {
-			if (e instanceof AppError)
-				return fail(e.status, {
-					values: raw,
-					issues: byField(e.issues),
-					warnings: byField(e.warnings),
-					error: e.message
-				});
-			throw e;
+			return materialRefused(e, raw);
 		}
 		redirect(303, `/library/${id}`);
 	}

@@ -4,7 +4,7 @@ import { createLimitTable, listLimitTables } from '$lib/server/limit-tables';
 import { limitTableInputSchema } from '$lib/limit-tables/schema';
 import { formErrors } from '$lib/validation';
 import { limitTableFormValues, limitTableFromForm } from '$lib/limit-tables/form';
-import { ConflictError } from '$lib/server/errors';
+import { nameTaken } from '../../_name-taken';
 
 export const load = async (event) => {
 	const member = requireMember(event);
@@ -22,10 +22,7 @@ export const actions = {
 		try {
 			id = (await createLimitTable(member, input.data)).id;
 		} catch (e) {
-			if (e instanceof ConflictError) {
-				return fail(409, { values, errors: { name: e.message } as Record<string, string> });
-			}
-			throw e;
+			return nameTaken(e, { values });
 		}
 		redirect(303, `/organisation/limit-tables/${id}?created=1`);
 	}

@@ -9,10 +9,15 @@ import {
 } from '$lib/server/templates';
 import { templatePatchSchema } from '$lib/templates/schema';
 import { formErrors } from '$lib/validation';
+import { formNumber } from '$lib/forms';
 import { ConflictError, ForbiddenError } from '$lib/server/errors';
 import { templateU } from '../_u-value';
+import { nameTaken } from '../../_name-taken';
 
 const NOT_FOUND = 'No such template in your organisation.';
+/** The edit form always carries the version it was loaded with; without it the save cannot be checked. */
+const NO_VERSION =
+	'The form did not say which version of the template it was opened on; reload the page and try again.';
 
 export const load = async (event) => {
 	const member = requireMember(event);
@@ -35,16 +40,20 @@ export const actions = {
 			kind: String(fd.get('kind') ?? ''),
 			description: String(fd.get('description') ?? '')
 		};
-		const input = templatePatchSchema.safeParse(values);
-		if (!input.success) return fail(400, { values, errors: formErrors(input.error) });
+		const input = templatePatchSchema.safeParse({ ...values, version: formNumber(fd.get('version')) });
+		if (!input.success) {
+			const errors = formErrors(input.error);
+			return fail(400, { values, errors, refused: errors.version ? NO_VERSION : undefined });
+		}
 		try {
 			if (!(await updateTemplate(member, event.params.templateId, input.data))) error(404, NOT_FOUND);
 		} catch (e) {
-			if (e instanceof ConflictError) {
-				return fail(409, { values, errors: { name: e.message } as Record<string, string> });
-			}
 			if (e instanceof ForbiddenError) return fail(403, { refused: e.message });
-			throw e;
+			// Saved by someone else since this page was loaded: say so, and keep what was typed in the form.
+			if (e instanceof ConflictError && e.current !== undefined) {
+				return fail(409, { values, errors: {} as Record<string, string>, stale: e.message });
+			}
+			return nameTaken(e, { values });
 		}
 		return { done: 'Template saved.' };
 	},
@@ -68,10 +77,12 @@ export const actions = {
 	},
 	delete: async function remove(event) {
 		const member = requireRole(event, 'assessor', 'admin');
+		const version = Number((await event.request.formData()).get('version'));
 		try {
-			if (!(await deleteTemplate(member, event.params.templateId))) error(404, NOT_FOUND);
+			if (!(await deleteTemplate(member, event.params.templateId, version))) error(404, NOT_FOUND);
 		} catch (e) {
 			if (e instanceof ForbiddenError) return fail(403, { refused: e.message });
+			if (e instanceof ConflictError) return fail(409, { refused: e.message });
 			throw e;
 		}
 		redirect(303, '/templates');

@@ -1,17 +1,11 @@
-import { error } from '@sveltejs/kit';
 import { requireMember } from '$lib/server/guard';
-import { batchSummary, getBatch, listItems } from '$lib/server/audit';
 import { batchReportPdf } from '$lib/server/audit/pdf';
 import { logActivity } from '$lib/server/activity';
+import { batchFileName, batchInFull } from '../_batch';
 
 export async function GET(event) {
 	const member = requireMember(event);
-	const batch = await getBatch(member.organisationId, event.params.batchId);
-	if (!batch) error(404, 'No such batch.');
-	const [summary, items] = await Promise.all([
-		batchSummary(member.organisationId, batch.id),
-		listItems(member.organisationId, batch.id)
-	]);
+	const { batch, items, summary } = await batchInFull(member.organisationId, event.params.batchId);
 	const pdf = await batchReportPdf(
 		batch,
 		summary,
@@ -27,7 +21,7 @@ export async function GET(event) {
 		entityId: batch.id,
 		details: { items: items.length }
 	});
-	const name = batch.name.replace(/[^A-Za-z0-9._-]+/g, '-').slice(0, 60) || 'batch';
+	const name = batchFileName(batch.name);
 	return new Response(new Uint8Array(pdf), {
 		headers: {
 			'content-type': 'application/pdf',

@@ -1,14 +1,13 @@
-import { error } from '@sveltejs/kit';
 import { requireMember } from '$lib/server/guard';
-import { getBatch, listItems } from '$lib/server/audit';
+import { listItems } from '$lib/server/audit';
 import { batchCsv } from '$lib/server/audit/export';
+import { batchFileName, batchOr404 } from '../_batch';
 
 export async function GET(event) {
 	const member = requireMember(event);
-	const batch = await getBatch(member.organisationId, event.params.batchId);
-	if (!batch) error(404, 'No such batch.');
+	const batch = await batchOr404(member.organisationId, event.params.batchId);
 	const csv = batchCsv(await listItems(member.organisationId, batch.id));
-	const name = batch.name.replace(/[^A-Za-z0-9._-]+/g, '-').slice(0, 60) || 'batch';
+	const name = batchFileName(batch.name);
 	return new Response(csv, {
 		headers: {
 			'content-type': 'text/csv; charset=utf-8',

@@ -10,12 +10,16 @@ import {
 	setDefaultLimitTable,
 	updateLimitTable
 } from '$lib/server/limit-tables';
-import { limitTableInputSchema } from '$lib/limit-tables/schema';
+import { limitTableUpdateSchema } from '$lib/limit-tables/schema';
 import { formErrors } from '$lib/validation';
-import { limitTableFormValues, limitTableFromForm } from '$lib/limit-tables/form';
+import { limitTableFormValues, limitTableUpdateFromForm } from '$lib/limit-tables/form';
 import { ConflictError } from '$lib/server/errors';
+import { nameTaken } from '../../../_name-taken';
 
 const NOT_FOUND = 'No such limit table in your organisation.';
+/** The edit form always carries the version it was loaded with; without it the save cannot be checked. */
+const NO_VERSION =
+	'The form did not say which version of the limit table it was opened on; reload the page and try again.';
 
 export const load = async (event) => {
 	const member = requireMember(event);
@@ -41,8 +45,11 @@ export const actions = {
 		const member = requireRole(event, 'admin');
 		const fd = await event.request.formData();
 		const values = limitTableFormValues(fd);
-		const input = limitTableInputSchema.safeParse(limitTableFromForm(fd));
-		if (!input.success) return fail(400, { values, errors: formErrors(input.error) });
+		const input = limitTableUpdateSchema.safeParse(limitTableUpdateFromForm(fd));
+		if (!input.success) {
+			const errors = formErrors(input.error);
+			return fail(400, { values, errors, refused: errors.version ? NO_VERSION : undefined });
+		}
 		try {
 			const confirm = fd.get('confirm') === 'on';
 			if (!(await updateLimitTable(member, event.params.limitTableId, input.data, { confirm })))
@@ -57,10 +64,11 @@ export const actions = {
 					} as Record<string, string>
 				});
 			}
-			if (e instanceof ConflictError) {
-				return fail(409, { values, errors: { name: e.message } as Record<string, string> });
+			// Saved by someone else since this page was loaded: say so, and keep what was typed in the form.
+			if (e instanceof ConflictError && e.current !== undefined) {
+				return fail(409, { values, errors: {} as Record<string, string>, stale: e.message });
 			}
-			throw e;
+			return nameTaken(e, { values });
 		}
 		return { done: 'Limit table saved.' };
 	},
@@ -71,8 +79,9 @@ export const actions = {
 	},
 	delete: async function remove(event) {
 		const member = requireRole(event, 'admin');
+		const version = Number((await event.request.formData()).get('version'));
 		try {
-			if (!(await deleteLimitTable(member, event.params.limitTableId))) error(404, NOT_FOUND);
+			if (!(await deleteLimitTable(member, event.params.limitTableId, version))) error(404, NOT_FOUND);
 		} catch (e) {
 			if (e instanceof ConflictError) return fail(409, { refused: e.message });
 			throw e;
