@@ -57,13 +57,15 @@ const refusal = (message: string, field: string) => new ValidationError([{ path:
 
 /**
  * Invite someone by e-mail: creates the person when new and a membership with the role. The caller sends
- * the invitation e-mail after the transaction commits.
+ * the invitation e-mail after the transaction commits. An address that already belongs to another
+ * organisation is not added, and the answer (`elsewhere`) lets the caller reply exactly as for an
+ * invitation, so an admin cannot learn who has an account elsewhere; the person is told instead.
  */
 export async function inviteMember(
 	actor: { userId: string; organisationId: string },
 	input: { email: string; name?: string; role: Role },
 	trx?: Db
-): Promise<{ userId: string }> {
+): Promise<{ userId: string; outcome: 'invited' | 'elsewhere' }> {
 	const run = async (t: Db) => {
 		const email = input.email.trim().toLowerCase();
 		let user = await t('users').whereRaw('lower(email) = ?', [email]).first('id');
@@ -73,14 +75,10 @@ export async function inviteMember(
 				.returning('id');
 		}
 		const existing = await t('memberships').where({ user_id: user.id }).first('organisation_id');
-		if (existing) {
-			throw refusal(
-				existing.organisation_id === actor.organisationId
-					? `${email} is already a member of this organisation.`
-					: `${email} already belongs to another organisation.`,
-				'email'
-			);
+		if (existing && existing.organisation_id === actor.organisationId) {
+			throw refusal(`${email} is already a member of this organisation.`, 'email');
 		}
+		if (existing) return { userId: user.id as string, outcome: 'elsewhere' as const };
 		await t('memberships').insert({
 			organisation_id: actor.organisationId,
 			user_id: user.id,
@@ -98,7 +96,7 @@ export async function inviteMember(
 			},
 			t
 		);
-		return { userId: user.id as string };
+		return { userId: user.id as string, outcome: 'invited' as const };
 	};
 	return trx ? run(trx) : db.transaction(run);
 }

@@ -23,21 +23,35 @@ export const actions = {
 		const member = requireRole(event, 'admin');
 		const form = await superValidate(event.request, zod4(inviteSchema));
 		if (!form.valid) return fail(400, { inviteForm: form });
+		let outcome: 'invited' | 'elsewhere';
 		try {
-			await inviteMember({ userId: member.user.id, organisationId: member.organisationId }, form.data);
+			({ outcome } = await inviteMember(
+				{ userId: member.user.id, organisationId: member.organisationId },
+				form.data
+			));
 		} catch (e) {
 			if (e instanceof ValidationError) return setError(form, 'email', e.message);
 			throw e;
 		}
 		const signInUrl = appUrl('/signin');
+		const inviter = member.user.name ?? member.user.email;
+		// The admin's answer is the same either way; the person learns why they were not added.
+		const mail =
+			outcome === 'invited'
+				? {
+						subject: `You are invited to ${member.organisationName} on Envelo`,
+						text:
+							`${inviter} has added you to ${member.organisationName} on Envelo as ${form.data.role}.\n\n` +
+							`Sign in with this address at ${signInUrl} — Envelo e-mails you a link each time; there is no password.\n`
+					}
+				: {
+						subject: `An invitation to ${member.organisationName} on Envelo`,
+						text:
+							`${inviter} tried to add you to ${member.organisationName} on Envelo, but this address already belongs to another organisation there, and one address belongs to one organisation.\n\n` +
+							`If you want to join ${member.organisationName}, reply to ${inviter} with another address to invite. Nothing has changed for your current organisation.\n`
+					};
 		try {
-			await sendMail({
-				to: form.data.email.toLowerCase(),
-				subject: `You are invited to ${member.organisationName} on Envelo`,
-				text:
-					`${member.user.name ?? member.user.email} has added you to ${member.organisationName} on Envelo as ${form.data.role}.\n\n` +
-					`Sign in with this address at ${signInUrl} — Envelo e-mails you a link each time; there is no password.\n`
-			});
+			await sendMail({ to: form.data.email.toLowerCase(), ...mail });
 		} catch {
 			return message(
 				form,
