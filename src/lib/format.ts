@@ -57,11 +57,6 @@ export function monthName(m: number | null | undefined): string {
 	return m && m >= 1 && m <= 12 ? MONTH_NAMES[m - 1] : '—';
 }
 
-/** "Mar" for 3; "—" outside 1–12. */
-export function monthShort(m: number | null | undefined): string {
-	return m && m >= 1 && m <= 12 ? MONTHS[m - 1] : '—';
-}
-
 const two = (n: number) => String(n).padStart(2, '0');
 
 /** A calendar date in UTC, e.g. "3 March 2026" (issue dates). */

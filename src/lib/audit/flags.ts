@@ -64,10 +64,3 @@ export const ITEM_STATE_LABELS: Record<ItemState, string> = {
 	resubmitted: 'Resubmitted',
 	...DECISION_LABELS
 };
-
-export function worstSeverity(flags: readonly Flag[]): Severity | null {
-	let best: Severity | null = null;
-	for (const f of flags)
-		if (best === null || SEVERITY_RANK[f.severity] < SEVERITY_RANK[best]) best = f.severity;
-	return best;
-}

@@ -189,7 +189,6 @@ export function layerFromRow(r: EditRow): StoredLayer {
 
 /** Ground-floor inputs as typed (text). */
 export type GroundText = { perimeter: string; area: string; lambda: string; wall: string };
-export const blankGround = (): GroundText => ({ perimeter: '', area: '', lambda: '', wall: '' });
 
 export function groundText(g: StoredGround | undefined): GroundText {
 	return {

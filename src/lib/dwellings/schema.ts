@@ -63,11 +63,8 @@ export const dwellingFieldsSchema = z.object({
 	limitTableId: uuidOrNull,
 	climateId: uuidOrNull
 });
-export type DwellingFields = z.output<typeof dwellingFieldsSchema>;
-export type DwellingFieldsInput = z.input<typeof dwellingFieldsSchema>;
 
 export const dwellingUpdateSchema = dwellingFieldsSchema.partial().extend({ version: versionSchema });
-export type DwellingUpdate = z.output<typeof dwellingUpdateSchema>;
 
 export const dwellingCopySchema = z.object({
 	reference: text(60).min(1, 'is required'),
@@ -177,7 +174,6 @@ export const elementFieldsSchema = z.object({
 	internal: internalSchema.nullish()
 });
 export type ElementFields = z.output<typeof elementFieldsSchema>;
-export type ElementFieldsInput = z.input<typeof elementFieldsSchema>;
 
 export const elementUpdateSchema = elementFieldsSchema.extend({ version: versionSchema });
 

@@ -323,7 +323,6 @@ export const SORTS = [
 	'updated',
 	'-updated'
 ] as const;
-export type MaterialSort = (typeof SORTS)[number];
 
 /** Query of the list: the same filters for the page and GET /api/v1/materials. */
 export const listQuerySchema = z.object({

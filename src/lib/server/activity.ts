@@ -49,18 +49,3 @@ export function activityLog(entity: string) {
 			trx
 		);
 }
-
-export async function listActivity(
-	organisationId: string,
-	filter: { entity?: string; entityId?: string; limit?: number } = {}
-) {
-	const q = db('activity_log as a')
-		.leftJoin('users as u', 'u.id', 'a.user_id')
-		.where('a.organisation_id', organisationId)
-		.orderBy('a.id', 'desc')
-		.limit(filter.limit ?? 100)
-		.select('a.*', 'u.email as user_email', 'u.name as user_name');
-	if (filter.entity) q.andWhere('a.entity', filter.entity);
-	if (filter.entityId) q.andWhere('a.entity_id', filter.entityId);
-	return q;
-}

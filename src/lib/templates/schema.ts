@@ -21,7 +21,6 @@ export const templateInputSchema = z.object({
 	description: optionalText('description', 2000),
 	buildUp: storedBuildUpSchema
 });
-export type TemplateInput = z.input<typeof templateInputSchema>;
 
 /** A partial update of a template: any of its fields, and the version the caller loaded (a stale one is refused). */
 export const templatePatchSchema = templateInputSchema.partial().extend({ version: versionSchema });

@@ -352,7 +352,6 @@ export const elementOrderSchema = z.object({
 		.max(500, 'must list at most 500 elements'),
 	version: versionSchema
 });
-export type ElementOrder = z.output<typeof elementOrderSchema>;
 
 /**
  * Put the dwelling's elements in the given order (positions 0, 1, 2 …). `ids` must name each of the
