@@ -367,16 +367,16 @@ describe.skipIf(!hasDatabase)('reports', async () => {
 		expect(v).not.toBeNull();
 		// Four facts about the dwelling and its report, plus whether a later revision replaced it.
 		expect(Object.keys(v!).sort()).toEqual([
-			'assessor',
 			'dwellingReference',
 			'issuedAt',
+			'issuedBy',
 			'number',
 			'revision',
 			'supersededBy'
 		]);
 		expect(v!.supersededBy).toBeNull();
 		expect(v!.dwellingReference).toBe(s.dwelling.reference);
-		expect(v!.assessor).toContain('REG-T-0001');
+		expect(v!.issuedBy).toContain('REG-T-0001');
 		expect(await reports.verifyCode('ZZZZZZZZZZ')).toBeNull();
 		const pdf = (await reports.getReportPdf(s.team.org.id, issued.id))!.pdf;
 		expect(await reports.checkPdfAgainstCode(issued.verificationCode, pdf)).toBe('match');

@@ -29,6 +29,7 @@ import {
 	type FieldIssue
 } from '$lib/server/errors';
 import { exceedsLimit } from '$lib/limit-tables/rules';
+import { DECIDER_ROLES, decisionRefusal, type Involvement } from '$lib/audit/rules';
 
 export type { BatchProgress, BatchSource };
 
@@ -411,14 +412,60 @@ export const auditDwellings = (orgId: string, ids: string[]) => auditDwellingsWi
 
 /* ------------------------------------------------------------------ decisions */
 
-const DECIDERS = ['supervisor', 'admin'];
+/**
+ * Who is tied to a dwelling: its assessor, everyone its activity log names as its assessor (at creation
+ * or in a reassignment, before or after) and the issuer of each of its reports.
+ */
+export async function dwellingInvolvement(
+	organisationId: string,
+	dwellingId: string,
+	trx: Db = db
+): Promise<Involvement> {
+	const dwelling = await trx('dwellings')
+		.where({ organisation_id: organisationId, id: dwellingId })
+		.first('assessor_id');
+	const named = await trx('activity_log')
+		.where({ organisation_id: organisationId, entity: 'dwelling', entity_id: dwellingId })
+		.whereIn('action', ['create', 'reassign'])
+		.select(
+			trx.raw(`details->>'assessorId' as created_with`),
+			trx.raw(`details->'from'->>'id' as from_id`),
+			trx.raw(`details->'to'->>'id' as to_id`)
+		);
+	const reports = await trx('reports')
+		.where({ organisation_id: organisationId, dwelling_id: dwellingId })
+		.orderBy([{ column: 'issued_at' }, { column: 'revision' }])
+		.select('number', 'revision', 'issued_by');
+	const former = new Set<string>();
+	for (const r of named) for (const id of [r.created_with, r.from_id, r.to_id]) if (id) former.add(id);
+	return {
+		assessorId: (dwelling?.assessor_id as string | null) ?? null,
+		formerAssessorIds: [...former],
+		reports: reports.map((r) => ({
+			number: r.number as string,
+			revision: Number(r.revision),
+			issuedBy: r.issued_by as string
+		}))
+	};
+}
+
+/** Why `userId` may not decide on the dwelling (they assessed it or issued its report), or null. */
+export async function decisionRefusalFor(
+	organisationId: string,
+	dwellingId: string,
+	userId: string,
+	trx: Db = db
+): Promise<string | null> {
+	return decisionRefusal(userId, await dwellingInvolvement(organisationId, dwellingId, trx));
+}
 
 /**
  * Record a supervisor's decision on one dwelling: the item, the dwelling's status and a log row in one
  * transaction; a return then e-mails the assessor (a failed e-mail is logged, the decision stands).
+ * Nobody decides on a dwelling they assessed or issued (`decisionRefusal` in `$lib/audit/rules`; 403).
  */
 export async function decideItem(member: Member, itemId: string, input: DecisionInput): Promise<ItemRow> {
-	if (!DECIDERS.includes(member.role))
+	if (!DECIDER_ROLES.includes(member.role))
 		throw new ForbiddenError('Only supervisors and admins decide on audited dwellings.');
 	const orgId = member.organisationId;
 	await db.transaction(async (trx) => {
@@ -430,9 +477,13 @@ export async function decideItem(member: Member, itemId: string, input: Decision
 		if (!item) throw new NotFoundError('No such audit item.');
 		if (item.batch_status === 'closed')
 			throw new ConflictError('The batch is closed; reopen it to change decisions.');
+		// The dwelling row is locked so that its assessor cannot change under the check.
 		const dwelling = await trx('dwellings')
 			.where({ organisation_id: orgId, id: item.dwelling_id })
+			.forUpdate()
 			.first('id', 'reference', 'address', 'assessor_id', 'status');
+		const refusal = await decisionRefusalFor(orgId, item.dwelling_id, member.user.id, trx);
+		if (refusal) throw new ForbiddenError(refusal);
 		if (item.decision === 'returned' && input.decision === 'returned') {
 			throw new ConflictError('This dwelling is already returned; wait for the assessor to resubmit it.');
 		}

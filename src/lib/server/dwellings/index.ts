@@ -10,6 +10,7 @@ import {
 } from '$lib/dwellings/schema';
 import {
 	ConflictError,
+	ForbiddenError,
 	NotFoundError,
 	ValidationError,
 	assertVersion,
@@ -28,6 +29,7 @@ import {
 	type LimitTableBrief
 } from '$lib/server/limit-tables';
 import { lockDwelling } from './locks';
+import { ASSESSOR_ROLES, reassignRefusal } from '$lib/dwellings/rules';
 
 /** Roles that create and change dwellings and elements; supervisors read only. */
 export const WRITE_ROLES = ['assessor', 'admin'] as const;
@@ -265,8 +267,13 @@ async function checkReferences(
 	if (data.assessorId) {
 		const m = await trx('memberships')
 			.where({ organisation_id: organisationId, user_id: data.assessorId })
-			.first();
+			.first('role');
 		if (!m) issues.push({ path: 'assessorId', message: 'is not a member of your organisation' });
+		else if (!ASSESSOR_ROLES.includes(m.role))
+			issues.push({
+				path: 'assessorId',
+				message: `is a ${m.role}: a dwelling’s assessor is an assessor or an admin of your organisation`
+			});
 	}
 	if (data.limitTableId) {
 		const t = await trx('limit_tables')
@@ -294,10 +301,15 @@ const referenceTaken = (e: unknown, reference: string) =>
 		])
 	);
 
+/**
+ * Create a dwelling. Its creator names its assessor (an assessor who names nobody becomes it); changing
+ * the assessor afterwards follows `reassignRefusal` in `$lib/dwellings/rules`.
+ */
 export async function createDwelling(member: Member, raw: unknown, trx?: Db): Promise<Dwelling> {
 	const parsed = dwellingFieldsSchema.safeParse(raw);
 	if (!parsed.success) throw new ValidationError(fieldIssues(parsed.error));
 	const data = parsed.data;
+	const assessorId = data.assessorId ?? (member.role === 'assessor' ? member.user.id : null);
 	const write = async (t: Db) => {
 		await checkReferences(member.organisationId, data, t);
 		try {
@@ -309,13 +321,13 @@ export async function createDwelling(member: Member, raw: unknown, trx?: Db): Pr
 					programme: data.programme,
 					client_name: data.clientName,
 					client_email: data.clientEmail,
-					assessor_id: data.assessorId ?? (member.role === 'assessor' ? member.user.id : null),
+					assessor_id: assessorId,
 					stage: data.stage,
 					limit_table_id: data.limitTableId,
 					climate_id: data.climateId
 				})
 				.returning('id');
-			await log(member, 'create', row.id, { reference: data.reference }, t);
+			await log(member, 'create', row.id, { reference: data.reference, assessorId }, t);
 			return (await getDwelling(member.organisationId, row.id, t)) as Dwelling;
 		} catch (e) {
 			throw referenceTaken(e, data.reference);
@@ -336,7 +348,10 @@ const COLUMN: Record<string, string> = {
 	climateId: 'climate_id'
 };
 
-/** Change the dwelling's details; `version` must be the one the caller loaded (else 409). */
+/**
+ * Change the dwelling's details; `version` must be the one the caller loaded (else 409). A new assessor
+ * must be allowed by `reassignRefusal` (else 403) and is logged as `reassign` with before and after.
+ */
 export async function updateDwelling(member: Member, id: string, raw: unknown): Promise<Dwelling> {
 	const parsed = dwellingUpdateSchema.safeParse(raw);
 	if (!parsed.success) throw new ValidationError(fieldIssues(parsed.error));
@@ -348,7 +363,18 @@ export async function updateDwelling(member: Member, id: string, raw: unknown): 
 		if (current.status === 'archived')
 			throw new ConflictError('This dwelling is archived; restore it before changing it.');
 		assertVersion(current.version, version);
-		await checkReferences(member.organisationId, data, t);
+		// The form sends the assessor with every save: only a different one is a reassignment.
+		const before = await t('dwellings')
+			.where({ organisation_id: member.organisationId, id })
+			.first('assessor_id');
+		const from = (before?.assessor_id as string | null) ?? null;
+		const to = data.assessorId ?? null;
+		const reassigning = sent.has('assessorId') && to !== from;
+		if (reassigning) {
+			const refusal = reassignRefusal({ userId: member.user.id, role: member.role }, from, to);
+			if (refusal) throw new ForbiddenError(refusal, { issues: [{ path: 'assessorId', message: refusal }] });
+		}
+		await checkReferences(member.organisationId, reassigning ? data : { ...data, assessorId: undefined }, t);
 		const patch: Record<string, unknown> = { version: current.version + 1, updated_at: t.fn.now() };
 		const changed: string[] = [];
 		for (const [key, value] of Object.entries(data)) {
@@ -362,8 +388,30 @@ export async function updateDwelling(member: Member, id: string, raw: unknown): 
 			throw referenceTaken(e, String(data.reference));
 		}
 		await log(member, 'update', id, { changed }, t);
+		if (reassigning) {
+			const people = await personNames(t, [from, to]);
+			await log(
+				member,
+				'reassign',
+				id,
+				{
+					reference: current.reference,
+					from: from ? { id: from, name: people.get(from) ?? null } : null,
+					to: to ? { id: to, name: people.get(to) ?? null } : null
+				},
+				t
+			);
+		}
 		return (await getDwelling(member.organisationId, id, t)) as Dwelling;
 	});
+}
+
+/** Names (else e-mail addresses) of users by id, for log entries that must read without a join. */
+async function personNames(t: Db, ids: (string | null)[]): Promise<Map<string, string>> {
+	const wanted = ids.filter((x): x is string => Boolean(x));
+	if (!wanted.length) return new Map();
+	const rows = await t('users').whereIn('id', wanted).select('id', 'name', 'email');
+	return new Map(rows.map((u) => [u.id as string, (u.name ?? u.email) as string]));
 }
 
 /** Archive (or restore to draft) a dwelling; archived dwellings leave the default list and refuse edits. */

@@ -721,10 +721,14 @@ export const VALIDITY_STATEMENT =
 /**
  * The assessor's declaration: who carried out the assessment, their registration number, the date of
  * issue, what it rests on, and an empty line for the signature; the validity statement beside it.
+ * The declarant is the person who issued the report, as frozen at issue (`document.issuedBy`), never
+ * the dwelling's assessor field; only a snapshot frozen before the issuer's registration number was
+ * recorded prints the assessor, so that it renders as it was issued.
  */
 export function declarationBlock(s: ReportSnapshot, num: string | null): Content {
-	const a = s.dwelling.assessor;
 	const d = s.document;
+	const by = d.issuedBy;
+	const a = by && 'registrationNumber' in by ? by : s.dwelling.assessor;
 	const name = a?.name ?? 'no assessor assigned';
 	const reg = a?.registrationNumber ?? 'not recorded';
 	const what =

@@ -6,7 +6,7 @@
 import { createHash, randomInt } from 'node:crypto';
 import { db, type Db } from '$lib/server/db';
 import { logActivity } from '$lib/server/activity';
-import { ConflictError, NotFoundError, ValidationError } from '$lib/server/errors';
+import { ConflictError, ForbiddenError, NotFoundError, ValidationError } from '$lib/server/errors';
 import { enqueueMail, kickOutbox } from '$lib/server/outbox';
 import {
 	analyseElement,
@@ -21,6 +21,8 @@ import { reportDocument, passWord, moistureWord } from './document';
 import { renderPdf } from '$lib/server/pdf';
 import { groupCode, longDate } from '$lib/format';
 import { supersededMailRefusal } from '$lib/reports/rules';
+import { issueRefusal } from '$lib/dwellings/rules';
+import type { Role } from '$lib/members/roles';
 import { meetsLimit } from '$lib/limit-tables/rules';
 import { getApplicableLimitTable } from '$lib/server/limit-tables';
 import type {
@@ -59,9 +61,13 @@ type DwellingRow = {
 async function getDwellingRow(
 	organisationId: string,
 	dwellingId: string,
-	trx: Db = db
+	trx: Db = db,
+	/** lock the row until the transaction ends (issuing: its assessor cannot change meanwhile) */
+	lock = false
 ): Promise<DwellingRow> {
-	const row = await trx('dwellings').where({ id: dwellingId, organisation_id: organisationId }).first();
+	const q = trx('dwellings').where({ id: dwellingId, organisation_id: organisationId });
+	if (lock) q.forUpdate();
+	const row = await q.first();
 	if (!row) throw new NotFoundError('No such dwelling.');
 	return row as DwellingRow;
 }
@@ -102,6 +108,8 @@ type DocumentMeta = ReportSnapshot['document'];
 /**
  * Everything the report needs, read in one go under the caller's organisation and recomputed with
  * today's engine from the stored build-ups. `problems` names each element that cannot be reported.
+ * The issuer (`document.issuedBy.id`) is read here too: their name and registration number as they are
+ * now are frozen into the snapshot, and the declaration prints them.
  */
 export async function buildSnapshot(
 	organisationId: string,
@@ -113,7 +121,8 @@ export async function buildSnapshot(
 ): Promise<{ snapshot: ReportSnapshot; problems: string[] }> {
 	const d = await getDwellingRow(organisationId, dwellingId, trx);
 	const org = await trx('organisations').where({ id: organisationId }).first('id', 'name');
-	const assessor = await readAssessor(trx, organisationId, d.assessor_id);
+	const assessor = await readMember(trx, organisationId, d.assessor_id);
+	const issuer = await readMember(trx, organisationId, document.issuedBy.id);
 	const elements = await readElementRows(trx, organisationId, dwellingId, elementId);
 
 	const problems: string[] = [];
@@ -137,20 +146,27 @@ export async function buildSnapshot(
 		elements: elements.map((e) => snapshotElement(e, context, problems)),
 		engineVersion: ENGINE_VERSION,
 		issuedAt,
-		document
+		document: {
+			...document,
+			issuedBy: {
+				id: document.issuedBy.id,
+				name: issuer ? (issuer.name ?? issuer.email) : document.issuedBy.name,
+				registrationNumber: issuer?.registration_number ?? null
+			}
+		}
 	};
 	return { snapshot, problems };
 }
 
 type Row = Record<string, any>; // rows as Knex returns them; converted below
 
-/** The dwelling's assessor, if they are (still) a member of the organisation. */
-async function readAssessor(trx: Db, organisationId: string, assessorId: string | null) {
-	if (!assessorId) return null;
+/** A person of the report (the dwelling's assessor, the issuer), if they are (still) a member of the organisation. */
+async function readMember(trx: Db, organisationId: string, userId: string | null) {
+	if (!userId) return null;
 	return (
 		(await trx('users as u')
 			.join('memberships as m', 'm.user_id', 'u.id')
-			.where({ 'u.id': assessorId, 'm.organisation_id': organisationId })
+			.where({ 'u.id': userId, 'm.organisation_id': organisationId })
 			.first('u.id', 'u.name', 'u.email', 'u.registration_number')) ?? null
 	);
 }
@@ -492,7 +508,8 @@ function summaryQuery(trx: Db, organisationId: string) {
 /**
  * Issue a report: freeze the snapshot, render and hash the PDF, store it under a number (a new one,
  * or the next revision of the report it supersedes) and a verification code; a dwelling report also
- * marks the dwelling issued. All in one transaction.
+ * marks the dwelling issued. All in one transaction. Only the dwelling's assessor issues
+ * (`issueRefusal` in `$lib/dwellings/rules`; 403 otherwise), and the declaration names them.
  */
 export async function issueReport(
 	caller: Caller,
@@ -503,7 +520,16 @@ export async function issueReport(
 	const run = async (t: Db) => {
 		// One issuer at a time per organisation keeps numbers and revisions gap-free and unique.
 		await t.raw('select pg_advisory_xact_lock(hashtext(?))', [`reports:${caller.organisationId}`]);
-		const dwelling = await getDwellingRow(caller.organisationId, input.dwellingId, t);
+		const dwelling = await getDwellingRow(caller.organisationId, input.dwellingId, t, true);
+		const membership = await t('memberships')
+			.where({ organisation_id: caller.organisationId, user_id: caller.userId })
+			.first('role');
+		if (!membership) throw new NotFoundError('No such dwelling.');
+		const refusal = issueRefusal(
+			{ userId: caller.userId, role: membership.role as Role },
+			dwelling.assessor_id ?? null
+		);
+		if (refusal) throw new ForbiddenError(refusal);
 		if (dwelling.status === 'archived')
 			throw new ConflictError('The dwelling is archived: reports cannot be issued for it.');
 		const scope: ReportScope = input.elementId ? 'element' : 'dwelling';
@@ -842,29 +868,32 @@ export type VerifiedReport = {
 	revision: number;
 	issuedAt: string;
 	dwellingReference: string;
-	assessor: string;
+	/** who issued and signed it, with their registration number as frozen at issue */
+	issuedBy: string;
 	/** The revision that replaced this one, when there is one: its revision number and date only. */
 	supersededBy: { revision: number; issuedAt: string } | null;
 };
 
 /**
  * What the public page may show for a code: the report's number and revision, its date, the dwelling
- * reference and the assessor (no other dwelling data), and whether a later revision superseded it.
+ * reference and who issued it (no other dwelling data), and whether a later revision superseded it.
+ * The issuer is the one frozen in the snapshot; a snapshot without one names the user who issued it.
  */
 export async function verifyCode(rawCode: string): Promise<VerifiedReport | null> {
 	const code = normaliseCode(rawCode);
 	if (!/^[0-9A-Z]{10}$/.test(code)) return null;
-	const row = await db('reports')
-		.where({ verification_code: code })
+	const row = await db('reports as r')
+		.leftJoin('users as u', 'u.id', 'r.issued_by')
+		.where({ 'r.verification_code': code })
 		.first(
-			'id',
-			'organisation_id',
-			'number',
-			'revision',
-			'issued_at',
-			db.raw(`snapshot #>> '{dwelling,reference}' as reference`),
-			db.raw(`snapshot #>> '{dwelling,assessor,name}' as assessor_name`),
-			db.raw(`snapshot #>> '{dwelling,assessor,registrationNumber}' as assessor_reg`)
+			'r.id',
+			'r.organisation_id',
+			'r.number',
+			'r.revision',
+			'r.issued_at',
+			db.raw(`r.snapshot #>> '{dwelling,reference}' as reference`),
+			db.raw(`coalesce(r.snapshot #>> '{document,issuedBy,name}', u.name, u.email) as issuer_name`),
+			db.raw(`r.snapshot #>> '{document,issuedBy,registrationNumber}' as issuer_reg`)
 		);
 	if (!row) return null;
 	const newer = await db('reports')
@@ -876,8 +905,8 @@ export async function verifyCode(rawCode: string): Promise<VerifiedReport | null
 		revision: Number(row.revision),
 		issuedAt: new Date(row.issued_at).toISOString(),
 		dwellingReference: row.reference ?? '',
-		assessor: row.assessor_name
-			? `${row.assessor_name}${row.assessor_reg ? `, registration no. ${row.assessor_reg}` : ''}`
+		issuedBy: row.issuer_name
+			? `${row.issuer_name}${row.issuer_reg ? `, registration no. ${row.issuer_reg}` : ''}`
 			: '—',
 		supersededBy: newer
 			? { revision: Number(newer.revision), issuedAt: new Date(newer.issued_at).toISOString() }

@@ -83,6 +83,11 @@ export type ReportSnapshot = {
 		verificationCode: string | null;
 		verifyUrl: string | null;
 		supersedes: { number: string; revision: number; issuedAt: string } | null;
-		issuedBy: { id: string; name: string };
+		/**
+		 * Who issued it, and so who makes the declaration: name and registration number as they were at
+		 * issue. `registrationNumber` is absent from snapshots frozen before the declaration named the
+		 * issuer; those print the dwelling's assessor in the declaration, as they did when issued.
+		 */
+		issuedBy: { id: string; name: string; registrationNumber?: string | null };
 	};
 };

@@ -17,7 +17,7 @@ import {
 	reorderElements
 } from '$lib/server/dwellings/elements';
 import { copyFormSchema, dwellingFormSchema } from '$lib/dwellings/forms';
-import { ConflictError, NotFoundError, ValidationError } from '$lib/server/errors';
+import { ConflictError, ForbiddenError, NotFoundError, ValidationError } from '$lib/server/errors';
 
 export const load = async (event) => {
 	const member = requireMember(event);
@@ -77,6 +77,8 @@ export const actions = {
 				return fail(400, { form });
 			}
 			if (e instanceof ConflictError) return message(form, e.message, { status: 409 });
+			// A change of assessor the rule does not allow: said beside the assessor's field.
+			if (e instanceof ForbiddenError) return setError(form, 'assessorId', e.message, { status: 403 });
 			if (e instanceof NotFoundError) error(404, 'Not found.');
 			throw e;
 		}

@@ -1,7 +1,8 @@
 import { error, fail } from '@sveltejs/kit';
 import { requireMember, requireRole } from '$lib/server/guard';
-import { decideItem, getItem, listItems, type ItemRow } from '$lib/server/audit';
+import { decideItem, decisionRefusalFor, getItem, listItems, type ItemRow } from '$lib/server/audit';
 import { decisionSchema } from '$lib/audit/schemas';
+import { DECIDER_ROLES } from '$lib/audit/rules';
 import { AppError } from '$lib/server/errors';
 
 const rank: Record<string, number> = {
@@ -33,8 +34,13 @@ export async function load(event) {
 	const nextOpen = queue.find(
 		(q, i) => i !== at && (q.state === 'awaiting-review' || q.state === 'resubmitted')
 	);
+	// Why this person may not decide here (they assessed the dwelling or issued its report), or null.
+	const decisionRefusal = DECIDER_ROLES.includes(member.role)
+		? await decisionRefusalFor(member.organisationId, item.dwellingId, member.user.id)
+		: null;
 	return {
 		item,
+		decisionRefusal,
 		position: at + 1,
 		total: queue.length,
 		previousId: at > 0 ? queue[at - 1].id : null,
@@ -45,7 +51,7 @@ export async function load(event) {
 
 export const actions = {
 	decide: async (event) => {
-		const member = requireRole(event, 'supervisor', 'admin');
+		const member = requireRole(event, ...DECIDER_ROLES);
 		const f = await event.request.formData();
 		const raw = { decision: String(f.get('decision') ?? ''), comment: String(f.get('comment') ?? '') };
 		const parsed = decisionSchema.safeParse(raw);
