@@ -14,7 +14,8 @@ import {
 	DEFAULT_MAX_BYTES,
 	type ByteSource,
 	type CsvInfo,
-	type Delimiter
+	type Delimiter,
+	type StreamedFile
 } from '$lib/server/csv/read';
 import { toCsv, unneutralise, type Cell } from '$lib/server/csv/write';
 import {
@@ -262,86 +263,13 @@ const NONE: never[] = Object.freeze([]) as unknown as never[];
 
 /** One record → values and per-column issues. */
 function readRow(cells: string[], line: number, plan: Plan): ParsedRow {
-	const { headers } = plan;
-	if (cells.length !== headers.length) {
-		// The cells cannot be placed under their columns: say so and nothing else. The code is named when its
-		// cell is there to read (the separator fault may lie after it).
-		const code =
-			plan.codeAt >= 0 && plan.codeAt < cells.length ? unneutralise((cells[plan.codeAt] ?? '').trim()) : '';
-		const message = `${code ? `the row for '${code}'` : 'the row'} has ${cells.length} ${cells.length === 1 ? 'cell' : 'cells'} but the header has ${headers.length} columns; check for a missing or extra separator${cells.length > headers.length ? ' (text with a separator needs "quotes")' : ''}`;
-		return {
-			line,
-			code: '',
-			shownCode: code,
-			name: '',
-			category: '',
-			values: null,
-			errors: [{ column: '', message }],
-			warnings: NONE
-		};
-	}
-	const raw: Record<string, unknown> = {};
-	let errors: RowIssue[] = NONE;
-	let failed: Set<string> | null = null;
-	for (const { index, field, header, kind } of plan.columns) {
-		const cell = unneutralise(cells[index].trim());
-		switch (kind) {
-			case 'number': {
-				const n = parseNumber(cell, plan.delimiter);
-				if (n.ok) raw[field] = n.value;
-				else {
-					errors = [...errors, { column: header, message: n.message }];
-					(failed ??= new Set()).add(field);
-				}
-				break;
-			}
-			case 'category':
-				raw[field] = cell === '' ? undefined : (CATEGORY_BY_TEXT.get(cell.toLowerCase()) ?? cell);
-				break;
-			case 'lambdaKind':
-				raw[field] = cell === '' ? null : (KIND_BY_TEXT.get(cell.toLowerCase()) ?? cell);
-				break;
-			case 'indicative': {
-				const t = cell.toLowerCase();
-				if (YES.has(t)) raw[field] = true;
-				else if (NO.has(t)) raw[field] = false;
-				else {
-					errors = [...errors, { column: header, message: `'${cell}' is not yes or no` }];
-					(failed ??= new Set()).add(field);
-				}
-				break;
-			}
-			case 'date': {
-				const dmy = /^(\d{1,2})\.(\d{1,2})\.(\d{4})$/.exec(cell);
-				raw[field] =
-					cell === '' ? null : dmy ? `${dmy[3]}-${dmy[2].padStart(2, '0')}-${dmy[1].padStart(2, '0')}` : cell;
-				break;
-			}
-			case 'text':
-				raw[field] = cell;
-				break;
-			case 'manufacturer':
-				raw[field] = cell === '' ? 'generic' : cell;
-				break;
-			default:
-				raw[field] = cell === '' ? null : cell;
-		}
-	}
+	if (cells.length !== plan.headers.length) return misplacedRow(cells, line, plan);
+	const { raw, errors: cellErrors, failed } = readCells(cells, plan);
 	const parsed = materialValuesSchema.safeParse(raw);
-	if (!parsed.success) {
-		const lambdaOrRFailed = failed !== null && (failed.has('lambda') || failed.has('resistance'));
-		for (const iss of parsed.error.issues) {
-			const f = String(iss.path[0] ?? '');
-			if (failed?.has(f)) continue;
-			if (lambdaOrRFailed && (f === 'lambda' || f === 'resistance' || f === 'lambdaKind')) continue;
-			if (f === 'muDry' && failed?.has('muWet')) continue;
-			errors = [...errors, { column: plan.columnName(f), message: iss.message }];
-		}
-	}
+	const errors = parsed.success
+		? cellErrors
+		: [...cellErrors, ...schemaErrors(parsed.error.issues, failed, plan)];
 	const values = parsed.success && errors.length === 0 ? parsed.data : null;
-	const found = values ? plausibilityWarnings(values, plan.today) : [];
-	const warnings =
-		found.length === 0 ? NONE : found.map((w) => ({ column: plan.columnName(w.field), message: w.message }));
 	return {
 		line,
 		code: String(raw.code ?? ''),
@@ -349,9 +277,128 @@ function readRow(cells: string[], line: number, plan: Plan): ParsedRow {
 		name: String(raw.name ?? ''),
 		category: String(raw.category ?? ''),
 		values,
-		errors,
-		warnings
+		errors: errors.length === 0 ? NONE : errors,
+		warnings: values ? rowWarnings(values, plan) : NONE
 	};
+}
+
+/**
+ * A record whose cells cannot be placed under their columns (more or fewer than the header has): say
+ * so and nothing else. The code is named when its cell is there to read (the separator fault may lie
+ * after it).
+ */
+function misplacedRow(cells: string[], line: number, plan: Plan): ParsedRow {
+	const columns = plan.headers.length;
+	const code =
+		plan.codeAt >= 0 && plan.codeAt < cells.length ? unneutralise((cells[plan.codeAt] ?? '').trim()) : '';
+	const row = code ? `the row for '${code}'` : 'the row';
+	const quotes = cells.length > columns ? ' (text with a separator needs "quotes")' : '';
+	const message = `${row} has ${cells.length} ${cells.length === 1 ? 'cell' : 'cells'} but the header has ${columns} columns; check for a missing or extra separator${quotes}`;
+	return {
+		line,
+		code: '',
+		shownCode: code,
+		name: '',
+		category: '',
+		values: null,
+		errors: [{ column: '', message }],
+		warnings: NONE
+	};
+}
+
+/** One cell read for its field: the value to validate, or why it cannot be read at all. */
+type CellReading = { ok: true; value: unknown } | { ok: false; message: string };
+
+/**
+ * The mapped cells of a record as raw field values for the schema, the cells that could not be read
+ * (in column order) and the fields they belong to.
+ */
+function readCells(
+	cells: string[],
+	plan: Plan
+): { raw: Record<string, unknown>; errors: RowIssue[]; failed: Set<string> | null } {
+	const raw: Record<string, unknown> = {};
+	const errors: RowIssue[] = [];
+	let failed: Set<string> | null = null;
+	for (const { index, field, header, kind } of plan.columns) {
+		const read = readCell(kind, unneutralise(cells[index].trim()), plan.delimiter);
+		if (read.ok) raw[field] = read.value;
+		else {
+			errors.push({ column: header, message: read.message });
+			(failed ??= new Set()).add(field);
+		}
+	}
+	return { raw, errors, failed };
+}
+
+/** One trimmed cell by the kind of its column (numbers with the file's decimal sign, names of categories…). */
+function readCell(kind: ColumnKind, cell: string, delimiter: Delimiter): CellReading {
+	switch (kind) {
+		case 'number': {
+			const n = parseNumber(cell, delimiter);
+			return n.ok ? { ok: true, value: n.value } : { ok: false, message: n.message };
+		}
+		case 'category':
+			return {
+				ok: true,
+				value: cell === '' ? undefined : (CATEGORY_BY_TEXT.get(cell.toLowerCase()) ?? cell)
+			};
+		case 'lambdaKind':
+			return { ok: true, value: cell === '' ? null : (KIND_BY_TEXT.get(cell.toLowerCase()) ?? cell) };
+		case 'indicative':
+			return readYesNo(cell);
+		case 'date':
+			return { ok: true, value: cell === '' ? null : isoDate(cell) };
+		case 'text':
+			return { ok: true, value: cell };
+		case 'manufacturer':
+			return { ok: true, value: cell === '' ? 'generic' : cell };
+		default:
+			return { ok: true, value: cell === '' ? null : cell };
+	}
+}
+
+/** yes/no in the words a spreadsheet holds (an empty cell is no). */
+function readYesNo(cell: string): CellReading {
+	const t = cell.toLowerCase();
+	if (YES.has(t)) return { ok: true, value: true };
+	if (NO.has(t)) return { ok: true, value: false };
+	return { ok: false, message: `'${cell}' is not yes or no` };
+}
+
+/** A date written D.M.YYYY as YYYY-MM-DD; anything else as written, for the schema to judge. */
+function isoDate(cell: string): string {
+	const dmy = /^(\d{1,2})\.(\d{1,2})\.(\d{4})$/.exec(cell);
+	return dmy ? `${dmy[3]}-${dmy[2].padStart(2, '0')}-${dmy[1].padStart(2, '0')}` : cell;
+}
+
+/**
+ * The schema's issues as row issues, leaving out what follows from a cell already refused: the field
+ * itself; λ, R and the λ kind when λ or R could not be read; μ dry when μ wet could not.
+ */
+function schemaErrors(
+	issues: { path: PropertyKey[]; message: string }[],
+	failed: Set<string> | null,
+	plan: Plan
+): RowIssue[] {
+	const lambdaOrRFailed = failed !== null && (failed.has('lambda') || failed.has('resistance'));
+	const errors: RowIssue[] = [];
+	for (const iss of issues) {
+		const f = String(iss.path[0] ?? '');
+		if (failed?.has(f)) continue;
+		if (lambdaOrRFailed && (f === 'lambda' || f === 'resistance' || f === 'lambdaKind')) continue;
+		if (f === 'muDry' && failed?.has('muWet')) continue;
+		errors.push({ column: plan.columnName(f), message: iss.message });
+	}
+	return errors;
+}
+
+/** The plausibility warnings of valid values, each under its CSV column. */
+function rowWarnings(values: MaterialValues, plan: Plan): RowIssue[] {
+	const found = plausibilityWarnings(values, plan.today);
+	return found.length === 0
+		? NONE
+		: found.map((w) => ({ column: plan.columnName(w.field), message: w.message }));
 }
 
 /** What a commit needs of a preview: the rows it writes and the library state it was compared with. */
@@ -396,13 +443,24 @@ function mappingStep(
 	};
 }
 
+type MappingFound = { mapping: ColumnMapping; source: ImportPreview['mappingSource'] };
+
 /** The mapping for a header line: given, saved for that header, or recognised; or the mapping step. */
 async function mappingFor(
 	k: Db,
 	organisationId: string,
 	headers: string[],
 	given: ColumnMapping | null | undefined
-): Promise<{ mapping: ColumnMapping; source: ImportPreview['mappingSource'] } | { needed: MappingNeeded }> {
+): Promise<MappingFound | { needed: MappingNeeded }> {
+	checkHeaderNames(headers);
+	if (given) return completeMapping(headers, { mapping: given, source: 'given' });
+	const saved = await savedMapping(k, organisationId, headers);
+	if (saved) return completeMapping(headers, { mapping: saved, source: 'saved' });
+	return recognisedMapping(headers);
+}
+
+/** Refuses a header line with a nameless column before a named one (blank columns at the end may stay). */
+function checkHeaderNames(headers: string[]): void {
 	const blank = headers.findIndex((h) => h === '');
 	if (headers.length > 0 && blank >= 0 && headers.slice(blank).some((h) => h !== '')) {
 		throw new CsvFileError(
@@ -411,208 +469,88 @@ async function mappingFor(
 			1
 		);
 	}
-	let mapping: ColumnMapping;
-	let source: ImportPreview['mappingSource'];
-	if (given) {
-		mapping = given;
-		source = 'given';
-	} else {
-		const saved = await k('import_mappings')
-			.where({
-				organisation_id: organisationId,
-				kind: 'materials',
-				header_signature: headerSignature(headers)
-			})
-			.first('mapping');
-		if (saved) {
-			// Saved for the same header signature, perhaps spelt otherwise ('Code' for 'code', other units in
-			// brackets): carry it over header by header, by the same normalised key.
-			const byKey = new Map<string, ImportField | null>();
-			for (const [h, f] of Object.entries(saved.mapping as ColumnMapping)) byKey.set(normaliseHeader(h), f);
-			mapping = Object.fromEntries(headers.map((h) => [h, byKey.get(normaliseHeader(h)) ?? null]));
-			source = 'saved';
-		} else {
-			const rec = recogniseHeaders(headers);
-			const problems = mappingProblems(headers, rec.mapping);
-			if (rec.unknown.length > 0) {
-				return {
-					needed: mappingStep(
-						`Envelo does not know ${rec.unknown.length === 1 ? 'the column' : 'these columns'}: ${rec.unknown.map((u) => `'${u}'`).join(', ')}. Say which library field each column holds (or ignore it); the choice is remembered for files with the same header.`,
-						headers,
-						rec.mapping,
-						problems
-					)
-				};
-			}
-			if (problems.length > 0) {
-				throw new CsvFileError(
-					`Line 1: ${problems.join('; ')}. The header has: ${headers.join(', ')}.`,
-					'header',
-					1
-				);
-			}
-			return { mapping: rec.mapping, source: 'recognised' };
-		}
-	}
-	const problems = mappingProblems(headers, mapping);
-	if (problems.length) {
+}
+
+/**
+ * The mapping saved for this header signature, perhaps spelt otherwise ('Code' for 'code', other units
+ * in brackets): carried over header by header, by the same normalised key. Null when none is saved.
+ */
+async function savedMapping(k: Db, organisationId: string, headers: string[]): Promise<ColumnMapping | null> {
+	const saved = await k('import_mappings')
+		.where({
+			organisation_id: organisationId,
+			kind: 'materials',
+			header_signature: headerSignature(headers)
+		})
+		.first('mapping');
+	if (!saved) return null;
+	const byKey = new Map<string, ImportField | null>();
+	for (const [h, f] of Object.entries(saved.mapping as ColumnMapping)) byKey.set(normaliseHeader(h), f);
+	return Object.fromEntries(headers.map((h) => [h, byKey.get(normaliseHeader(h)) ?? null]));
+}
+
+/**
+ * The mapping of headers Envelo knows by name. Unknown headers ask for the mapping step; known headers
+ * that still do not make a complete mapping refuse the file.
+ */
+function recognisedMapping(headers: string[]): MappingFound | { needed: MappingNeeded } {
+	const rec = recogniseHeaders(headers);
+	const problems = mappingProblems(headers, rec.mapping);
+	if (rec.unknown.length > 0) {
+		const columns = rec.unknown.map((u) => `'${u}'`).join(', ');
 		return {
 			needed: mappingStep(
-				`The column mapping is not complete: ${problems.join('; ')}.`,
+				`Envelo does not know ${rec.unknown.length === 1 ? 'the column' : 'these columns'}: ${columns}. Say which library field each column holds (or ignore it); the choice is remembered for files with the same header.`,
 				headers,
-				mapping,
+				rec.mapping,
 				problems
 			)
 		};
 	}
-	return { mapping, source };
+	if (problems.length > 0) {
+		throw new CsvFileError(
+			`Line 1: ${problems.join('; ')}. The header has: ${headers.join(', ')}.`,
+			'header',
+			1
+		);
+	}
+	return { mapping: rec.mapping, source: 'recognised' };
 }
 
+/** A given or saved mapping as it is, or the mapping step when it is not complete. */
+function completeMapping(headers: string[], found: MappingFound): MappingFound | { needed: MappingNeeded } {
+	const problems = mappingProblems(headers, found.mapping);
+	if (problems.length === 0) return found;
+	return {
+		needed: mappingStep(
+			`The column mapping is not complete: ${problems.join('; ')}.`,
+			headers,
+			found.mapping,
+			problems
+		)
+	};
+}
+
+/** Reads, checks and compares a file: the preview to show and the plan its commit writes; or the mapping step. */
 async function analyse(
 	k: Db,
 	organisationId: string,
 	source: ByteSource,
 	opts: ImportOptions
 ): Promise<Analysis | MappingNeeded> {
-	const today = opts.today ?? new Date().toISOString().slice(0, 10);
-	let plan: Plan | null = null;
-	let needed: MappingNeeded | null = null;
-	let mapping: ColumnMapping = {};
-	let mappingSource: ImportPreview['mappingSource'] = 'recognised';
-	let decimal: '.' | ',' = '.';
-	const rows: ParsedRow[] = [];
-
-	// Rows are read even when a mapping is needed, so a broken file says so at once.
-	const file = await readCsvStream(
-		source,
-		{ maxBytes: opts.maxBytes ?? DEFAULT_MAX_BYTES },
-		async (headers, delimiter) => {
-			const m = await mappingFor(k, organisationId, headers, opts.mapping);
-			if ('needed' in m) needed = m.needed;
-			else {
-				mapping = m.mapping;
-				mappingSource = m.source;
-				plan = planOf(headers, m.mapping, delimiter, today);
-			}
-		},
-		(cells, line) => {
-			if (!plan) return;
-			if (plan.delimiter === ';' && decimal === '.') {
-				for (const c of cells) if (/^\s*[+-]?\d*,\d+\s*$/.test(c)) decimal = ',';
-			}
-			rows.push(readRow(cells, line, plan));
-		}
-	);
-	if (needed) return needed;
+	const read = await readImportFile(k, organisationId, source, opts);
+	if ('kind' in read) return read;
+	const { file, info, mapping, mappingSource, rows } = read;
 	const { headers } = file;
-	const info: CsvInfo = {
-		bytes: file.bytes,
-		bom: file.bom,
-		delimiter: file.delimiter,
-		decimal,
-		headers,
-		rows: file.rows
-	};
-
-	// Duplicate codes within the file: all occurrences are rejected, since we cannot know which is right.
-	const linesByCode = new Map<string, number[]>();
-	for (const r of rows) {
-		if (!r.code) continue;
-		const lines = linesByCode.get(r.code);
-		if (lines) lines.push(r.line);
-		else linesByCode.set(r.code, [r.line]);
-	}
-	const codeColumn = headers.find((h) => fieldOf(mapping, h) === 'code') ?? 'code';
-	for (const r of rows) {
-		const lines = linesByCode.get(r.code);
-		if (r.code && lines && lines.length > 1) {
-			r.errors = [
-				...r.errors,
-				{
-					column: codeColumn,
-					message: `code '${r.code}' appears on lines ${lines.join(', ')}; keep one of them`
-				}
-			];
-			r.values = null;
-			r.warnings = NONE;
-		}
-	}
+	rejectDuplicateCodes(rows, headers.find((h) => fieldOf(mapping, h) === 'code') ?? 'code');
 
 	const codes: string[] = [];
 	for (const r of rows) if (r.values) codes.push(r.code);
 	const existing = await currentByCodes(k, organisationId, codes);
-	const counts: ImportCounts = { new: 0, changed: 0, unchanged: 0, rejected: 0, warnings: 0 };
-	const added: CommitPlan['added'] = [];
-	const revised: CommitPlan['revised'] = [];
-	const compared: CommitPlan['compared'] = new Map();
-	const previewRows: PreviewRow[] = rows.map((r) => {
-		const base = {
-			line: r.line,
-			code: r.shownCode,
-			name: r.name,
-			category: r.category,
-			errors: r.errors,
-			warnings: r.warnings
-		};
-		if (!r.values) {
-			counts.rejected++;
-			return { ...base, status: 'rejected', warnings: NONE, changes: NONE };
-		}
-		const cur = existing.get(r.code);
-		compared.set(r.code, cur ? revisionState(cur.revisionId, cur.status) : null);
-		if (!cur) {
-			counts.new++;
-			if (r.warnings.length) counts.warnings++;
-			added.push(r.values);
-			return { ...base, status: 'new', changes: NONE };
-		}
-		const changes = diffValues(cur.values, r.values);
-		if (changes.length === 0) {
-			counts.unchanged++;
-			return { ...base, status: 'unchanged', warnings: NONE, changes };
-		}
-		counts.changed++;
-		const warnings =
-			cur.status === 'superseded'
-				? [
-						...r.warnings,
-						{
-							column: '',
-							message:
-								'the library marks this material superseded (not for new work); importing makes a new, unverified revision current'
-						}
-					]
-				: r.warnings;
-		if (warnings.length) counts.warnings++;
-		revised.push({
-			materialId: cur.materialId,
-			previousRevisionId: cur.revisionId,
-			revision: cur.revision,
-			values: r.values
-		});
-		return { ...base, warnings, status: 'changed', changes };
-	});
-
-	// The same file, mapping and library state give the same token, in any process.
-	const hash = createHash('sha256')
-		.update(organisationId)
-		.update(file.sha256)
-		.update(JSON.stringify(headers.map((h) => [h, fieldOf(mapping, h)])));
-	for (const code of [...existing.keys()].sort()) {
-		const e = existing.get(code)!;
-		hash.update(`${code}=${revisionState(e.revisionId, e.status)};`);
-	}
-	const token = hash.digest('hex');
+	const { counts, previewRows, added, revised, compared } = compareRows(rows, existing);
+	const token = tokenOf(organisationId, file.sha256, headers, mapping, existing);
 	return {
-		preview: {
-			kind: 'preview',
-			file: info,
-			mapping,
-			mappingSource,
-			counts,
-			rows: previewRows,
-			token
-		},
+		preview: { kind: 'preview', file: info, mapping, mappingSource, counts, rows: previewRows, token },
 		plan: {
 			organisationId,
 			token,
@@ -628,6 +566,182 @@ async function analyse(
 			at: Date.now()
 		}
 	};
+}
+
+/** A file read row by row under its mapping, with what the preview says of the file itself. */
+type RowsRead = {
+	file: StreamedFile;
+	info: CsvInfo;
+	mapping: ColumnMapping;
+	mappingSource: ImportPreview['mappingSource'];
+	rows: ParsedRow[];
+};
+
+/**
+ * Every record of the file read under the mapping its header line gets; or the mapping step. Rows are
+ * read even when a mapping is needed, so a broken file says so at once.
+ */
+async function readImportFile(
+	k: Db,
+	organisationId: string,
+	source: ByteSource,
+	opts: ImportOptions
+): Promise<RowsRead | MappingNeeded> {
+	const today = opts.today ?? new Date().toISOString().slice(0, 10);
+	let plan: Plan | null = null;
+	let needed: MappingNeeded | null = null;
+	let mapping: ColumnMapping = {};
+	let mappingSource: ImportPreview['mappingSource'] = 'recognised';
+	let decimal: '.' | ',' = '.';
+	const rows: ParsedRow[] = [];
+	const file = await readCsvStream(
+		source,
+		{ maxBytes: opts.maxBytes ?? DEFAULT_MAX_BYTES },
+		async (headers, delimiter) => {
+			const m = await mappingFor(k, organisationId, headers, opts.mapping);
+			if ('needed' in m) needed = m.needed;
+			else {
+				mapping = m.mapping;
+				mappingSource = m.source;
+				plan = planOf(headers, m.mapping, delimiter, today);
+			}
+		},
+		(cells, line) => {
+			if (!plan) return;
+			if (plan.delimiter === ';' && decimal === '.' && hasDecimalComma(cells)) decimal = ',';
+			rows.push(readRow(cells, line, plan));
+		}
+	);
+	if (needed) return needed;
+	const info: CsvInfo = {
+		bytes: file.bytes,
+		bom: file.bom,
+		delimiter: file.delimiter,
+		decimal,
+		headers: file.headers,
+		rows: file.rows
+	};
+	return { file, info, mapping, mappingSource, rows };
+}
+
+/** Whether a record holds a number written with a decimal comma (as the preview reports the file). */
+const hasDecimalComma = (cells: string[]) => cells.some((c) => /^\s*[+-]?\d*,\d+\s*$/.test(c));
+
+/**
+ * Duplicate codes within the file: all occurrences are rejected, since we cannot know which is right.
+ * Each gets the lines of them all under the code column; the rows are changed in place.
+ */
+function rejectDuplicateCodes(rows: ParsedRow[], codeColumn: string): void {
+	const linesByCode = new Map<string, number[]>();
+	for (const r of rows) {
+		if (!r.code) continue;
+		const lines = linesByCode.get(r.code);
+		if (lines) lines.push(r.line);
+		else linesByCode.set(r.code, [r.line]);
+	}
+	for (const r of rows) {
+		const lines = linesByCode.get(r.code);
+		if (r.code && lines && lines.length > 1) {
+			r.errors = [
+				...r.errors,
+				{
+					column: codeColumn,
+					message: `code '${r.code}' appears on lines ${lines.join(', ')}; keep one of them`
+				}
+			];
+			r.values = null;
+			r.warnings = NONE;
+		}
+	}
+}
+
+/** The current revisions of the library for the codes a file offers. */
+type CurrentByCode = Awaited<ReturnType<typeof currentByCodes>>;
+
+/** What comparing the rows with the library gives: the preview rows and counts, and what to write. */
+type Comparison = {
+	counts: ImportCounts;
+	previewRows: PreviewRow[];
+	added: CommitPlan['added'];
+	revised: CommitPlan['revised'];
+	compared: CommitPlan['compared'];
+};
+
+/** Each row against the current revision of its code: rejected, new, unchanged or changed. */
+function compareRows(rows: ParsedRow[], existing: CurrentByCode): Comparison {
+	const c: Comparison = {
+		counts: { new: 0, changed: 0, unchanged: 0, rejected: 0, warnings: 0 },
+		previewRows: [],
+		added: [],
+		revised: [],
+		compared: new Map()
+	};
+	c.previewRows = rows.map((r) => compareRow(r, existing, c));
+	return c;
+}
+
+const SUPERSEDED_WARNING: RowIssue = {
+	column: '',
+	message:
+		'the library marks this material superseded (not for new work); importing makes a new, unverified revision current'
+};
+
+/** One row's preview; counts it, and notes what its commit writes and the state it was compared with. */
+function compareRow(r: ParsedRow, existing: CurrentByCode, c: Comparison): PreviewRow {
+	const base = {
+		line: r.line,
+		code: r.shownCode,
+		name: r.name,
+		category: r.category,
+		errors: r.errors,
+		warnings: r.warnings
+	};
+	if (!r.values) {
+		c.counts.rejected++;
+		return { ...base, status: 'rejected', warnings: NONE, changes: NONE };
+	}
+	const cur = existing.get(r.code);
+	c.compared.set(r.code, cur ? revisionState(cur.revisionId, cur.status) : null);
+	if (!cur) {
+		c.counts.new++;
+		if (r.warnings.length) c.counts.warnings++;
+		c.added.push(r.values);
+		return { ...base, status: 'new', changes: NONE };
+	}
+	const changes = diffValues(cur.values, r.values);
+	if (changes.length === 0) {
+		c.counts.unchanged++;
+		return { ...base, status: 'unchanged', warnings: NONE, changes };
+	}
+	c.counts.changed++;
+	const warnings = cur.status === 'superseded' ? [...r.warnings, { ...SUPERSEDED_WARNING }] : r.warnings;
+	if (warnings.length) c.counts.warnings++;
+	c.revised.push({
+		materialId: cur.materialId,
+		previousRevisionId: cur.revisionId,
+		revision: cur.revision,
+		values: r.values
+	});
+	return { ...base, warnings, status: 'changed', changes };
+}
+
+/** The same file, mapping and library state give the same token, in any process. */
+function tokenOf(
+	organisationId: string,
+	sha256: string,
+	headers: string[],
+	mapping: ColumnMapping,
+	existing: CurrentByCode
+): string {
+	const hash = createHash('sha256')
+		.update(organisationId)
+		.update(sha256)
+		.update(JSON.stringify(headers.map((h) => [h, fieldOf(mapping, h)])));
+	for (const code of [...existing.keys()].sort()) {
+		const e = existing.get(code)!;
+		hash.update(`${code}=${revisionState(e.revisionId, e.status)};`);
+	}
+	return hash.digest('hex');
 }
 
 /**
@@ -746,8 +860,22 @@ export async function applyCommit(
 	log?: ImportLog
 ): Promise<ImportSummary> {
 	if (plan.organisationId !== actor.organisationId) throw new ConflictError(CHANGED_SINCE_PREVIEW);
-	const { counts } = plan;
-	if (counts.warnings > 0 && !opts.confirmWarnings) {
+	checkWarningsConfirmed(plan.counts, opts.confirmWarnings);
+	let summary: ImportSummary;
+	try {
+		summary = await k.transaction((trx) => writeCommit(trx, actor, plan, opts.fileName, log));
+	} catch (e) {
+		// A material of the same code created meanwhile (outside any import) lands here.
+		if (isRacedInsert(e)) throw new ConflictError(CHANGED_SINCE_PREVIEW);
+		throw e;
+	}
+	previews.delete(`${plan.organisationId}:${plan.token}`);
+	return summary;
+}
+
+/** Rows with warnings are written only once the person has confirmed them (422 until then). */
+function checkWarningsConfirmed(counts: ImportCounts, confirmWarnings: boolean | undefined): void {
+	if (counts.warnings > 0 && !confirmWarnings) {
 		throw new ValidationError(
 			[],
 			`${counts.warnings} ${counts.warnings === 1 ? 'row has' : 'rows have'} warnings; confirm them to import.`,
@@ -755,74 +883,86 @@ export async function applyCommit(
 			422
 		);
 	}
-	let summary: ImportSummary;
-	try {
-		summary = await k.transaction(async (trx) => {
-			// One import at a time per organisation; the materials about to be revised are locked, so an
-			// edit of one of them waits for this commit (and then finds it).
-			await trx.raw('SELECT pg_advisory_xact_lock(hashtext(?))', [
-				`materials-import:${actor.organisationId}`
-			]);
-			if (plan.revised.length > 0) {
-				await trx.raw(
-					'SELECT id FROM materials WHERE organisation_id = ? AND id = ANY(?::uuid[]) FOR UPDATE',
-					[actor.organisationId, plan.revised.map((r) => r.materialId)]
-				);
-			}
-			const now = await currentRevisionStates(trx, actor.organisationId, [...plan.compared.keys()]);
-			for (const [code, state] of plan.compared) {
-				if ((now.get(code) ?? null) !== state) throw new ConflictError(CHANGED_SINCE_PREVIEW);
-			}
-			await insertNewMaterials(trx, actor, plan.added);
-			await insertNewRevisions(trx, actor, plan.revised);
-			let mappingSaved = false;
-			if (
-				plan.mappingSource === 'given' &&
-				(plan.added.length > 0 || plan.revised.length > 0 || counts.unchanged > 0)
-			) {
-				await trx('import_mappings')
-					.insert({
-						organisation_id: actor.organisationId,
-						kind: 'materials',
-						header_signature: headerSignature(plan.headers),
-						mapping: JSON.stringify(plan.mapping)
-					})
-					.onConflict(['organisation_id', 'kind', 'header_signature'])
-					.merge({ mapping: JSON.stringify(plan.mapping), updated_at: trx.fn.now() });
-				mappingSaved = true;
-			}
-			const done: ImportSummary = {
-				added: plan.added.length,
-				changed: plan.revised.length,
-				unchanged: counts.unchanged,
-				rejected: counts.rejected,
-				mappingSaved
-			};
-			if (log) {
-				await log(
-					{
-						organisationId: actor.organisationId,
-						userId: actor.userId,
-						action: 'import',
-						entity: 'material',
-						entityId: null,
-						details: { ...done, file: opts.fileName ?? null, bytes: plan.bytes, rows: plan.rows }
-					},
-					trx
-				);
-			}
-			return done;
-		});
-	} catch (e) {
-		// A material of the same code created meanwhile (outside any import) lands here.
-		const pg = e as { code?: string; constraint?: string };
-		if (pg.code === '23505' && pg.constraint && RACED_CONSTRAINTS.has(pg.constraint)) {
-			throw new ConflictError(CHANGED_SINCE_PREVIEW);
-		}
-		throw e;
+}
+
+/** Whether an error is a unique violation of a material code or revision written meanwhile. */
+function isRacedInsert(e: unknown): boolean {
+	const pg = e as { code?: string; constraint?: string };
+	return pg.code === '23505' && !!pg.constraint && RACED_CONSTRAINTS.has(pg.constraint);
+}
+
+/** The commit inside its transaction: lock, check the library is as previewed, write, remember, log. */
+async function writeCommit(
+	trx: Db,
+	actor: Actor,
+	plan: CommitPlan,
+	fileName: string | undefined,
+	log: ImportLog | undefined
+): Promise<ImportSummary> {
+	await lockForCommit(trx, actor, plan);
+	await checkUnchangedSincePreview(trx, actor, plan);
+	await insertNewMaterials(trx, actor, plan.added);
+	await insertNewRevisions(trx, actor, plan.revised);
+	const mappingSaved = await saveGivenMapping(trx, actor, plan);
+	const done: ImportSummary = {
+		added: plan.added.length,
+		changed: plan.revised.length,
+		unchanged: plan.counts.unchanged,
+		rejected: plan.counts.rejected,
+		mappingSaved
+	};
+	if (log) {
+		await log(
+			{
+				organisationId: actor.organisationId,
+				userId: actor.userId,
+				action: 'import',
+				entity: 'material',
+				entityId: null,
+				details: { ...done, file: fileName ?? null, bytes: plan.bytes, rows: plan.rows }
+			},
+			trx
+		);
 	}
-	previews.delete(`${plan.organisationId}:${plan.token}`);
-	return summary;
+	return done;
+}
+
+/**
+ * One import at a time per organisation; the materials about to be revised are locked, so an edit of
+ * one of them waits for this commit (and then finds it).
+ */
+async function lockForCommit(trx: Db, actor: Actor, plan: CommitPlan): Promise<void> {
+	await trx.raw('SELECT pg_advisory_xact_lock(hashtext(?))', [`materials-import:${actor.organisationId}`]);
+	if (plan.revised.length > 0) {
+		await trx.raw('SELECT id FROM materials WHERE organisation_id = ? AND id = ANY(?::uuid[]) FOR UPDATE', [
+			actor.organisationId,
+			plan.revised.map((r) => r.materialId)
+		]);
+	}
+}
+
+/** Refuses the commit when any code the preview compared now has another current revision or status. */
+async function checkUnchangedSincePreview(trx: Db, actor: Actor, plan: CommitPlan): Promise<void> {
+	const now = await currentRevisionStates(trx, actor.organisationId, [...plan.compared.keys()]);
+	for (const [code, state] of plan.compared) {
+		if ((now.get(code) ?? null) !== state) throw new ConflictError(CHANGED_SINCE_PREVIEW);
+	}
+}
+
+/** Remembers a mapping the person gave for files with the same header, when the commit used the file. */
+async function saveGivenMapping(trx: Db, actor: Actor, plan: CommitPlan): Promise<boolean> {
+	const used = plan.added.length > 0 || plan.revised.length > 0 || plan.counts.unchanged > 0;
+	if (plan.mappingSource !== 'given' || !used) return false;
+	await trx('import_mappings')
+		.insert({
+			organisation_id: actor.organisationId,
+			kind: 'materials',
+			header_signature: headerSignature(plan.headers),
+			mapping: JSON.stringify(plan.mapping)
+		})
+		.onConflict(['organisation_id', 'kind', 'header_signature'])
+		.merge({ mapping: JSON.stringify(plan.mapping), updated_at: trx.fn.now() });
+	return true;
 }
 
 /** Commit in one call: `planCommit` then `applyCommit`. `source` may be null when the preview is kept. */
