@@ -55,13 +55,20 @@ const safeText = (max: number) =>
 			message: 'holds an invisible control character (such as a zero byte); remove it'
 		});
 
+/** A calendar date written YYYY-MM-DD between 1900 and 2200; one message, for the first thing wrong. */
 const isoDate = z
 	.string({ error: 'must be a date' })
-	.regex(/^\d{4}-\d{2}-\d{2}$/, 'must be a date written YYYY-MM-DD')
-	.refine((s) => {
-		const d = new Date(`${s}T00:00:00Z`);
-		return !Number.isNaN(d.getTime()) && d.toISOString().slice(0, 10) === s;
-	}, 'is not a real calendar date')
+	.regex(/^\d{4}-\d{2}-\d{2}$/, {
+		message: 'must be a date written YYYY-MM-DD, e.g. 2024-03-01',
+		abort: true
+	})
+	.refine(
+		(s) => {
+			const d = new Date(`${s}T00:00:00Z`);
+			return !Number.isNaN(d.getTime()) && d.toISOString().slice(0, 10) === s;
+		},
+		{ message: 'is not a real calendar date', abort: true }
+	)
 	.refine((s) => {
 		const year = Number(s.slice(0, 4));
 		return year >= 1900 && year <= 2200;
@@ -83,8 +90,9 @@ export const materialValuesObject = z.object({
 	code: z
 		.string({ error: 'must be text' })
 		.trim()
-		.min(1, 'is required')
-		.max(64, 'must be at most 64 characters')
+		// one message for the first thing wrong: an empty code is not also "must start with a letter"
+		.min(1, { message: 'is required', abort: true })
+		.max(64, { message: 'must be at most 64 characters', abort: true })
 		.regex(
 			/^[A-Za-z0-9][A-Za-z0-9._\-/]*$/,
 			'may hold letters, digits, . _ - / and must start with a letter or digit'
