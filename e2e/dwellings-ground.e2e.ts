@@ -34,7 +34,10 @@ test('a ground floor is calculated by ISO 13370 and a loft ceiling with its roof
 	await page.getByLabel('Search the library').press('Escape');
 	await expect(page.getByTestId('material-picker')).toHaveCount(0);
 
+	await expect(page.getByLabel('Rse override m²·K/W')).toBeVisible();
 	await page.getByLabel('Kind').selectOption('ground-floor');
+	// A floor on the ground has no outside surface to override (the ground takes its place).
+	await expect(page.getByLabel('Rse override m²·K/W')).toHaveCount(0);
 	await page.getByLabel('Area m²', { exact: true }).fill('100');
 	await page.getByLabel('Exposed perimeter m').fill('40');
 	await page.getByLabel('Layer 1 name').fill('Concrete slab');
