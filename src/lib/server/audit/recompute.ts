@@ -2,6 +2,7 @@
  * The recompute of audit batches, self-contained (relative imports, the Knex instance passed in) so the
  * benchmark can run it outside SvelteKit. src/lib/server/audits.ts binds it to the app's database.
  */
+import { randomUUID } from 'node:crypto';
 import type { Knex } from 'knex';
 import {
 	auditDwelling,
@@ -47,8 +48,18 @@ export type BatchProgress = {
 	added?: number;
 	startedAt?: string;
 	finishedAt?: string;
-	heartbeat?: string;
+	/** written by the running recompute every few seconds (null: its run stopped and left the batch) */
+	heartbeat?: string | null;
 	error?: string;
+	/** the run that holds the batch while it is running */
+	runId?: string | null;
+	/** when a stalled run was taken over and continued at its `done` */
+	resumedAt?: string | null;
+	/** the run covers only some dwellings: its `done` is no place to continue at */
+	partial?: boolean | null;
+	/** how many recomputes have been asked for, and the last one a finished run answered */
+	requested?: number;
+	served?: number;
 };
 
 export type BatchSource = BatchFilter & {
@@ -304,7 +315,15 @@ function auditRows(rows: DwellingRows, c: Context): Map<string, DwellingAudit> {
 	return out;
 }
 
-const STALE_AFTER_MS = 2 * 60_000;
+/** A running recompute writes its heartbeat this often (between chunks too: a chunk takes a few seconds). */
+export const HEARTBEAT_EVERY_MS = 5_000;
+/** A running batch whose heartbeat is older than this is stalled: its worker stopped, another takes over. */
+export const STALL_AFTER_MS = 60_000;
+/**
+ * A run that has finished no chunk for this long stops writing its heartbeat (a query that hangs would
+ * otherwise keep a batch "running" for ever), so the batch is taken over as stalled a minute later.
+ */
+const STUCK_AFTER_MS = 10 * 60_000;
 
 /** Members of a batch's progress to set (null clears one). */
 type ProgressPatch = { [K in keyof BatchProgress]?: BatchProgress[K] | null };
@@ -312,46 +331,159 @@ type ProgressPatch = { [K in keyof BatchProgress]?: BatchProgress[K] | null };
 /** The batch's progress with `patch` merged in (jsonb `||`), for an update of audit_batches. */
 const progressWith = (k: Db, patch: ProgressPatch) => k.raw(`progress || ?::jsonb`, [JSON.stringify(patch)]);
 
-/** Merge `patch` into the progress of the batch; `touch` moves its updated_at too. */
-const writeProgress = (k: Db, organisationId: string, batchId: string, patch: ProgressPatch, touch = false) =>
+/** True when the batch is running but its run has written no heartbeat for STALL_AFTER_MS. */
+export function isStalled(progress: BatchProgress | null | undefined, at = Date.now()): boolean {
+	if (progress?.state !== 'running') return false;
+	const beat = Date.parse(progress.heartbeat ?? '');
+	return !(beat >= at - STALL_AFTER_MS);
+}
+
+/** The batch row, locked for the rest of the transaction. */
+const lockBatch = (trx: Knex.Transaction, organisationId: string, batchId: string) =>
+	trx('audit_batches')
+		.where({ organisation_id: organisationId, id: batchId })
+		.forUpdate()
+		.first('progress', 'filter', 'sampling');
+
+/** Merge `patch` into the progress of the batch while run `runId` holds it; the rows changed (0 or 1). */
+const writeRun = (
+	k: Db,
+	organisationId: string,
+	batchId: string,
+	runId: string,
+	patch: ProgressPatch,
+	touch = false
+) =>
 	k('audit_batches')
 		.where({ id: batchId, organisation_id: organisationId })
+		.whereRaw(`progress->>'runId' = ?`, [runId])
 		.update({ progress: progressWith(k, patch), ...(touch ? { updated_at: k.fn.now() } : {}) });
+
+/** Add flagged dwellings from outside the sample as items of the batch; the new items' ids. */
+async function addItems(
+	trx: Knex.Transaction,
+	organisationId: string,
+	batchId: string,
+	toAdd: { id: string; reason: string }[]
+): Promise<{ id: string; dwelling_id: string }[]> {
+	await insertItems(trx, organisationId, batchId, toAdd);
+	return trx('audit_items')
+		.where({ batch_id: batchId })
+		.whereIn(
+			'dwelling_id',
+			toAdd.map((t) => t.id)
+		)
+		.select('id', 'dwelling_id');
+}
+
+export type RecomputeOptions = {
+	userId?: string | null;
+	chunkSize?: number;
+	/** recompute only these dwellings (after a resubmission); such a run is never continued by another */
+	onlyDwellings?: string[];
+	/**
+	 * The request this run answers (from requestRecomputeWith): a job that comes back after a later run
+	 * has finished (a retry, a duplicate) finds its request served and does nothing.
+	 */
+	request?: number;
+	/** Stop before the next chunk and leave the batch to be taken over at once (shutdown). */
+	signal?: AbortSignal;
+	/** Called after each chunk is written, with the batch's progress so far. */
+	onChunk?: (p: { done: number; total: number }) => void | Promise<void>;
+	heartbeatMs?: number;
+};
 
 /**
  * Recompute every dwelling of a batch's population in chunks, writing each item's flags and figures and
- * the batch's progress after every chunk (the page follows it). With `includeFlagged`, dwellings outside
- * the sample that carry a flag are added, saying which flags. Returns false when another run holds the batch.
+ * the batch's progress after every chunk, in one transaction per chunk (the page follows it). With
+ * `includeFlagged`, dwellings outside the sample that carry a flag are added, saying which flags.
+ *
+ * The run claims the batch with a fresh `runId` and a `heartbeat` it renews every few seconds; a batch
+ * still running with an older heartbeat than STALL_AFTER_MS has lost its worker and is taken over: the new
+ * run continues at the stalled run's `done` (written with the chunk it counts, so the dwellings before it
+ * are not recomputed again) and carries its counts on. A run that finds another `runId` on the batch has
+ * been taken over: it stops, and the chunk it was writing is rolled back.
+ *
+ * Returns false when another live run holds the batch, the request was served already, or this run was
+ * stopped or taken over before the end.
  */
 export async function recomputeBatchWith(
 	db: Knex,
 	organisationId: string,
 	batchId: string,
-	opts: { userId?: string | null; chunkSize?: number; onlyDwellings?: string[] } = {}
+	opts: RecomputeOptions = {}
 ): Promise<boolean> {
-	const now = new Date().toISOString();
-	const claimed = await db('audit_batches')
-		.where({ organisation_id: organisationId, id: batchId })
-		.andWhere((w) =>
-			w
-				.whereRaw(`coalesce(progress->>'state', '') <> 'running'`)
-				.orWhereRaw(`coalesce((progress->>'heartbeat')::timestamptz, 'epoch') < ?`, [
-					new Date(Date.now() - STALE_AFTER_MS).toISOString()
-				])
-		)
-		.update({
-			progress: progressWith(db, { state: 'running', startedAt: now, heartbeat: now, done: 0, error: null }),
-			updated_at: db.fn.now()
-		})
-		.returning(['filter', 'sampling']);
-	if (claimed.length === 0) return false;
-	const source = claimed[0].filter as BatchSource;
-	const sampling = claimed[0].sampling as SamplingRule;
-	const population = opts.onlyDwellings ?? source.population ?? [];
-	const total = population.length;
+	const runId = randomUUID();
+	const claim = await db.transaction(async (trx) => {
+		const row = await lockBatch(trx, organisationId, batchId);
+		if (!row) return null;
+		const p = (row.progress ?? {}) as BatchProgress;
+		if (p.state === 'running' && !isStalled(p)) return null;
+		if (opts.request !== undefined && (p.served ?? 0) >= opts.request) return null;
+		const source = row.filter as BatchSource;
+		const population = opts.onlyDwellings ?? source.population ?? [];
+		const total = population.length;
+		// Only a whole-population run that stalled is continued; anything else starts at the first dwelling.
+		const carry =
+			p.state === 'running' &&
+			!p.partial &&
+			!opts.onlyDwellings &&
+			p.total === total &&
+			Number.isInteger(p.done) &&
+			p.done! >= 0 &&
+			p.done! <= total;
+		const start = carry ? p.done! : 0;
+		const now = new Date().toISOString();
+		await trx('audit_batches')
+			.where({ organisation_id: organisationId, id: batchId })
+			.update({
+				progress: progressWith(trx, {
+					state: 'running',
+					runId,
+					startedAt: start > 0 && p.startedAt ? p.startedAt : now,
+					resumedAt: start > 0 ? now : null,
+					heartbeat: now,
+					done: start,
+					total,
+					flagged: carry ? (p.flagged ?? 0) : 0,
+					added: carry ? (p.added ?? 0) : 0,
+					partial: opts.onlyDwellings ? true : null,
+					error: null,
+					finishedAt: null
+				}),
+				updated_at: trx.fn.now()
+			});
+		return {
+			population,
+			total,
+			start,
+			flagged: carry ? (p.flagged ?? 0) : 0,
+			added: carry ? (p.added ?? 0) : 0,
+			serving: p.requested ?? 0,
+			sampling: row.sampling as SamplingRule
+		};
+	});
+	if (!claim) return false;
+	const { population, total, start, sampling } = claim;
 	const chunkSize = opts.chunkSize ?? 200;
-	let flagged = 0;
-	let added = 0;
+	let flagged = claim.flagged;
+	let added = claim.added;
+
+	// The heartbeat: written on a timer so that a long chunk does not look like a dead worker. Finding the
+	// batch held by another run (0 rows) means this one was taken over.
+	let lost = false;
+	let lastStep = Date.now();
+	const beat = setInterval(() => {
+		if (lost || Date.now() - lastStep > STUCK_AFTER_MS) return;
+		writeRun(db, organisationId, batchId, runId, { heartbeat: new Date().toISOString() }).then(
+			(n) => {
+				if (n === 0) lost = true;
+			},
+			(e) => console.error('[envelo] audit recompute heartbeat:', e)
+		);
+	}, opts.heartbeatMs ?? HEARTBEAT_EVERY_MS);
+	beat.unref?.();
+
 	try {
 		const ctx = await loadContext(db, organisationId);
 		const items = await db('audit_items')
@@ -365,8 +497,16 @@ export async function recomputeBatchWith(
 			p.catch(() => {}); // awaited below; this only keeps an early failure from being "unhandled"
 			return p;
 		};
-		let pending = load(0);
-		for (let i = 0; i < total; i += chunkSize) {
+		let pending = load(start);
+		for (let i = start; i < total; i += chunkSize) {
+			if (lost) return false;
+			if (opts.signal?.aborted) {
+				// Left running with no heartbeat: stalled at once, so the next worker continues at `done`.
+				await writeRun(db, organisationId, batchId, runId, { heartbeat: null }).catch((e) =>
+					console.error('[envelo] audit recompute could not leave its batch:', e)
+				);
+				return false;
+			}
 			const ids = population.slice(i, i + chunkSize);
 			const rows = await pending!;
 			pending = load(i + chunkSize);
@@ -374,8 +514,9 @@ export async function recomputeBatchWith(
 			await db.transaction(async (trx) => {
 				const updates: { id: string; flags: Flag[]; recompute: DwellingAudit }[] = [];
 				const toAdd: { id: string; reason: string }[] = [];
+				let chunkFlagged = 0;
 				for (const [dwellingId, audit] of audits) {
-					if (audit.flags.length) flagged++;
+					if (audit.flags.length) chunkFlagged++;
 					const itemId = itemBy.get(dwellingId);
 					if (itemId) updates.push({ id: itemId, flags: audit.flags, recompute: audit });
 					else if (sampling.includeFlagged && audit.flags.length) {
@@ -386,21 +527,10 @@ export async function recomputeBatchWith(
 						});
 					}
 				}
-				if (toAdd.length) {
-					await insertItems(trx, organisationId, batchId, toAdd);
-					const fresh = await trx('audit_items')
-						.where({ batch_id: batchId })
-						.whereIn(
-							'dwelling_id',
-							toAdd.map((t) => t.id)
-						)
-						.select('id', 'dwelling_id');
-					for (const f of fresh) {
-						itemBy.set(f.dwelling_id, f.id);
-						const audit = audits.get(f.dwelling_id)!;
-						updates.push({ id: f.id, flags: audit.flags, recompute: audit });
-					}
-					added += toAdd.length;
+				const fresh = toAdd.length ? await addItems(trx, organisationId, batchId, toAdd) : [];
+				for (const f of fresh) {
+					const audit = audits.get(f.dwelling_id)!;
+					updates.push({ id: f.id, flags: audit.flags, recompute: audit });
 				}
 				if (updates.length) {
 					await trx.raw(
@@ -429,53 +559,124 @@ export async function recomputeBatchWith(
 						}))
 					);
 				}
-				const done = Math.min(total, i + ids.length);
-				await writeProgress(trx, organisationId, batchId, {
+				// `done` is written with the items it counts: a run that continues here recomputes none twice.
+				const held = await writeRun(trx, organisationId, batchId, runId, {
 					state: 'running',
-					done,
+					done: Math.min(total, i + ids.length),
+					total,
+					flagged: flagged + chunkFlagged,
+					added: added + toAdd.length,
+					heartbeat: new Date().toISOString()
+				});
+				if (held === 0) {
+					lost = true;
+					throw new Error('the recompute of this batch was taken over by another run');
+				}
+				// Counted only once the chunk is written (a rolled-back chunk counts nothing).
+				flagged += chunkFlagged;
+				added += toAdd.length;
+				for (const f of fresh) itemBy.set(f.dwelling_id, f.id);
+			});
+			lastStep = Date.now();
+			await opts.onChunk?.({ done: Math.min(total, i + ids.length), total });
+		}
+		if (lost) return false;
+		const finished = await db.transaction(async (trx) => {
+			const held = await writeRun(
+				trx,
+				organisationId,
+				batchId,
+				runId,
+				{
+					state: 'done',
+					done: total,
 					total,
 					flagged,
 					added,
-					heartbeat: new Date().toISOString()
-				});
+					served: claim.serving,
+					finishedAt: new Date().toISOString()
+				},
+				true
+			);
+			if (held === 0) return false;
+			await logRow(trx, {
+				organisationId,
+				userId: opts.userId ?? null,
+				action: 'audit-batch-recompute',
+				entity: 'audit_batch',
+				entityId: batchId,
+				details: {
+					dwellings: total,
+					flagged,
+					added,
+					partial: Boolean(opts.onlyDwellings),
+					...(start > 0 ? { continuedFrom: start } : {})
+				}
 			});
-		}
-		await writeProgress(
-			db,
-			organisationId,
-			batchId,
-			{ state: 'done', done: total, total, flagged, added, finishedAt: new Date().toISOString() },
-			true
-		);
-		await logRow(db, {
-			organisationId,
-			userId: opts.userId ?? null,
-			action: 'audit-batch-recompute',
-			entity: 'audit_batch',
-			entityId: batchId,
-			details: { dwellings: total, flagged, added, partial: Boolean(opts.onlyDwellings) }
+			return true;
 		});
-		return true;
+		return finished;
 	} catch (e) {
-		await writeProgress(db, organisationId, batchId, {
+		if (lost) return false;
+		await writeRun(db, organisationId, batchId, runId, {
 			state: 'failed',
 			error: e instanceof Error ? e.message : String(e),
 			finishedAt: new Date().toISOString()
-		});
+		}).catch((w) => console.error('[envelo] audit recompute could not record its failure:', w));
 		throw e;
+	} finally {
+		clearInterval(beat);
 	}
 }
 
-/** Mark a batch as waiting for the queue (the page shows it at once). */
+/**
+ * Ask for a recompute of the batch; the request's number for the job, or null while a live run holds
+ * the batch. An idle batch waits as queued from its first dwelling; a stalled one stays running at its
+ * `done` (its run is disowned, so it can write nothing more) until the next run takes it over there.
+ */
+export async function requestRecomputeWith(
+	db: Knex,
+	organisationId: string,
+	batchId: string
+): Promise<number | null> {
+	return db.transaction(async (trx) => {
+		const row = await lockBatch(trx, organisationId, batchId);
+		if (!row) return null;
+		const p = (row.progress ?? {}) as BatchProgress;
+		if (p.state === 'running' && !isStalled(p)) return null;
+		const request = (p.requested ?? 0) + 1;
+		const patch: ProgressPatch =
+			p.state === 'running'
+				? { requested: request, runId: null }
+				: { state: 'queued', done: 0, requested: request };
+		await trx('audit_batches')
+			.where({ organisation_id: organisationId, id: batchId })
+			.update({ progress: progressWith(trx, patch), updated_at: trx.fn.now() });
+		return request;
+	});
+}
+
+/** Ask for a recompute of the batch (requestRecomputeWith); false while a live run holds it. */
 export async function markQueuedWith(db: Knex, organisationId: string, batchId: string): Promise<boolean> {
-	const n = await db('audit_batches')
-		.where({ organisation_id: organisationId, id: batchId })
-		.whereRaw(`coalesce(progress->>'state', '') <> 'running'`)
-		.update({
-			progress: progressWith(db, { state: 'queued', done: 0 }),
-			updated_at: db.fn.now()
-		});
-	return n > 0;
+	return (await requestRecomputeWith(db, organisationId, batchId)) !== null;
+}
+
+/**
+ * The batches of every organisation whose recompute has stalled (running, no heartbeat for
+ * STALL_AFTER_MS), for the worker to queue again.
+ */
+export async function stalledBatchesWith(
+	db: Knex,
+	at = Date.now()
+): Promise<{ organisationId: string; batchId: string }[]> {
+	const rows = await db('audit_batches')
+		.whereRaw(`progress->>'state' = 'running'`)
+		.whereRaw(`coalesce((progress->>'heartbeat')::timestamptz, 'epoch') < ?`, [
+			new Date(at - STALL_AFTER_MS).toISOString()
+		])
+		.orderBy('updated_at')
+		.select('id', 'organisation_id');
+	return rows.map((r) => ({ organisationId: r.organisation_id as string, batchId: r.id as string }));
 }
 
 /** Recompute one dwelling of a batch now (after a resubmission), without touching the batch's progress. */
