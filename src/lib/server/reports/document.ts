@@ -10,6 +10,18 @@ import type { StoredLayer } from '$lib/dwellings/element-input';
 import { FONT } from '$lib/server/pdf';
 import { temperatureChart, vapourChart, CHART_COLOURS } from './charts';
 import { fx, trim, pct, monthName, longDate, MONTHS } from '$lib/format';
+import {
+	condensationNotAssessed,
+	elementHeatFlux,
+	massBalanceCaution,
+	surfaceNotAssessed
+} from '$lib/reports/wording';
+import {
+	groundBranch,
+	groundBuildUpResistance,
+	methodParagraphs,
+	roofSpaceOfResult
+} from '$lib/reports/method';
 import type { ReportSnapshot, SnapshotElement } from './snapshot';
 
 /** "ABCD-EFGH-JK": the code as the screens show it (the verify page takes it with or without dashes). */
@@ -42,16 +54,21 @@ const OUTCOME_LABELS: Record<string, string> = {
 	accumulates: 'Condensation accumulates: it does not evaporate within the year'
 };
 
-/** Short moisture outcome for tables. */
+/**
+ * Short moisture outcome for tables; a check that did not run says why, from the result (a floor on the
+ * ground is not assessed for interstitial condensation whatever climate it has).
+ */
 export function moistureWord(el: SnapshotElement): string {
 	const r = el.result;
 	if (!r) return el.givenU != null ? 'not assessed' : '—';
 	const c = r.condensation;
 	const s = r.surface;
-	if (!c && !s) return 'no climate';
+	if (!c && !s && !r.ground) return 'no climate';
 	const parts: string[] = [];
 	if (c) parts.push(c.outcome === 'none' ? 'none' : c.outcome === 'dries' ? 'dries out' : 'accumulates');
+	else parts.push(condensationNotAssessed(r)!.short);
 	if (s) parts.push(s.pass ? 'fRsi passes' : 'fRsi fails');
+	else if (r.ground) parts.push(`fRsi ${surfaceNotAssessed(r)!.short}`);
 	return parts.join('; ');
 }
 
@@ -279,14 +296,9 @@ function layerTable(el: SnapshotElement, r: ElementResult): Content {
 	} as Content;
 }
 
+/** The method actually used (methodParagraphs), then surface resistances, corrections and rounding. */
 function methodStatement(r: ElementResult): Content {
-	const bridged = r.rUpper !== undefined;
-	const paras: string[] = [];
-	paras.push(
-		bridged
-			? 'Thermal transmittance by ISO 6946:2017, combined method (6.7.2): the upper limit R′T from parallel heat-flow paths through each section, the lower limit R″T from layers of equivalent conductivity, RT = (R′T + R″T)/2, and the maximum relative error e = (R′T − R″T)/(2·RT).'
-			: 'Thermal transmittance by ISO 6946:2017 for homogeneous layers in series: RT = Rsi + ΣR + Rse and U = 1/RT.'
-	);
+	const paras: string[] = methodParagraphs(r);
 	paras.push(`Surface resistances used: Rsi = ${fx(r.rsi, 2)} m²·K/W and Rse = ${fx(r.rse, 2)} m²·K/W.`);
 	if (r.deltaUAirGaps > 0 || r.deltaUFasteners > 0) {
 		paras.push(
@@ -306,12 +318,39 @@ function methodStatement(r: ElementResult): Content {
 function thermalTable(el: SnapshotElement, r: ElementResult, s: ReportSnapshot): Content {
 	const rows: [string, string | Content][] = [];
 	rows.push(['Rsi, Rse', `${fx(r.rsi, 2)} and ${fx(r.rse, 2)} m²·K/W`]);
+	const roof = roofSpaceOfResult(r);
+	if (roof) rows.push(['Roof space Ru', `${fx(roof.ru, 2)} m²·K/W (${roof.source})`]);
 	if (r.rUpper !== undefined && r.rLower !== undefined) {
 		rows.push(['Upper limit R′T', `${fx(r.rUpper, 3)} m²·K/W`]);
 		rows.push(['Lower limit R″T', `${fx(r.rLower, 3)} m²·K/W`]);
 	}
-	rows.push(['Total resistance RT', `${fx(r.rTotal, 3)} m²·K/W`]);
-	if (r.relativeError !== undefined) rows.push(['Maximum relative error e', pct(r.relativeError, 1)]);
+	const g = r.ground;
+	if (g) {
+		// ISO 13370: the build-up's own RT, then the ground's figures and the floor's equivalent 1/U.
+		rows.push(['Build-up RT = Rsi + ΣR + Rse', `${fx(groundBuildUpResistance(r), 3)} m²·K/W`]);
+		if (r.relativeError !== undefined) rows.push(['Maximum relative error e', pct(r.relativeError, 1)]);
+		rows.push([
+			'Characteristic dimension B′',
+			`${fx(g.characteristicDimensionM, 2)} m (A ${trim(g.areaM2, 2)} m², exposed perimeter P ${trim(g.perimeterM, 2)} m)`
+		]);
+		rows.push([
+			'Equivalent thickness dt',
+			`${fx(g.equivalentThicknessM, 3)} m (w ${fx(g.wallThicknessM, 2)} m, λg ${fx(g.groundLambda, 2)} W/(m·K))`
+		]);
+		rows.push([
+			'Formula (ISO 13370)',
+			groundBranch(g) === 'dt < B′'
+				? 'dt < B′: U = 2λg/(π·B′ + dt)·ln(π·B′/dt + 1)'
+				: 'dt ≥ B′: U = λg/(0.457·B′ + dt)'
+		]);
+		rows.push([
+			'Equivalent resistance 1/U',
+			`${fx(r.rTotal, 3)} m²·K/W (the ground adds ${fx(g.rGround, 3)} m²·K/W)`
+		]);
+	} else {
+		rows.push(['Total resistance RT', `${fx(r.rTotal, 3)} m²·K/W`]);
+		if (r.relativeError !== undefined) rows.push(['Maximum relative error e', pct(r.relativeError, 1)]);
+	}
 	rows.push(['U before corrections', `${fx(r.uUncorrected, 4)} W/(m²·K)`]);
 	rows.push([
 		'ΔU',
@@ -344,7 +383,11 @@ function resultPanel(el: SnapshotElement, s: ReportSnapshot): Content {
 	const u = el.u;
 	cells.push(
 		big('U-value, W/(m²·K)', fx(u, 2), {
-			text: r ? `RT ${fx(r.rTotal, 3)} m²·K/W` : `given: ${el.givenUSource ?? 'source not recorded'}`,
+			text: r
+				? r.ground
+					? `build-up RT ${fx(groundBuildUpResistance(r), 3)} · 1/U ${fx(r.rTotal, 3)} m²·K/W`
+					: `RT ${fx(r.rTotal, 3)} m²·K/W`
+				: `given: ${el.givenUSource ?? 'source not recorded'}`,
 			fontSize: 7.5,
 			color: SOFT
 		} as Content)
@@ -369,7 +412,7 @@ function resultPanel(el: SnapshotElement, s: ReportSnapshot): Content {
 						? 'in no month'
 						: `peak ${fx(c.maxAccumulation, 1)} g/m² in ${monthName(c.peakMonth)}`
 					: r
-						? 'not assessed: no climate'
+						? condensationNotAssessed(r)!.short
 						: 'not assessed',
 				fontSize: 7.5,
 				color: c ? (c.outcome === 'accumulates' ? FAIL : c.outcome === 'dries' ? CAUTION : PASS) : SOFT
@@ -384,7 +427,9 @@ function resultPanel(el: SnapshotElement, s: ReportSnapshot): Content {
 						{ text: sf.pass ? 'Passes' : 'Fails', bold: true, color: sf.pass ? PASS : FAIL },
 						{ text: ` · fRsi,min ${fx(sf.fRsiMin, 3)} (${monthName(sf.criticalMonth)})`, color: SOFT }
 					]
-				: 'not assessed',
+				: r
+					? surfaceNotAssessed(r)!.short
+					: 'not assessed',
 			fontSize: 7.5,
 			color: SOFT
 		} as Content)
@@ -532,13 +577,7 @@ function acceptanceVerdict(r: ElementResult): Content {
 
 function condensationPart(el: SnapshotElement, r: ElementResult): Content[] {
 	const c = r.condensation;
-	if (!c)
-		return [
-			{
-				text: 'No climate is attached to this element: the interstitial condensation check was not run.',
-				color: SOFT
-			} as Content
-		];
+	if (!c) return [{ text: condensationNotAssessed(r)!.sentence, color: SOFT } as Content];
 	const out: Content[] = [];
 	const peakAt = c.nodes.map((_, i) => Math.max(0, ...c.months.map((m) => m.accumulatedAt[i] ?? 0)));
 	const wet = peakAt.map((p, i) => ({ p, i })).filter((x) => x.p > 1e-6);
@@ -646,16 +685,35 @@ function condensationPart(el: SnapshotElement, r: ElementResult): Content[] {
 		]);
 	}
 	out.push(kv(rows, [130, '*']));
+	const caution = massBalanceCaution(c);
+	if (caution) out.push(massBalanceBlock(caution));
 	return out;
+}
+
+/** The caution that the monthly method created moisture, with both years' figures side by side. */
+function massBalanceBlock(caution: NonNullable<ReturnType<typeof massBalanceCaution>>): Content {
+	const body: TableCell[][] = [
+		[th(''), th(caution.standardHeading), th(caution.conservingHeading)],
+		...caution.rows.map((row) => [
+			{ text: row.label, color: SOFT } as TableCell,
+			row.standard,
+			row.conserving
+		])
+	];
+	return {
+		stack: [
+			{ text: caution.heading, bold: true, color: CAUTION, margin: [0, 0, 0, 2] },
+			{ text: caution.text, margin: [0, 0, 0, 4] },
+			{ table: { headerRows: 1, widths: [130, '*', '*'], body }, layout: rules, fontSize: 8 }
+		],
+		unbreakable: true,
+		margin: [0, 6, 0, 0]
+	} as Content;
 }
 
 function surfacePart(r: ElementResult): Content {
 	const s = r.surface;
-	if (!s)
-		return {
-			text: 'No climate is attached, or no month is colder outside than inside: the surface-humidity check was not run.',
-			color: SOFT
-		} as Content;
+	if (!s) return { text: surfaceNotAssessed(r)!.sentence, color: SOFT } as Content;
 	const rows: [string, string | Content][] = [
 		['fRsi of the element', `${fx(s.fRsi, 3)} (with Rsi = ${fx(s.rsiUsed, 2)} m²·K/W for this check)`],
 		[
@@ -827,7 +885,7 @@ export function elementSection(
 			h2('4', 'Temperature through the build-up'),
 			...chart(
 				temperatureChart(r, CONTENT_WIDTH, 190),
-				`Steady state at θi ${fx(r.designTemperatures.internal, 1)} °C and θe ${fx(r.designTemperatures.external, 1)} °C; layers numbered as in the layer table${r.layers.some((l) => l.bridgeFraction !== undefined) ? ', bridged layers shaded darker (profile through the main material)' : ''}. Heat flux ${fx(r.heatFluxElement, 2)} W/m².`
+				`Steady state at θi ${fx(r.designTemperatures.internal, 1)} °C and θe ${fx(r.designTemperatures.external, 1)} °C; layers numbered as in the layer table${r.layers.some((l) => l.bridgeFraction !== undefined) ? ', bridged layers shaded darker (profile through the main material)' : ''}. ${elementHeatFlux(r).sentence}`
 			)
 		],
 		unbreakable: true
@@ -884,11 +942,21 @@ export function moistureSummary(s: ReportSnapshot): Content {
 	const drying = withC.filter((e) => e.result!.condensation!.outcome === 'dries');
 	const withS = s.elements.filter((e) => e.result?.surface);
 	const mould = withS.filter((e) => !e.result!.surface!.pass);
-	const unchecked = s.elements.filter((e) => e.result && !e.result.condensation && !e.result.surface);
+	// Why a check did not run comes from the result: a floor on the ground is never assessed for
+	// interstitial condensation, whatever climate it has; any other element lacks a climate.
+	const onGround = s.elements.filter((e) => e.result && !e.result.condensation && e.result.ground);
+	const unchecked = s.elements.filter(
+		(e) => e.result && !e.result.condensation && !e.result.surface && !e.result.ground
+	);
+	const groundNames = names(onGround.map((e) => e.name));
 	const parts: Content[] = [];
 	const add = (text: string, color: string) => parts.push({ text, color } as Content);
-	if (withC.length === 0) add('no interstitial condensation check was run (no climate attached). ', SOFT);
-	else {
+	if (withC.length === 0) {
+		const why: string[] = [];
+		if (unchecked.length || !onGround.length) why.push('no climate attached');
+		if (onGround.length) why.push(`not assessed for a floor in contact with the ground: ${groundNames}`);
+		add(`no interstitial condensation check was run (${why.join('; ')}). `, SOFT);
+	} else {
 		if (accumulating.length)
 			add(
 				`${elementsCount(accumulating.length)} accumulate${accumulating.length === 1 ? 's' : ''} interstitial condensate over the year (${names(accumulating.map((e) => e.name))}). `,
@@ -900,7 +968,10 @@ export function moistureSummary(s: ReportSnapshot): Content {
 				CAUTION
 			);
 		if (!accumulating.length && !drying.length)
-			add('no interstitial condensation forms in any element in any month. ', PASS);
+			add(
+				`no interstitial condensation forms in any element${onGround.length ? ' assessed for it' : ''} in any month. `,
+				PASS
+			);
 	}
 	if (withS.length) {
 		if (mould.length)
@@ -912,6 +983,17 @@ export function moistureSummary(s: ReportSnapshot): Content {
 	}
 	if (unchecked.length && withC.length)
 		add(`Not checked for moisture (no climate): ${names(unchecked.map((e) => e.name))}. `, SOFT);
+	if (onGround.length && withC.length)
+		add(
+			`Interstitial condensation is not assessed for a floor in contact with the ground (${groundNames}). `,
+			SOFT
+		);
+	const surfaceUnchecked = new Map<string, string[]>();
+	for (const e of onGround) {
+		const why = surfaceNotAssessed(e.result!);
+		if (why) surfaceUnchecked.set(why.short, [...(surfaceUnchecked.get(why.short) ?? []), e.name]);
+	}
+	for (const [why, list] of surfaceUnchecked) add(`Surface-humidity check ${why} (${names(list)}). `, SOFT);
 	if (accumulating.length || drying.length || mould.length) add('See the element pages.', INK);
 	return {
 		text: [{ text: 'Moisture: ', bold: true }, ...parts],

@@ -1,0 +1,130 @@
+/**
+ * The method a report names for an element's U-value, taken from what the engine's result says it did:
+ * layers in series, the combined method for bridged layers (with its limits and relative error), a roof
+ * space added as a resistance (with the table the engine cites), or a floor on the ground by its
+ * equivalent thickness (with B′, dt, the formula branch and the build-up's own RT beside the floor's U).
+ * Pure functions of a stored element result; numbers written with `fx`, `trim` and `pct` (format.ts).
+ */
+import type { ElementResult } from '$lib/physics';
+import { fx, pct, trim } from '$lib/format';
+
+/** The method of an element of homogeneous layers only (ISO 6946:2017, 6.7.1). */
+export const SERIES_METHOD =
+	'Thermal transmittance by ISO 6946:2017 for homogeneous layers in series: RT = Rsi + ΣR + Rse and U = 1/RT.';
+
+/** The combined method for bridged layers (ISO 6946:2017, 6.7.2). */
+export const COMBINED_METHOD =
+	'Thermal transmittance by ISO 6946:2017, combined method (6.7.2): the upper limit R′T from parallel heat-flow paths through each section, the lower limit R″T from layers of equivalent conductivity, RT = (R′T + R″T)/2, and the maximum relative error e = (R′T − R″T)/(2·RT).';
+
+/** What the method section needs of a result. */
+export type MethodResult = Pick<
+	ElementResult,
+	| 'rTotal'
+	| 'rsi'
+	| 'rse'
+	| 'uUncorrected'
+	| 'rUpper'
+	| 'rLower'
+	| 'relativeError'
+	| 'rRoofSpace'
+	| 'ground'
+	| 'rBuildUp'
+	| 'uBuildUp'
+	| 'notes'
+>;
+
+/** Which method gave the element's U: the element's kind of calculation, from its result. */
+export type MethodKind = 'series' | 'combined' | 'roof-space' | 'combined-roof-space' | 'ground';
+
+export function methodKind(r: MethodResult): MethodKind {
+	if (r.ground) return 'ground';
+	const bridged = r.rUpper !== undefined && r.rLower !== undefined;
+	if (r.rRoofSpace !== undefined) return bridged ? 'combined-roof-space' : 'roof-space';
+	return bridged ? 'combined' : 'series';
+}
+
+/** Used when the engine's note on the roof space cannot be read (the engine's own citation). */
+const ROOF_SPACE_SOURCE_FALLBACK = 'ISO 6946:2017, roof-space table';
+
+/**
+ * The roof space as the engine's note states it: the roof covering in words and the source of Ru, with
+ * the standard and table exactly as the note gives them ("Roof space above the ceiling (<covering>):
+ * Ru = <value> m²·K/W (<source>) …"); null for an element without a roof space.
+ */
+export function roofSpaceOfResult(
+	r: Pick<ElementResult, 'rRoofSpace' | 'notes'>
+): { ru: number; covering: string | null; source: string } | null {
+	if (r.rRoofSpace === undefined) return null;
+	const note = r.notes.find((n) => n.startsWith('Roof space above the ceiling'));
+	const covering = note ? (/^Roof space above the ceiling \(([^)]*)\)/.exec(note)?.[1] ?? null) : null;
+	const source = note ? /Ru = [^(]*\(([^)]*)\)/.exec(note)?.[1] : undefined;
+	return { ru: r.rRoofSpace, covering, source: source ?? ROOF_SPACE_SOURCE_FALLBACK };
+}
+
+/** "R′T = … and R″T = …, so RT = … with e = …" of a bridged build-up. */
+function combinedFigures(rUpper: number, rLower: number, rT: number, e: number | undefined): string {
+	const error = e ?? (rUpper - rLower) / (2 * rT);
+	return `R′T = ${fx(rUpper, 3)} m²·K/W and R″T = ${fx(rLower, 3)} m²·K/W, so RT = ${fx(rT, 3)} m²·K/W with a maximum relative error e = ${pct(error, 1)}`;
+}
+
+/** The ISO 13370 branch of a ground floor's result, 'dt < B′' or 'dt ≥ B′'. */
+export function groundBranch(g: NonNullable<ElementResult['ground']>): 'dt < B′' | 'dt ≥ B′' {
+	if (g.regime === 'dt < B′' || g.regime === 'dt ≥ B′') return g.regime;
+	return g.equivalentThicknessM < g.characteristicDimensionM ? 'dt < B′' : 'dt ≥ B′';
+}
+
+/** RT of a ground floor's build-up alone (Rsi + ΣR + Rse), m²·K/W: the result's, or 1/U less the ground's share. */
+export function groundBuildUpResistance(r: Pick<ElementResult, 'rBuildUp' | 'rTotal' | 'ground'>): number {
+	return r.rBuildUp ?? r.rTotal - (r.ground?.rGround ?? 0);
+}
+
+/**
+ * The paragraphs of the method section that say how RT and U were found, before the surface
+ * resistances, corrections and rounding the report states for every element. An element of plain
+ * layers gets {@link SERIES_METHOD} alone, word for word.
+ */
+export function methodParagraphs(r: MethodResult): string[] {
+	const kind = methodKind(r);
+	if (kind === 'series') return [SERIES_METHOD];
+	const bridged = r.rUpper !== undefined && r.rLower !== undefined;
+	const out: string[] = [];
+	if (kind === 'ground') {
+		const g = r.ground!;
+		const rBuildUp = groundBuildUpResistance(r);
+		const rFloor = rBuildUp - r.rsi - r.rse;
+		const uBuildUp = r.uBuildUp ?? 1 / rBuildUp;
+		out.push(
+			bridged
+				? `The build-up by ISO 6946:2017, combined method (6.7.2), as if exposed to outside air: ${combinedFigures(r.rUpper!, r.rLower!, rBuildUp, r.relativeError)} (U = ${fx(uBuildUp, 4)} W/(m²·K)); the floor construction's resistance is Rf = RT − Rsi − Rse = ${fx(rFloor, 3)} m²·K/W.`
+				: `The build-up by ISO 6946:2017, as if exposed to outside air: RT = Rsi + ΣR + Rse = ${fx(rBuildUp, 3)} m²·K/W (U = ${fx(uBuildUp, 4)} W/(m²·K)); the floor construction's resistance is Rf = ΣR = ${fx(rFloor, 3)} m²·K/W.`
+		);
+		const branch = groundBranch(g);
+		out.push(
+			`U of the floor on the ground by ${g.method}, from its equivalent thickness: characteristic dimension B′ = A/(0.5·P) = ${trim(g.areaM2, 2)}/(0.5·${trim(g.perimeterM, 2)}) = ${fx(g.characteristicDimensionM, 2)} m; total equivalent thickness dt = w + λg·(Rsi + Rf + Rse) = ${fx(g.wallThicknessM, 2)} + ${fx(g.groundLambda, 2)}·(${fx(r.rsi, 2)} + ${fx(rFloor, 3)} + ${fx(r.rse, 2)}) = ${fx(g.equivalentThicknessM, 3)} m. ` +
+				(branch === 'dt < B′'
+					? `As dt < B′ (an uninsulated or moderately insulated floor), U = 2λg/(π·B′ + dt)·ln(π·B′/dt + 1) = ${fx(r.uUncorrected, 4)} W/(m²·K).`
+					: `As dt ≥ B′ (a well-insulated floor), U = λg/(0.457·B′ + dt) = ${fx(r.uUncorrected, 4)} W/(m²·K).`)
+		);
+		out.push(
+			`The floor's U stands beside the build-up's own RT of ${fx(rBuildUp, 3)} m²·K/W: the ground adds ${fx(g.rGround, 3)} m²·K/W, and the floor's equivalent resistance 1/U = ${fx(r.rTotal, 3)} m²·K/W is used for the temperature profile and the surface check.`
+		);
+		return out;
+	}
+	const roof = roofSpaceOfResult(r);
+	const covering = roof?.covering ? ` (${roof.covering})` : '';
+	if (bridged) {
+		out.push(
+			`${COMBINED_METHOD} For this build-up ${combinedFigures(r.rUpper!, r.rLower!, r.rTotal, r.relativeError)}, and U = 1/RT.`
+		);
+		if (roof)
+			out.push(
+				`The roof space above the ceiling${covering} adds its thermal resistance Ru = ${fx(roof.ru, 2)} m²·K/W, from ${roof.source}, to every section, between the last layer and Rse.`
+			);
+		return out;
+	}
+	if (roof)
+		out.push(
+			`Thermal transmittance by ISO 6946:2017 for homogeneous layers in series under a roof space: RT = Rsi + ΣR + Ru + Rse and U = 1/RT, where Ru = ${fx(roof.ru, 2)} m²·K/W is the thermal resistance of the roof space above the ceiling${covering}, from ${roof.source}; here RT = ${fx(r.rTotal, 3)} m²·K/W.`
+		);
+	return out;
+}
