@@ -13,7 +13,10 @@ describe.skipIf(!hasDatabase)('refusalOf', () => {
 	});
 
 	it('a malformed id the database saw is a 400 that says so', async () => {
-		const e = await tdb()('dwellings').where({ id: 'not-a-uuid' }).first().catch((x) => x);
+		const e = await tdb()('dwellings')
+			.where({ id: 'not-a-uuid' })
+			.first()
+			.catch((x) => x);
 		const r = refusalOf(e);
 		expect(r).toBeInstanceOf(ValidationError);
 		expect(r?.status).toBe(400);
@@ -21,7 +24,10 @@ describe.skipIf(!hasDatabase)('refusalOf', () => {
 	});
 
 	it('a zero byte in text is a 400 that names it', async () => {
-		const e = await tdb()('dwellings').where({ reference: 'a\u0000b' }).first().catch((x) => x);
+		const e = await tdb()('dwellings')
+			.where({ reference: 'a\u0000b' })
+			.first()
+			.catch((x) => x);
 		const r = refusalOf(e);
 		expect(r?.status).toBe(400);
 		expect(r?.message).toMatch(/zero byte/);
