@@ -98,3 +98,23 @@ export const notFound = (description = 'No such record in your organisation.') =
 export const conflict = (description: string, extra: Record<string, JsonSchema> = {}) => ({
 	'409': fail(description, extra)
 });
+
+/** A stale save or delete: somebody changed the record since the caller loaded it. */
+export const currentVersion = {
+	currentVersion: { type: 'integer', description: 'the version now stored, when the version sent is stale' }
+};
+/** `?version=N` of a DELETE: the version the caller loaded. */
+export const versionQuery = {
+	name: 'version',
+	in: 'query',
+	required: true,
+	description: 'the version you loaded; 409 with currentVersion when it is stale',
+	schema: { type: 'integer', minimum: 1 }
+};
+/** A stored record with its version, raised by one on every update. */
+export const versioned = (s: Record<string, unknown>) => ({
+	allOf: [
+		s,
+		{ type: 'object', properties: { version: { type: 'integer', minimum: 1 } }, required: ['version'] }
+	]
+});

@@ -13,28 +13,11 @@ import {
 	notFound,
 	ok,
 	schema,
-	withMeta
+	withMeta,
+	currentVersion,
+	versioned,
+	versionQuery
 } from '$lib/server/openapi-kit';
-
-/** A stale save or delete: somebody changed the record since the caller loaded it. */
-const currentVersion = {
-	currentVersion: { type: 'integer', description: 'the version now stored, when the version sent is stale' }
-};
-/** `?version=N` of a DELETE: the version the caller loaded. */
-const versionQuery = {
-	name: 'version',
-	in: 'query',
-	required: true,
-	description: 'the version you loaded; 409 with currentVersion when it is stale',
-	schema: { type: 'integer', minimum: 1 }
-};
-/** A stored record with its version, raised by one on every update. */
-const versioned = (s: Record<string, unknown>) => ({
-	allOf: [
-		s,
-		{ type: 'object', properties: { version: { type: 'integer', minimum: 1 } }, required: ['version'] }
-	]
-});
 
 const limitTable = versioned(withMeta(schema(limitTableInputSchema, 'output')));
 const tags = ['Limit tables'];
