@@ -34,3 +34,19 @@ export function decisionRefusal(userId: string, involvement: Involvement): strin
 	if (!why.length) return null;
 	return `You cannot decide on this dwelling: ${why.join(' and ')}. ${INDEPENDENCE_RULE}`;
 }
+
+/** A running batch whose heartbeat is older than this is stalled: its worker stopped, another takes over. */
+export const STALL_AFTER_MS = 60_000;
+
+/**
+ * True when a batch is running but its recompute has written no heartbeat for STALL_AFTER_MS: the worker
+ * stopped (a crash, a restart), and "Recompute again" or the next worker takes it over.
+ */
+export function isStalled(
+	progress: { state?: string; heartbeat?: string | null } | null | undefined,
+	at = Date.now()
+): boolean {
+	if (progress?.state !== 'running') return false;
+	const beat = Date.parse(progress.heartbeat ?? '');
+	return !(beat >= at - STALL_AFTER_MS);
+}

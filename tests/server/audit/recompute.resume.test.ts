@@ -1,6 +1,7 @@
 import { describe, it, expect, afterAll } from 'vitest';
 import PgBoss from 'pg-boss';
 import { hasDatabase, makeTeam, fakeEvent, tdb, asMember, callHandler } from '../../factories';
+import { isStalled } from '../../../src/lib/audit/rules';
 
 // A batch recompute whose worker stops half-way (the process is killed) is taken over and finished:
 // the rule "running, but no heartbeat for 60 s = stalled", the continuation at the batch's `done` and
@@ -193,7 +194,7 @@ describe.skipIf(!hasDatabase)('a recompute interrupted half-way (PostgreSQL)', a
 			beat = (await progressOf(t.batchId)).heartbeat;
 		}
 		expect(Date.parse(beat)).toBeGreaterThan(Date.parse(first));
-		expect(recompute.isStalled(await progressOf(t.batchId))).toBe(false);
+		expect(isStalled(await progressOf(t.batchId))).toBe(false);
 
 		const refused = await refreshByPage(t.supervisor, t.batchId);
 		expect(refused).toMatchObject({
@@ -250,7 +251,7 @@ describe.skipIf(!hasDatabase)('a recompute interrupted half-way (PostgreSQL)', a
 		expect(ran).toBe(false);
 		const left = await progressOf(t.batchId);
 		expect(left).toMatchObject({ state: 'running', done: 2, total: DWELLINGS, heartbeat: null });
-		expect(recompute.isStalled(left)).toBe(true);
+		expect(isStalled(left)).toBe(true);
 		const before = await recomputedAt(t.batchId);
 		expect(await refreshByPage(t.supervisor, t.batchId)).toEqual({ queued: true });
 		expect(await recompute.recomputeBatchWith(db, t.org.id, t.batchId, { request: 1 })).toBe(true);

@@ -19,6 +19,7 @@ import type { SamplingRule } from '$lib/audit/sampling';
 import type { ClimateMonthValues } from '$lib/dwellings/element-input';
 import { type ElementKind } from '$lib/dwellings/kinds';
 import { limitTableFor } from '$lib/limit-tables/rules';
+import { isStalled, STALL_AFTER_MS } from '$lib/audit/rules';
 
 type Db = Knex | Knex.Transaction;
 
@@ -317,8 +318,6 @@ function auditRows(rows: DwellingRows, c: Context): Map<string, DwellingAudit> {
 
 /** A running recompute writes its heartbeat this often (between chunks too: a chunk takes a few seconds). */
 export const HEARTBEAT_EVERY_MS = 5_000;
-/** A running batch whose heartbeat is older than this is stalled: its worker stopped, another takes over. */
-export const STALL_AFTER_MS = 60_000;
 /**
  * A run that has finished no chunk for this long stops writing its heartbeat (a query that hangs would
  * otherwise keep a batch "running" for ever), so the batch is taken over as stalled a minute later.
@@ -330,13 +329,6 @@ type ProgressPatch = { [K in keyof BatchProgress]?: BatchProgress[K] | null };
 
 /** The batch's progress with `patch` merged in (jsonb `||`), for an update of audit_batches. */
 const progressWith = (k: Db, patch: ProgressPatch) => k.raw(`progress || ?::jsonb`, [JSON.stringify(patch)]);
-
-/** True when the batch is running but its run has written no heartbeat for STALL_AFTER_MS. */
-export function isStalled(progress: BatchProgress | null | undefined, at = Date.now()): boolean {
-	if (progress?.state !== 'running') return false;
-	const beat = Date.parse(progress.heartbeat ?? '');
-	return !(beat >= at - STALL_AFTER_MS);
-}
 
 /** The batch row, locked for the rest of the transaction. */
 const lockBatch = (trx: Knex.Transaction, organisationId: string, batchId: string) =>
