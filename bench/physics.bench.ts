@@ -5,6 +5,11 @@
 //                  months (validation, U, profile, fRsi, Glaser cycle, result objects), on the raw
 //                  object; and on the output of parseElementInput, as the API, the element save
 //                  and the reports call it (validated once at the boundary, not again inside)
+//   worst case     analyseElement on the costliest accepted input found: 100 layers (the most the
+//                  input allows) of R = 2 m²·K/W (the layers' total at its bound, 200 m²·K/W, so
+//                  800 sublayers), 8 bridged (the most), sd rising inwards-out so that condensation
+//                  spreads over every interface, a climate that swings between −10 °C and 15 °C
+//                  month by month, 80 % inside at 25 °C; beside the typical one
 //   FE kernel      solveSeries on the element's heat chain (Rsi, 10 layers, Rse)
 //   floor (a)      closed-form series sum for the same resistances
 //   floor (b)      dense-matrix solve (ml-matrix LU) of the same assembled system
@@ -54,6 +59,21 @@ const input: ElementInput = {
 	],
 	internal: { temperature: 20, humidityClass: 3 },
 	climate: T.map((t, i) => ({ month: i + 1, temperature: t, relativeHumidity: RH[i] }))
+};
+
+// The costliest accepted input found (by trying the bounds' corners; a search, not a proof).
+const SWING = [-10, 15, -10, 15, -10, 15, -10, 15, -10, 15, -10, 15];
+const worst: ElementInput = {
+	heatFlow: 'horizontal',
+	layers: Array.from({ length: 100 }, (_, i) => ({
+		name: `layer ${i + 1}`,
+		thicknessMm: 100,
+		resistance: 2,
+		sd: 0.01 * (i + 1),
+		...(i % 12 === 0 && i < 96 ? { bridge: { lambda: 0.13, fraction: 0.1, mu: 1 } } : {})
+	})),
+	internal: { temperature: 25, relativeHumidity: 80 },
+	climate: SWING.map((t, i) => ({ month: i + 1, temperature: t, relativeHumidity: 95 }))
 };
 
 function median(xs: number[]): number {
@@ -139,6 +159,8 @@ const parsed = parseElementInput(input);
 if (!parsed.ok) throw new Error('benchmark input is invalid');
 const parsedInput = parsed.data;
 const fullParsed = (): number => analyseElement(parsedInput).uValue;
+if (!parseElementInput(worst).ok) throw new Error('worst-case input is refused');
+const fullWorst = (): number => analyseElement(worst).uValue;
 
 // Sanity: the three solves agree before they are timed.
 kernel();
@@ -150,6 +172,7 @@ const maxDiff = Math.max(...kVals.map((v, i) => Math.abs(v - cVals[i])));
 const t0 = performance.now();
 const tFull = timeIt(full, 200, 40);
 const tFullParsed = timeIt(fullParsed, 200, 40);
+const tWorst = timeIt(fullWorst, 2, 15);
 const tKernel = timeIt(kernel, 20000, 40);
 const tClosed = timeIt(closedForm, 20000, 40);
 const tDense = timeIt(dense, 2000, 30);
@@ -173,6 +196,10 @@ console.log(
 );
 console.log(
 	`full analysis, parsed input        CPU ${f(tFullParsed.cpu)} µs   wall ${f(tFullParsed.wall)} µs   ${f(1e6 / tFullParsed.cpu, 0)} elements/s on one core (output of parseElementInput: calculated only)`
+);
+const rw = analyseElement(worst);
+console.log(
+	`worst accepted input               CPU ${f(tWorst.cpu / 1000)} ms   wall ${f(tWorst.wall / 1000)} ms   ${f(tWorst.cpu / tFull.cpu, 0)}× the typical (${worst.layers.length} layers, ${rw.condensation!.nodes.length} Glaser nodes, outcome ${rw.condensation!.outcome})`
 );
 console.log(`FE kernel (Thomas, ${n} elements)     CPU ${ns(tKernel.cpu)}   wall ${ns(tKernel.wall)}`);
 console.log(`floor (a) closed-form series sum     CPU ${ns(tClosed.cpu)}   wall ${ns(tClosed.wall)}`);

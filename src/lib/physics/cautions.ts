@@ -1,5 +1,5 @@
 /** Version of the calculation core; reports store it with their input snapshot. */
-export const ENGINE_VERSION = '1.1.0';
+export const ENGINE_VERSION = '1.2.0';
 
 /** Cautions shown with every result and report. */
 export const CAUTIONS: readonly string[] = [

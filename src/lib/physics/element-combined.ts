@@ -2,7 +2,8 @@
  * Total thermal resistance of the layers that count: the combined method for bridged layers
  * (ISO 6946:2017, 6.7.2) and the weighting for a slightly ventilated air layer (6.9.3).
  */
-import { ElementInputError, type ElementInput } from './schema';
+import type { ElementInput } from './schema';
+import { R_NEGLIGIBLE } from './bounds';
 import { SLIGHTLY_VENTILATED_OUTER_CAP, slightlyVentilatedTotal } from './resistances';
 import {
 	COMBINED_METHOD_MAX_RATIO,
@@ -101,7 +102,8 @@ function slightlyVentilatedTotals(
 	let others = rsi + rOut;
 	for (let i = 0; i < active; i++) if (i !== slightly) others += layers[i].r;
 	const eff = rClear - others;
-	layers[slightly].rPath = Math.max(0, eff);
+	// not below 0, and a negligible remainder (round-off) is zero: see R_NEGLIGIBLE
+	layers[slightly].rPath = eff < R_NEGLIGIBLE ? 0 : eff;
 	warnings.push(
 		`Layer ${slightly + 1} (${layers[slightly].layer.name}): the temperature profile through a slightly ventilated air layer is approximate` +
 			(eff < 0 ? ' and does not reproduce RT exactly.' : '.')
@@ -111,18 +113,6 @@ function slightlyVentilatedTotals(
 	for (let i = 0; i < active; i++) layers[i].rEquivalent = combined.rEquivalent[i];
 	layers[slightly].rEquivalent = layers[slightly].rPath;
 	return { combined, rTotal, rUpper, rLower, rClear };
-}
-
-/** Refuses an element whose total resistance RT (m²·K/W) is not above zero: U would be infinite. */
-export function requirePositiveResistance(rTotal: number): void {
-	if (!(rTotal > 0)) {
-		throw new ElementInputError([
-			{
-				path: 'layers',
-				message: 'the total thermal resistance is zero: give Rsi, Rse or a layer with resistance'
-			}
-		]);
-	}
 }
 
 /**

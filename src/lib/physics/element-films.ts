@@ -4,6 +4,7 @@
  */
 import { RSE, RSI } from './resistances';
 import type { ElementInput } from './schema';
+import { R_NEGLIGIBLE } from './bounds';
 
 export interface SurfaceFilms {
 	/** internal surface resistance Rsi, m²·K/W */
@@ -15,35 +16,50 @@ export interface SurfaceFilms {
 }
 
 /**
+ * A given surface resistance (m²·K/W) below {@link R_NEGLIGIBLE} taken as zero, with a note: it
+ * changes nothing that can be reported, and its conductance would leave the solve no digits.
+ */
+function given(name: 'Rsi' | 'Rse', r: number, notes: string[]): number {
+	if (r > 0 && r < R_NEGLIGIBLE) {
+		notes.push(
+			`${name} = ${r.toExponential(1)} m²·K/W is below ${R_NEGLIGIBLE} m²·K/W and is taken as zero.`
+		);
+		return 0;
+	}
+	return r;
+}
+
+/**
  * Rsi and Rse, m²·K/W: the conventional values for the heat-flow direction (ISO 6946:2017, 6.8,
  * Table 7) unless given. A well-ventilated air layer and every layer outside it are disregarded and
- * Rse takes the value of Rsi (6.9.4), unless Rse is given. Notes say which values apply and why.
+ * Rse takes the value of Rsi (6.9.4), unless Rse is given. Notes say which values apply and why; a
+ * given value below {@link R_NEGLIGIBLE} is taken as zero.
  */
 export function surfaceResistances(input: ElementInput, notes: string[]): SurfaceFilms {
 	const dir = input.heatFlow;
-	const rsi = input.rsi ?? RSI[dir];
 	notes.push(
 		input.rsi === undefined
-			? `Rsi = ${rsi} m²·K/W for ${dir} heat flow (ISO 6946:2017, Table 7).`
-			: `Rsi = ${rsi} m²·K/W as given (overrides ISO 6946).`
+			? `Rsi = ${RSI[dir]} m²·K/W for ${dir} heat flow (ISO 6946:2017, Table 7).`
+			: `Rsi = ${input.rsi} m²·K/W as given (overrides ISO 6946).`
 	);
+	const rsi = input.rsi === undefined ? RSI[dir] : given('Rsi', input.rsi, notes);
 
 	const well = input.layers.findIndex((l) => l.air === 'well-ventilated');
 	if (well < 0) {
-		const rse = input.rse ?? RSE;
 		notes.push(
 			input.rse === undefined
-				? `Rse = ${rse} m²·K/W (ISO 6946:2017, Table 7).`
-				: `Rse = ${rse} m²·K/W as given (overrides ISO 6946).`
+				? `Rse = ${RSE} m²·K/W (ISO 6946:2017, Table 7).`
+				: `Rse = ${input.rse} m²·K/W as given (overrides ISO 6946).`
 		);
+		const rse = input.rse === undefined ? RSE : given('Rse', input.rse, notes);
 		return { rsi, rse, active: input.layers.length };
 	}
-	const rse = input.rse ?? rsi;
 	notes.push(
 		`Layer ${well + 1} is a well-ventilated air layer: it and the ${input.layers.length - well - 1} layer(s) outside it are disregarded and ` +
 			(input.rse === undefined
-				? `Rse takes the value of Rsi, ${rse} m²·K/W (ISO 6946:2017, 6.9.4).`
-				: `Rse = ${rse} m²·K/W as given.`)
+				? `Rse takes the value of Rsi, ${rsi} m²·K/W (ISO 6946:2017, 6.9.4).`
+				: `Rse = ${input.rse} m²·K/W as given.`)
 	);
+	const rse = input.rse === undefined ? rsi : given('Rse', input.rse, notes);
 	return { rsi, rse, active: well };
 }

@@ -4,7 +4,7 @@
  */
 import type { CondensationResult, MoistureLimits } from './schema';
 import type { HeatChain } from './element-heat-chain';
-import { runGlaser, type GlaserMonth, type GlaserResult } from './glaser';
+import { runGlaserWithBalance, type GlaserMassBalance, type GlaserMonth, type GlaserResult } from './glaser';
 import { fmt } from './note-format';
 
 /**
@@ -12,6 +12,8 @@ import { fmt } from './note-format';
  * external surface: the chain's sublayers with their sd (m) and dimensionless temperatures φ, the
  * twelve `months` in calendar order. Amounts g/m², pressures Pa. Accepted when `limits` are met.
  * Warns of surface condensation (outside the method, Rsi `rsi` m²·K/W); notes the start month.
+ * Adds the mass balance of the months (glaser-conserving.ts) and warns when they created more
+ * than {@link CREATED_WARNING_FRACTION} of the peak accumulation.
  */
 export function condensationCheck(
 	chain: HeatChain,
@@ -23,7 +25,7 @@ export function condensationCheck(
 	warnings: string[]
 ): CondensationResult {
 	const nElem = chain.elements;
-	const glaser = runGlaser(
+	const { glaser, massBalance } = runGlaserWithBalance(
 		{
 			elements: nElem - 2,
 			positionMm: chain.positionMm.slice(1, nElem),
@@ -49,6 +51,8 @@ export function condensationCheck(
 			`The Glaser cycle starts in month ${glaser.startMonth}, the first month with condensation after one without (ISO 13788:2012, clause 6).`
 		);
 	}
+	const created = createdWarning(glaser, massBalance);
+	if (created) warnings.push(created);
 	return {
 		months: glaser.months,
 		maxAccumulation: glaser.maxAccumulation,
@@ -63,8 +67,54 @@ export function condensationCheck(
 		surfaceCondensationMonths: glaser.surfaceCondensationMonths,
 		nodes: glaser.nodes,
 		vapourProfile: glaser.vapourProfile,
-		acceptance: { pass: reasons.length === 0, reasons }
+		acceptance: { pass: reasons.length === 0, reasons },
+		massBalance
 	};
+}
+
+/**
+ * Share of the peak accumulation above which the moisture the monthly method created is warned
+ * of (1 %; a threshold of this product, no standard sets one).
+ */
+export const CREATED_WARNING_FRACTION = 0.01;
+
+const OUTCOME_WORDS: Record<GlaserResult['outcome'], string> = {
+	none: 'no condensation',
+	dries: 'dries out within the year',
+	accumulates: 'condensate left at the end of the year'
+};
+
+/** "peak … g/m² in month …, <outcome>" of a cycle's figures (amounts g/m²). */
+function yearWords(r: {
+	maxAccumulation: number;
+	peakMonth: number | null;
+	outcome: GlaserResult['outcome'];
+}): string {
+	const peak =
+		r.peakMonth === null
+			? 'nothing held at the end of any month'
+			: `peak ${fmt(r.maxAccumulation, 1)} g/m² in month ${r.peakMonth}`;
+	return `${peak}, ${OUTCOME_WORDS[r.outcome]}`;
+}
+
+/**
+ * The warning that the monthly method created moisture (`massBalance.created`, g/m², above
+ * {@link CREATED_WARNING_FRACTION} of the peak accumulation), with the figures of the cycle that
+ * keeps the mass balance beside the standard's, and a word when both read the same (the moisture
+ * created left through the surfaces within the month); null when there is nothing to warn of.
+ */
+export function createdWarning(glaser: GlaserResult, massBalance: GlaserMassBalance): string | null {
+	const { created, conserving } = massBalance;
+	if (!(created > 0 && created > CREATED_WARNING_FRACTION * glaser.maxAccumulation)) return null;
+	const conservingWords = yearWords(conserving);
+	const standardWords = yearWords(glaser);
+	return (
+		`The monthly Glaser method created ${fmt(created, 1)} g/m² of moisture this year that no vapour flow brought in: ` +
+		'an interface that dries out part-way through a month is still held at saturation until the month ends (ISO 13788:2012, clause 6). ' +
+		`Split where an interface dries out, the same year keeps its moisture balance: ${conservingWords}. ` +
+		`The monthly method as reported: ${standardWords}.` +
+		(conservingWords === standardWords ? ' Both give the same peak and outcome.' : '')
+	);
 }
 
 /**

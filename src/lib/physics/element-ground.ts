@@ -45,7 +45,8 @@ export function groundFloorModel(
 ): GroundFloorModel {
 	const rFloor = rBuildUp - rsi - rse;
 	const g = slabOnGroundU(ground, rsi, rFloor, rse);
-	const rGround = 1 / g.u - rBuildUp;
+	// ≥ 0 by the formulas (1/U ≥ RT); the clamp only removes round-off
+	const rGround = Math.max(0, 1 / g.u - rBuildUp);
 	const rTotal = 1 / g.u;
 	notes.push(
 		`Floor on the ground, U by ISO 13370:2017, 8.1 (slab on ground): B′ = A/(0.5·P) = ${fmt(g.characteristicDimensionM)} m, ` +

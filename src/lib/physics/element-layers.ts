@@ -8,6 +8,7 @@ import type { LayerModel } from './element-model';
 import { layerResistance, unventilatedAirLayerResistance, type HeatFlow } from './resistances';
 import { bridgeFraction } from './bridging';
 import { vapourThickness } from './moisture';
+import { R_NEGLIGIBLE, SD_NEGLIGIBLE } from './bounds';
 
 /** Bridging conductivity from which a bridge is taken to be metal, W/(m·K). */
 const METAL_LAMBDA = 10; // common practice, no source: metals lie far above, other building materials below
@@ -55,17 +56,24 @@ export function layerVapourThickness(
 	return sd;
 }
 
+/** A figure too small for the notes' decimals, e.g. 1.0e-17. */
+const tiny = (v: number): string => v.toExponential(1);
+
 /**
  * Every layer of the element, inside to outside, with its kind, resistances (m²·K/W), position
  * (mm) and sd-value (m). Only the first `active` layers are bridged (the rest are disregarded);
  * `override` replaces the thickness of one layer. Path and equivalent resistances start as R; the
- * combined method sets them. Warns of λ given for an air layer and of bridges of metal.
+ * combined method sets them. Warns of λ given for an air layer and of bridges of metal. A
+ * resistance below {@link R_NEGLIGIBLE} (of the layer or its bridge) and an sd-value below
+ * {@link SD_NEGLIGIBLE} are taken as zero, with a note: they change nothing that can be reported,
+ * and a conductance of 10¹⁶ beside one of 10 leaves the solve no digits.
  */
 export function modelLayers(
 	input: ElementInput,
 	active: number,
 	override: { index: number; thicknessMm: number } | undefined,
-	warnings: string[]
+	warnings: string[],
+	notes: string[]
 ): LayerModel[] {
 	const layers: LayerModel[] = new Array(input.layers.length);
 	let pos = 0;
@@ -74,7 +82,13 @@ export function modelLayers(
 		const overridden = override !== undefined && override.index === i;
 		const d = overridden ? override.thicknessMm : l.thicknessMm;
 		const kind = layerKind(l);
-		const r = layerThermalResistance(l, d, input.heatFlow);
+		let r = layerThermalResistance(l, d, input.heatFlow);
+		if (r > 0 && r < R_NEGLIGIBLE) {
+			notes.push(
+				`Layer ${i + 1} (${l.name}): R = ${tiny(r)} m²·K/W is below ${R_NEGLIGIBLE} m²·K/W and is taken as zero.`
+			);
+			r = 0;
+		}
 		if (l.air && l.air !== 'well-ventilated' && l.lambda !== undefined)
 			warnings.push(
 				`Layer ${i + 1} (${l.name}): λ is ignored for an air layer; its resistance comes from ISO 6946.`
@@ -83,6 +97,12 @@ export function modelLayers(
 		let fraction: number | undefined;
 		if (l.bridge && i < active) {
 			rBridge = layerResistance(d, l.bridge.lambda);
+			if (rBridge > 0 && rBridge < R_NEGLIGIBLE) {
+				notes.push(
+					`Layer ${i + 1} (${l.name}): the bridging material's R = ${tiny(rBridge)} m²·K/W is below ${R_NEGLIGIBLE} m²·K/W and is taken as zero.`
+				);
+				rBridge = 0;
+			}
 			fraction =
 				l.bridge.fraction ?? bridgeFraction(l.bridge.widthMm as number, l.bridge.centresMm as number);
 			if (l.bridge.lambda >= METAL_LAMBDA) {
@@ -90,6 +110,13 @@ export function modelLayers(
 					`Layer ${i + 1} (${l.name}) is bridged by a material of λ = ${l.bridge.lambda} W/(m·K) (metal): the ISO 6946 combined method is not meant for insulation bridged by metal; use a numerical calculation (ISO 10211).`
 				);
 			}
+		}
+		let sd = layerVapourThickness(l, d, overridden, fraction);
+		if (sd !== null && sd > 0 && sd < SD_NEGLIGIBLE) {
+			notes.push(
+				`Layer ${i + 1} (${l.name}): sd = ${tiny(sd)} m is below ${SD_NEGLIGIBLE} m and is taken as zero (vapour-open).`
+			);
+			sd = 0;
 		}
 		layers[i] = {
 			index: i,
@@ -103,7 +130,7 @@ export function modelLayers(
 			fraction,
 			rEquivalent: r,
 			rPath: r,
-			sd: layerVapourThickness(l, d, overridden, fraction)
+			sd
 		};
 		pos += d;
 	}

@@ -17,12 +17,12 @@
  * | surface humidity (fRsi) | `element-surface.ts` |
  * | interstitial condensation (Glaser) | `element-glaser.ts` |
  */
-import { assertElementInput, type ElementInput, type ElementResult } from './schema';
+import { checkedElementInput, ElementInputError, type ElementInput, type ElementResult } from './schema';
 import { RSI_SURFACE_CHECK } from './moisture';
 import type { ThermalModel } from './element-model';
 import { surfaceResistances } from './element-films';
 import { modelLayers } from './element-layers';
-import { bridgingNotes, requirePositiveResistance, totalResistance } from './element-combined';
+import { bridgingNotes, totalResistance } from './element-combined';
 import { groundFloorModel, roofSpaceResistance } from './element-ground';
 import { elementCorrections } from './element-corrections';
 import { buildHeatChain, solveHeatChain } from './element-heat-chain';
@@ -32,8 +32,24 @@ import { groundCondensationNote, moistureSkippedNote, monthlyConditions } from '
 import { surfaceCheck } from './element-surface';
 import { condensationCheck } from './element-glaser';
 
-export { GLASER_SUBLAYER_MAX_R } from './element-heat-chain';
+export { GLASER_SUBLAYER_MAX_R, GLASER_SUBLAYERS_MAX } from './element-heat-chain';
 export type { LayerModel, ThermalModel } from './element-model';
+
+/**
+ * Refuses an element whose total resistance RT (m²·K/W) is not above zero: U would be infinite.
+ * `parseElementInput` refuses such an input already; this holds for a thickness override (the
+ * inverse solve's thickness 0).
+ */
+function requirePositiveResistance(rTotal: number): void {
+	if (!(rTotal > 0)) {
+		throw new ElementInputError([
+			{
+				path: 'layers',
+				message: 'the total thermal resistance is zero: give Rsi, Rse or a layer with resistance'
+			}
+		]);
+	}
+}
 
 /**
  * Build the ISO 6946 thermal model of a validated element: surface resistances (6.8), layer and
@@ -51,7 +67,7 @@ export function buildThermalModel(
 	const rRoofSpace = roofSpaceResistance(input, notes);
 	/** resistance outside the last layer that enters RT */
 	const rOut = rse + rRoofSpace;
-	const layers = modelLayers(input, active, override, warnings);
+	const layers = modelLayers(input, active, override, warnings, notes);
 
 	const totals = totalResistance(input, layers, active, rsi, rOut, notes, warnings);
 	const { combined, rUpper, rLower, rClear } = totals;
@@ -101,7 +117,7 @@ export function buildThermalModel(
  * Throws {@link ElementInputError} (from ./schema) naming every invalid field.
  */
 export function analyseElement(raw: ElementInput): ElementResult {
-	const input = assertElementInput(raw);
+	const input = checkedElementInput(raw);
 	const tm = buildThermalModel(input);
 	const { notes, warnings } = tm;
 

@@ -7,11 +7,12 @@ import type { GlaserMonth, GlaserMonthResult } from './glaser-types';
 import type { VapourNodes } from './glaser-nodes';
 import type { GlaserWork } from './glaser-work';
 
-const SECONDS_PER_DAY = 86400;
+/** seconds in a day (a month's length is its number of days, ISO 13788:2012, clause 6) */
+export const SECONDS_PER_DAY = 86400;
 /** amounts below this are taken as zero, kg/m² (10⁻⁶ g/m²) */
-const ZERO_AMOUNT = 1e-9;
+export const ZERO_AMOUNT = 1e-9;
 /** a rate below this is no condensation, kg/(m²·s) */
-const ZERO_RATE = 1e-16;
+export const ZERO_RATE = 1e-16;
 
 /** Totals of one month over all vapour nodes. */
 export interface MonthBalance {
@@ -25,6 +26,11 @@ export interface MonthBalance {
 	wet: number;
 	/** some vapour node condenses in the month (rate above 10⁻¹⁶ kg/(m²·s)) */
 	formed: boolean;
+	/**
+	 * some vapour node that held an amount at the start of the month would give off more than it
+	 * held over the month's length: it dries out part-way through the month (see {@link bookMonth})
+	 */
+	ranDry: boolean;
 }
 
 /**
@@ -45,7 +51,11 @@ export function heldAfter(before: number, amount: number): number {
  *
  * The rates are those of the line of the whole month: an interface that dries out within the
  * month is booked with the full month's evaporation, cut at what it held, and the other nodes'
- * rates are those of the line held at its saturation pressure for the whole month.
+ * rates are those of the line held at its saturation pressure for the whole month. The vapour it
+ * gives off beyond what it held comes from nothing: the month's stock then changes by more than
+ * the net vapour flux through the surfaces (`ranDry` is set). The standard's result keeps this
+ * booking; glaser-conserving.ts repeats the cycle with the month split where an interface dries
+ * out, and states how much moisture the booking created.
  */
 export function bookMonth(
 	vn: VapourNodes,
@@ -61,10 +71,12 @@ export function bookMonth(
 	let formed = false;
 	let total = 0;
 	let wet = 0;
+	let ranDry = false;
 	for (let g = 0; g < vn.count; g++) {
 		const r = rate[g];
 		const amount = r * seconds;
 		const before = held[g];
+		if (before > 0 && before + amount < 0) ranDry = true;
 		const after = heldAfter(before, amount);
 		held[g] = after;
 		if (r > ZERO_RATE) {
@@ -78,7 +90,22 @@ export function bookMonth(
 		rateGm2[g] = amount * 1000;
 		heldGm2[g] = after * 1000;
 	}
-	return { condensed, evaporated, total, wet, formed };
+	return { condensed, evaporated, total, wet, formed, ranDry };
+}
+
+/**
+ * The moisture a month's booking created, kg/m²: the change of the total held over the month
+ * (`totalAfter` − `totalBefore`, kg/m²) minus the net vapour flux into the construction over the
+ * `seconds` its line lasts, (work.fluxIn − work.fluxOut) × seconds. Zero (to round-off) when the
+ * month keeps its mass balance; positive when moisture appears that no flux brought in.
+ */
+export function createdInMonth(
+	totalBefore: number,
+	totalAfter: number,
+	seconds: number,
+	work: GlaserWork
+): number {
+	return totalAfter - totalBefore - (work.fluxIn - work.fluxOut) * seconds;
 }
 
 /**

@@ -9,7 +9,14 @@ import type { CycleStart } from './glaser-start';
 import type { GlaserWork } from './glaser-work';
 import { straightLine, tautLine } from './glaser-line';
 import { pressuresAndRates } from './glaser-flux';
-import { bookMonth, monthResult, nodePressures, type MonthBalance } from './glaser-balance';
+import {
+	bookMonth,
+	createdInMonth,
+	monthResult,
+	nodePressures,
+	SECONDS_PER_DAY,
+	type MonthBalance
+} from './glaser-balance';
 
 /** The months of one cycle. */
 export interface CycleMonths {
@@ -21,6 +28,19 @@ export interface CycleMonths {
 	formed: boolean[];
 	/** held over all nodes at the end of the cycle (its last month), kg/m² */
 	finalTotal: number;
+	/**
+	 * moisture the months' booking created over the cycle, kg/m²: the sum over the months of the
+	 * change in the total held minus the net vapour flux through the surfaces (see
+	 * {@link createdInMonth}); above round-off only when some interface dries out within a month
+	 */
+	created: number;
+	/**
+	 * the first month (its position in cycle order) in which an interface held an amount at the
+	 * start and dried out before the end, with the state at its start: the amounts per vapour node
+	 * (work.startAmount, kg/m²), their total (kg/m²), the number of wet nodes and the moisture
+	 * created before it (kg/m²); null when no interface dries out within a month
+	 */
+	firstDryOut: { position: number; total: number; wet: number; created: number } | null;
 	/**
 	 * the month with the most condensation formed (the first in cycle order of equal amounts) and
 	 * its vapour pressures at every heat node (Pa), or null when none formed in any month
@@ -74,8 +94,13 @@ export function runCycle(
 	let mostCondensed = 0;
 	let total = 0;
 	let wet = 0;
+	let created = 0;
+	let firstDryOut: CycleMonths['firstDryOut'] = null;
+	const { amount, startAmount } = work;
 	for (let c = 0; c < nm; c++) {
 		const m = (start.start + c) % nm;
+		// an interface can dry out only in a month that starts with something held: copy only then
+		if (firstDryOut === null && wet > 0) for (let g = 0; g < vn.count; g++) startAmount[g] = amount[g];
 		const { result, balance } = cycleMonth(
 			vn,
 			months[m],
@@ -88,6 +113,8 @@ export function runCycle(
 		order[c] = m;
 		results[m] = result;
 		formed[m] = balance.formed;
+		if (firstDryOut === null && balance.ranDry) firstDryOut = { position: c, total, wet, created };
+		created += createdInMonth(total, balance.total, months[m].days * SECONDS_PER_DAY, work);
 		total = balance.total;
 		wet = balance.wet;
 		if (balance.condensed > mostCondensed) {
@@ -95,5 +122,5 @@ export function runCycle(
 			mostCondensation = { month: m, pressure: work.pressure.slice() };
 		}
 	}
-	return { results, order, formed, finalTotal: total, mostCondensation };
+	return { results, order, formed, finalTotal: total, created, firstDryOut, mostCondensation };
 }

@@ -12,7 +12,9 @@ import { solveSeries } from './series';
  * From the `vertices` vertices of the month's line (work.vertex, work.vertexPressure, Pa): the
  * vapour pressure of every heat node into work.pressure (Pa; every member of a vapour node at the
  * node's pressure) and the rate of every vapour node into work.rate, kg/(m²·s): flux in − flux out
- * at each interior vertex (ISO 13788:2012, clause 6), 0 elsewhere.
+ * at each interior vertex (ISO 13788:2012, clause 6), 0 elsewhere. The fluxes through the first
+ * and the last segment, into the construction at the internal surface and out of it at the
+ * external surface, go into work.fluxIn and work.fluxOut, kg/(m²·s).
  */
 export function pressuresAndRates(vn: VapourNodes, vertices: number, work: GlaserWork): void {
 	const { first, last, conductance } = vn;
@@ -34,6 +36,8 @@ export function pressuresAndRates(vn: VapourNodes, vertices: number, work: Glase
 		);
 		for (let j = first[v]; j <= last[v]; j++) pressure[j] = vertexPressure[q + 1];
 		if (q > 0) rate[u] = fluxIn - flux;
+		else work.fluxIn = flux;
 		fluxIn = flux;
 	}
+	work.fluxOut = fluxIn;
 }

@@ -93,3 +93,33 @@ export interface GlaserResult {
 	/** true when condensation is predicted with a dry start in every month (cycle starts in month 1) */
 	condensesEveryMonth: boolean;
 }
+
+/**
+ * The Glaser cycle kept in mass balance (glaser-conserving.ts): the standard's months (ISO
+ * 13788:2012, clause 6) with each month split at the instant an interface dries out. Same meanings
+ * and units as in {@link GlaserResult}; amounts g/m².
+ */
+export interface GlaserConservingResult {
+	/** per calendar month, as in GlaserResult.months (vapour pressures of the month's last part) */
+	months: GlaserMonthResult[];
+	maxAccumulation: number;
+	peakMonth: number | null;
+	evaporatesFully: boolean;
+	outcome: 'none' | 'dries' | 'accumulates';
+	/** moisture created over the cycle, defined as in {@link GlaserMassBalance} (zero to round-off) */
+	created: number;
+}
+
+/** The mass balance of the standard's monthly cycle, and the cycle that keeps it. */
+export interface GlaserMassBalance {
+	/**
+	 * Moisture the standard's monthly steps created over the cycle, g/m²: the sum over its twelve
+	 * months of (change in the total held over the month − (vapour flux in at the internal surface −
+	 * vapour flux out at the external surface) × the month's length), which is the total held at
+	 * the end of the cycle minus the net vapour flux over the year (the cycle starts dry). Positive
+	 * when moisture appears from nothing (an interface held at saturation for the whole month after
+	 * its stock is gone); amounts below 10⁻⁶ g/m² are taken as zero.
+	 */
+	created: number;
+	conserving: GlaserConservingResult;
+}

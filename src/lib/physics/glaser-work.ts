@@ -32,6 +32,16 @@ export interface GlaserWork {
 	rate: number[];
 	/** amount held per vapour node, carried from month to month, kg/m² */
 	amount: number[];
+	/**
+	 * amount held per vapour node at the start of the first month in which an interface dries out
+	 * (while none has: of the last month that started with something held), kg/m²; where the
+	 * conserving cycle resumes
+	 */
+	startAmount: number[];
+	/** vapour flux of the month's line into the construction at the internal surface, kg/(m²·s) */
+	fluxIn: number;
+	/** vapour flux of the month's line out of the construction at the external surface, kg/(m²·s) */
+	fluxOut: number;
 }
 
 /**
@@ -47,6 +57,9 @@ export function createGlaserWork(heatNodes: number, vapourNodes: number): Glaser
 		stack: zeros(vapourNodes),
 		ceiling: zeros(vapourNodes),
 		rate: zeros(vapourNodes),
-		amount: zeros(vapourNodes)
+		amount: zeros(vapourNodes),
+		startAmount: zeros(vapourNodes),
+		fluxIn: 0,
+		fluxOut: 0
 	};
 }

@@ -27,6 +27,8 @@
  *   glaser-cycle.ts       the months in cycle order, amounts carried from month to month
  *   glaser-outcome.ts     peak total and month, peak at one interface, months, outcome
  *   glaser-profile.ts     the vapour-pressure profile charted
+ *   glaser-conserving.ts  the moisture the monthly booking created, and the same cycle with each
+ *                         month split where an interface dries out (mass balance kept)
  *   glaser-work.ts        scratch arrays reused month by month
  *   glaser-types.ts       input and output types (re-exported here)
  */
@@ -39,6 +41,8 @@ import { createGlaserWork } from './glaser-work';
 import { runCycle } from './glaser-cycle';
 import { yearlyOutcome } from './glaser-outcome';
 import { vapourProfile } from './glaser-profile';
+import { massBalance, runConservingCycle } from './glaser-conserving';
+import type { GlaserConservingResult, GlaserMassBalance } from './glaser-types';
 
 export type {
 	NodeKind,
@@ -47,7 +51,9 @@ export type {
 	GlaserNode,
 	GlaserMonthResult,
 	VapourProfilePoint,
-	GlaserResult
+	GlaserResult,
+	GlaserConservingResult,
+	GlaserMassBalance
 } from './glaser-types';
 
 /**
@@ -58,13 +64,31 @@ export type {
  * temperatures °C. Throws a RangeError when the chain's total sd is zero.
  */
 export function runGlaser(chain: GlaserChain, months: readonly GlaserMonth[]): GlaserResult {
+	return standardCycle(chain, months).glaser;
+}
+
+/**
+ * {@link runGlaser}, and beside its result the mass balance of its months: the moisture they
+ * created, and the same cycle with each month split where an interface dries out
+ * (glaser-conserving.ts). Same units and errors as runGlaser.
+ */
+export function runGlaserWithBalance(
+	chain: GlaserChain,
+	months: readonly GlaserMonth[]
+): { glaser: GlaserResult; massBalance: GlaserMassBalance } {
+	const { glaser, vn, sat, start, work, cycle, year } = standardCycle(chain, months);
+	return { glaser, massBalance: massBalance(vn, months, sat, start, work, cycle, year) };
+}
+
+/** The steps of the standard's cycle and its result, with what the mass balance needs of them. */
+function standardCycle(chain: GlaserChain, months: readonly GlaserMonth[]) {
 	const vn = vapourNodes(chain);
 	const sat = monthlySaturation(chain, vn, months);
 	const start = cycleStart(vn, months, sat.saturationPressure);
 	const work = createGlaserWork(chain.elements + 1, vn.count);
 	const cycle = runCycle(vn, months, sat, start, work);
 	const year = yearlyOutcome(cycle, start.any);
-	return {
+	const glaser: GlaserResult = {
 		nodes: vn.nodes,
 		startMonth: start.any ? months[start.start].month : null,
 		months: cycle.results,
@@ -76,7 +100,25 @@ export function runGlaser(chain: GlaserChain, months: readonly GlaserMonth[]): G
 		condensationMonths: year.condensationMonths,
 		outcome: year.outcome,
 		surfaceCondensationMonths: year.surfaceCondensationMonths,
+		// before the conserving cycle, which reuses the scratch space
 		vapourProfile: vapourProfile(chain, vn, months, sat, cycle, work),
 		condensesEveryMonth: start.every
 	};
+	return { glaser, vn, sat, start, work, cycle, year };
+}
+
+/**
+ * The conserving cycle alone (glaser-conserving.ts): the twelve months of {@link runGlaser} with
+ * each month split where an interface dries out, always computed month by month (runGlaserWithBalance
+ * takes the standard's months as they are when nothing dries out within a month). Same units and
+ * errors as runGlaser.
+ */
+export function runGlaserConserving(
+	chain: GlaserChain,
+	months: readonly GlaserMonth[]
+): GlaserConservingResult {
+	const vn = vapourNodes(chain);
+	const sat = monthlySaturation(chain, vn, months);
+	const start = cycleStart(vn, months, sat.saturationPressure);
+	return runConservingCycle(vn, months, sat, start, createGlaserWork(chain.elements + 1, vn.count));
 }

@@ -6,7 +6,24 @@
  * ISO 13788 surface-humidity (fRsi) and monthly Glaser interstitial-condensation checks; floors on
  * the ground by ISO 13370 (slab on ground) and roof spaces above insulated ceilings (ISO 6946).
  */
-export { analyseElement, buildThermalModel, GLASER_SUBLAYER_MAX_R } from './element';
+export { analyseElement, buildThermalModel, GLASER_SUBLAYER_MAX_R, GLASER_SUBLAYERS_MAX } from './element';
+export {
+	LAYER_R_MAX,
+	TOTAL_R_MAX,
+	R_NEGLIGIBLE,
+	SD_NEGLIGIBLE,
+	LAYER_SD_MAX,
+	MU_MAX,
+	THICKNESS_MIN_MM,
+	THICKNESS_MAX_MM,
+	LAYERS_MAX,
+	NAME_MAX,
+	BRIDGE_SPACING_MAX_MM,
+	FASTENER_LAMBDA_MAX,
+	FASTENER_AREA_MAX_MM2,
+	FASTENERS_PER_M2_MAX,
+	CHARACTERISTIC_DIMENSION_MAX_M
+} from './bounds';
 export type { ThermalModel, LayerModel } from './element';
 export { solveThickness, solveThicknessDetailed } from './inverse';
 export type { ThicknessSolution } from './inverse';

@@ -4,6 +4,8 @@
  * temperature factor for the surface-humidity (mould) criterion.
  */
 
+import { DT_NEGLIGIBLE_K } from './bounds';
+
 /** Water vapour permeability of still air, kg/(m·s·Pa). */
 export const DELTA_0 = 2e-10; // ISO 13788:2012, 3.1 / clause 6 (δ0 = 2 × 10⁻¹⁰)
 
@@ -115,7 +117,8 @@ export function temperatureFactor(
 /**
  * Minimum temperature factor for one month from the 80 % surface-humidity criterion
  * (ISO 13788:2012, 5.2): psat,min = pi/0.8, θsi,min = θ(psat,min), fRsi,min = (θsi,min − θe)/(θi − θe).
- * fRsi,min is null when θe ≥ θi (no heat flows out; the factor is undefined) and, with
+ * fRsi,min is null when θe ≥ θi (no heat flows out; the factor is undefined), also when θi − θe
+ * is below {@link DT_NEGLIGIBLE_K} (the factor would be round-off divided by nothing), and, with
  * θsi,min, when there is no vapour inside (pi = 0). Temperatures °C, pi Pa.
  */
 export function minimumTemperatureFactor(
@@ -129,7 +132,7 @@ export function minimumTemperatureFactor(
 	const thetaSiMin = saturationTemperature(psatMin);
 	const dT = internalTemperatureC - externalTemperatureC;
 	return {
-		fRsiMin: dT > 0 ? (thetaSiMin - externalTemperatureC) / dT : null,
+		fRsiMin: dT >= DT_NEGLIGIBLE_K ? (thetaSiMin - externalTemperatureC) / dT : null,
 		minSurfaceTemperature: thetaSiMin,
 		minSaturationPressure: psatMin
 	};

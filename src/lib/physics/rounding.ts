@@ -28,8 +28,17 @@ export function roundValue(value: number, rule: RoundingRule = DEFAULT_U_ROUNDIN
 	const places =
 		rule.mode === 'decimals' ? rule.digits : rule.digits - 1 - Math.floor(Math.log10(Math.abs(v)));
 	const sign = v < 0 ? -1 : 1;
-	const shifted = Math.round(Number(`${Math.abs(v)}e${places}`));
-	return sign * Number(`${shifted}e${-places}`);
+	const shifted = Math.round(shiftDecimal(Math.abs(v), places));
+	return sign * shiftDecimal(shifted, -places);
+}
+
+/**
+ * `x`·10^`places` by moving the decimal point in its shortest decimal form (exact, unlike a
+ * multiplication), also for the exponent form that very large and very small numbers take.
+ */
+function shiftDecimal(x: number, places: number): number {
+	const [mantissa, exponent] = x.toExponential().split('e');
+	return Number(`${mantissa}e${Number(exponent) + places}`);
 }
 
 /** Plain statement of the rounding used, stored with every result. */

@@ -7,16 +7,43 @@
  * refinement as a separate check, and those checks cost more than the calculation itself for a
  * long build-up, while the page validates on every keystroke. The refinements run even when a
  * type error is present (`when`), so one pass reports every bad field.
+ *
+ * The bounds that keep the engine safe (./bounds: R = d/λ per layer and in total, μ and μ·d, the
+ * thinnest layer, the number of layers, …) are ranges and cross-field rules like the others; a
+ * total thermal resistance of zero needs the whole model and is checked once the schema passes
+ * (`parseElementInput`, ./element-bounds). Every refusal names its field and says what to do.
  */
 import { z } from 'zod';
 import {
 	AIR_LAYER_MAX_MM,
 	AIR_OPENING_SLIGHTLY_MAX,
 	AIR_OPENING_UNVENTILATED_MAX,
-	HEAT_FLOWS
+	HEAT_FLOWS,
+	unventilatedAirLayerResistance,
+	type HeatFlow
 } from './resistances';
 import { MAX_BRIDGED_LAYERS } from './bridging';
-import { ROOF_SPACES } from './ground';
+import { characteristicDimension, ROOF_SPACES } from './ground';
+import {
+	BRIDGE_SPACING_MAX_MM,
+	CHARACTERISTIC_DIMENSION_MAX_M,
+	FASTENER_AREA_MAX_MM2,
+	FASTENER_LAMBDA_MAX,
+	FASTENERS_PER_M2_MAX,
+	LAYER_R_MAX,
+	LAYER_SD_MAX,
+	LAYERS_MAX,
+	MU_MAX,
+	NAME_MAX,
+	negligibleAsZero,
+	SD_NEGLIGIBLE,
+	THICKNESS_MAX_MM,
+	THICKNESS_MIN_MM,
+	TOTAL_R_MAX
+} from './bounds';
+import { totalResistanceIsZero } from './element-bounds';
+import { layerVapourThickness } from './element-layers';
+import { fmt } from './note-format';
 
 const describe = (v: unknown): string => {
 	if (typeof v === 'number') return Number.isNaN(v) ? 'NaN' : String(v);
@@ -41,7 +68,11 @@ const TEMPERATURE: Rule[] = [
 	[(v) => v >= -80, 'must be ≥ −80 °C'],
 	[(v) => v <= 80, 'must be ≤ 80 °C']
 ];
-const MU: Rule[] = [[(v) => v >= 1, 'must be ≥ 1 (still air is 1)']];
+const MU: Rule[] = [
+	[(v) => v >= 1, 'must be ≥ 1 (still air is 1)'],
+	[(v) => v <= MU_MAX, 'must be ≤ 100 000 000 (10⁸, beyond any vapour-tight foil)']
+];
+const atMost = (max: number, text: string): Rule => [(v) => v <= max, `must be ≤ ${text}`];
 const RESISTANCE_LIMIT: Rule[] = [
 	[(v) => v >= 0, 'must be ≥ 0'],
 	[(v) => v <= 10, 'must be ≤ 10 m²·K/W']
@@ -84,13 +115,52 @@ const ALWAYS = { when: () => true };
 const BRIDGE_RANGES: (readonly [string, readonly Rule[]])[] = [
 	['lambda', POSITIVE],
 	['fraction', [[(v) => v > 0 && v < 1, 'must be between 0 and 1 (exclusive)']]],
-	['widthMm', POSITIVE],
-	['centresMm', POSITIVE],
+	['widthMm', [...POSITIVE, atMost(BRIDGE_SPACING_MAX_MM, '10 000 mm')]],
+	['centresMm', [...POSITIVE, atMost(BRIDGE_SPACING_MAX_MM, '10 000 mm')]],
 	['mu', MU]
 ];
 
+/** A finite number above zero (a field that passed its own type and range check). */
+const isPositive = (v: unknown): v is number => typeof v === 'number' && v > 0 && v < Infinity;
+
+/**
+ * A figure derived from other fields (d/λ, μ·d, B′, a sum) above its bound by more than round-off:
+ * 0.1 m over λ = 0.001 is 100 exactly, but λ typed from a computed R may give 100.00000000000001.
+ */
+const beyond = (v: number, max: number): boolean => v > max * (1 + 1e-9);
+
+/** A derived figure for a message: as notes write it, or in powers of ten when large. */
+const figure = (v: number): string =>
+	v < 1e6 ? fmt(v) : Number.isFinite(v) ? v.toExponential(1) : 'more than 1e+308';
+
+function checkName(o: Record<string, unknown>, add: Add): void {
+	if (typeof o.name === 'string' && o.name.length > NAME_MAX)
+		add(['name'], `must be at most ${NAME_MAX} characters, got ${o.name.length}`);
+}
+
+/**
+ * The bounds that follow from a layer's thickness `d` (mm) and another field, for a layer and its
+ * bridge alike: R = d/λ (ISO 6946:2017, 6.7.1) and sd = μ·d (ISO 13788:2012, 3.1), both held to
+ * this product's bounds (./bounds) so that the temperature and vapour chains stay small and finite.
+ */
+function checkThicknessProducts(o: Record<string, unknown>, d: unknown, add: Add, what: string): void {
+	if (!isPositive(d)) return;
+	if (isPositive(o.lambda) && beyond(d / 1000 / o.lambda, LAYER_R_MAX))
+		add(
+			['lambda'],
+			`gives ${what} R = d/λ = ${figure(d / 1000 / o.lambda)} m²·K/W, more than the ${LAYER_R_MAX} m²·K/W a layer may have: check λ (W/(m·K)) and the thickness (mm)`
+		);
+	// μ above its own bound has its issue already
+	if (isPositive(o.mu) && o.mu <= MU_MAX && beyond((o.mu * d) / 1000, LAYER_SD_MAX))
+		add(
+			['mu'],
+			`gives ${what} sd = μ·d = ${figure((o.mu * d) / 1000)} m, more than the 100 000 m a layer may have: check μ and the thickness (mm)`
+		);
+}
+
 function refineBridge(b: Record<string, unknown>, add: Add): void {
 	checkRanges(b, add, BRIDGE_RANGES);
+	checkName(b, add);
 	const byWidth = b.widthMm !== undefined || b.centresMm !== undefined;
 	if (b.fraction === undefined && !byWidth)
 		add(['fraction'], 'give the bridging fraction, or widthMm and centresMm');
@@ -105,9 +175,9 @@ function refineBridge(b: Record<string, unknown>, add: Add): void {
 }
 
 const FASTENER_RANGES: (readonly [string, readonly Rule[]])[] = [
-	['lambda', POSITIVE],
-	['areaMm2', POSITIVE],
-	['perM2', POSITIVE],
+	['lambda', [...POSITIVE, atMost(FASTENER_LAMBDA_MAX, '1000 W/(m·K) (above any metal)')]],
+	['areaMm2', [...POSITIVE, atMost(FASTENER_AREA_MAX_MM2, '10 000 mm²')]],
+	['perM2', [...POSITIVE, atMost(FASTENERS_PER_M2_MAX, '10 000 per m²')]],
 	['penetrationMm', POSITIVE]
 ];
 
@@ -116,17 +186,29 @@ function refineFasteners(f: Record<string, unknown>, add: Add): void {
 }
 
 const LAYER_RANGES: (readonly [string, readonly Rule[]])[] = [
-	['thicknessMm', [...POSITIVE, [(v) => v <= 10000, 'must be ≤ 10 000 mm']]],
+	[
+		'thicknessMm',
+		[
+			...POSITIVE,
+			[(v) => v >= THICKNESS_MIN_MM, 'must be at least 0.001 mm (1 µm)'],
+			atMost(THICKNESS_MAX_MM, '10 000 mm')
+		]
+	],
 	['lambda', POSITIVE],
-	['resistance', [...NON_NEGATIVE, [(v) => v <= 100, 'must be ≤ 100 m²·K/W']]],
+	['resistance', [...NON_NEGATIVE, atMost(LAYER_R_MAX, `${LAYER_R_MAX} m²·K/W`)]],
 	['openingAreaMm2', NON_NEGATIVE],
 	['mu', MU],
-	['sd', [...NON_NEGATIVE, [(v) => v <= 100000, 'must be ≤ 100 000 m']]]
+	['sd', [...NON_NEGATIVE, atMost(LAYER_SD_MAX, '100 000 m')]]
 ];
 
 function refineLayer(l: Record<string, unknown>, add: Add): void {
 	checkRanges(l, add, LAYER_RANGES);
+	checkName(l, add);
 	const thickness = l.thicknessMm as number;
+	// λ of an air layer is ignored (its resistance comes from the table), so only a material's counts.
+	checkThicknessProducts(l.air === undefined ? l : { mu: l.mu }, thickness, add, 'this layer');
+	if (isObject(l.bridge))
+		checkThicknessProducts(l.bridge, thickness, prefixed(add, ['bridge']), 'the bridging material');
 	if (l.air === undefined) {
 		if (l.lambda === undefined && l.resistance === undefined)
 			add(['lambda'], 'give λ or the thermal resistance');
@@ -201,7 +283,16 @@ const DESIGN_RANGES: (readonly [string, readonly Rule[]])[] = [
 function refineGround(g: Record<string, unknown>, add: Add): void {
 	checkRanges(g, add, GROUND_RANGES);
 	// P is the EXPOSED perimeter (ISO 13370: walls between heated spaces are left out), so a terraced
-	// house's floor may have far less perimeter than its shape; no lower bound beyond P > 0.
+	// house's floor may have far less perimeter than its shape; no lower bound beyond P > 0 but that
+	// of B′ = A/(0.5·P), which keeps the ground's U finite and above zero.
+	if (isPositive(g.perimeterM) && isPositive(g.areaM2)) {
+		const b = characteristicDimension(g.areaM2, g.perimeterM);
+		if (beyond(b, CHARACTERISTIC_DIMENSION_MAX_M))
+			add(
+				['perimeterM'],
+				`gives B′ = A/(0.5·P) = ${fmt(b, 0)} m, more than ${CHARACTERISTIC_DIMENSION_MAX_M} m: the exposed perimeter is too small for the floor area; check perimeterM (m) and areaM2 (m²)`
+			);
+	}
 }
 
 function refineClimateMonth(m: Record<string, unknown>, add: Add): void {
@@ -214,6 +305,8 @@ function refineInternal(i: Record<string, unknown>, add: Add): void {
 
 function refineRounding(r: Record<string, unknown>, add: Add): void {
 	checkRanges(r, add, ROUNDING_RANGES);
+	if (r.mode === 'significant' && r.digits === 0)
+		add(['digits'], 'must be at least 1 for significant figures');
 }
 
 function refineLimits(l: Record<string, unknown>, add: Add): void {
@@ -360,6 +453,42 @@ const elementShape = z.object({
 	roofSpace: roofSpaceSchema.optional()
 });
 
+/**
+ * Sum of the layers' thermal resistances, m²·K/W (R = d/λ or as given, ISO 6946:2017, 6.7.1; an
+ * air layer by Table 8 unless given; a well-ventilated one 0); NaN when a field is not a number,
+ * which then has its own issue.
+ */
+function layersResistance(layers: readonly Record<string, unknown>[], heatFlow: unknown): number {
+	const dir: HeatFlow = (HEAT_FLOWS as readonly unknown[]).includes(heatFlow)
+		? (heatFlow as HeatFlow)
+		: 'downward';
+	let sum = 0;
+	for (let i = 0; i < layers.length; i++) {
+		const l = layers[i];
+		const d = l.thicknessMm as number;
+		if (l.air === 'well-ventilated') continue;
+		if (l.resistance !== undefined) sum += l.resistance as number;
+		else if (l.air !== undefined)
+			sum += d >= 0 && d <= AIR_LAYER_MAX_MM ? unventilatedAirLayerResistance(d, dir) : NaN;
+		else sum += d / 1000 / (l.lambda as number);
+	}
+	return sum;
+}
+
+/**
+ * sd-value of a layer that counts, m, as the thermal model takes it (./element-layers: sd = μ·d,
+ * parallel paths through a bridge with its own μ, a negligible sd as zero), so that the check of
+ * the total and the Glaser chain agree; NaN when a field is not a number, which has its own issue.
+ */
+function modelledVapourThickness(l: Record<string, unknown>): number {
+	const b = isObject(l.bridge) ? l.bridge : undefined;
+	const fraction = b
+		? ((b.fraction as number | undefined) ?? (b.widthMm as number) / (b.centresMm as number))
+		: undefined;
+	const sd = layerVapourThickness(l as Layer, l.thicknessMm as number, false, fraction) ?? 0;
+	return negligibleAsZero(sd, SD_NEGLIGIBLE);
+}
+
 function refineElement(e: Record<string, unknown>, add: Add): void {
 	checkRanges(e, add, ELEMENT_RANGES);
 	if (isObject(e.designTemperatures))
@@ -378,7 +507,15 @@ function refineElement(e: Record<string, unknown>, add: Add): void {
 	const layers: Record<string, unknown>[] = Array.isArray(e.layers)
 		? e.layers.map((l) => (isObject(l) ? l : {}))
 		: [];
+	if (layers.length > LAYERS_MAX)
+		add(['layers'], `at most ${LAYERS_MAX} layers are supported, got ${layers.length}`);
 	for (let i = 0; i < layers.length; i++) refineLayer(layers[i], prefixed(add, ['layers', i]));
+	const rLayers = layersResistance(layers, e.heatFlow);
+	if (beyond(rLayers, TOTAL_R_MAX))
+		add(
+			['layers'],
+			`the layers' thermal resistances add up to ${figure(rLayers)} m²·K/W, more than the ${TOTAL_R_MAX} m²·K/W an element may have: check the λ-values and thicknesses`
+		);
 	const well = layers.findIndex((l) => l.air === 'well-ventilated');
 	if (isObject(e.ground)) {
 		refineGround(e.ground, prefixed(add, ['ground']));
@@ -446,8 +583,7 @@ function refineElement(e: Record<string, unknown>, add: Add): void {
 			add(['layers', i, 'mu'], 'give μ or sd for the condensation check');
 			allGiven = false;
 		}
-		const d = l.thicknessMm as number;
-		sdTotal += (l.sd as number | undefined) ?? (((l.mu as number | undefined) ?? (l.air ? 1 : 0)) * d) / 1000;
+		sdTotal += modelledVapourThickness(l);
 	}
 	if (allGiven && sdTotal <= 0)
 		add(['layers'], 'the total sd-value is zero: the condensation check needs some vapour resistance');
@@ -568,7 +704,28 @@ export const condensationResultSchema = z.object({
 			})
 		)
 	}),
-	acceptance: z.object({ pass: z.boolean(), reasons: z.array(z.string()) })
+	acceptance: z.object({ pass: z.boolean(), reasons: z.array(z.string()) }),
+	/**
+	 * The mass balance of the monthly method: `created`, g/m², the moisture its months produced
+	 * beyond the net vapour flux over the year (sum over the months of the change in the total held
+	 * minus (flux in at the internal surface − flux out at the external surface) × the month's
+	 * length; positive when moisture appears from nothing), and the same cycle with each month split
+	 * where an interface dries out (`conserving`: same meanings and units as above, its `created` ≈ 0).
+	 * Always given by this engine; absent in results of earlier engines (e.g. stored report snapshots).
+	 */
+	massBalance: z
+		.object({
+			created: z.number(),
+			conserving: z.object({
+				months: z.array(glaserMonthSchema),
+				maxAccumulation: z.number(),
+				peakMonth: z.number().nullable(),
+				evaporatesFully: z.boolean(),
+				outcome: z.enum(['none', 'dries', 'accumulates']),
+				created: z.number()
+			})
+		})
+		.optional()
 });
 
 export const groundResultSchema = z.object({
@@ -649,27 +806,69 @@ export class ElementInputError extends Error {
 }
 
 /**
- * Inputs this module has validated and returned (zod's output is a fresh object each time). The
- * calculation trusts them without a second validation, which would cost a third of the calculation
- * itself; an input changed after parsing must be parsed again. Weak: nothing is kept alive.
+ * Inputs this module has validated and returned, each deep-frozen (zod's output is a fresh object
+ * each time, so the caller's raw input is never frozen). The calculation trusts them without a
+ * second validation, which would cost a third of the calculation itself: a frozen value cannot be
+ * changed after its check (an assignment throws a TypeError in strict code), and a changed copy is
+ * a new object, validated again. Weak: nothing is kept alive.
  */
 const validated = new WeakSet<object>();
 
-/** Validate raw input (form, JSON, CSV row) without throwing. */
-export function parseElementInput(
-	raw: unknown
-): { ok: true; data: ElementInput } | { ok: false; issues: FieldIssue[] } {
+function deepFreeze(v: unknown): void {
+	if (typeof v !== 'object' || v === null || Object.isFrozen(v)) return;
+	Object.freeze(v);
+	const keys = Object.keys(v);
+	for (let i = 0; i < keys.length; i++) deepFreeze((v as Record<string, unknown>)[keys[i]]);
+}
+
+type Parsed = { ok: true; data: ElementInput } | { ok: false; issues: FieldIssue[] };
+
+const ZERO_TOTAL: FieldIssue = {
+	path: 'layers',
+	message: 'the total thermal resistance is zero: give Rsi, Rse or a layer with resistance'
+};
+
+/**
+ * The schema, then what needs the whole validated element (a total thermal resistance of zero, by
+ * the thermal model itself: ./element-bounds). `keep`: freeze the value and remember it as
+ * validated, for a value handed out; the engine's own check of raw input (`checkedElementInput`)
+ * keeps its copy to itself and skips both.
+ */
+function validate(raw: unknown, keep: boolean): Parsed {
 	if (typeof raw === 'object' && raw !== null && validated.has(raw))
 		return { ok: true, data: raw as ElementInput };
 	const r = elementInputSchema.safeParse(raw);
 	if (!r.success) return { ok: false, issues: formatIssues(r.error) };
-	validated.add(r.data);
+	if (totalResistanceIsZero(r.data)) return { ok: false, issues: [{ ...ZERO_TOTAL }] };
+	if (keep) {
+		deepFreeze(r.data);
+		validated.add(r.data);
+	}
 	return { ok: true, data: r.data };
 }
 
-/** Validate raw input; throws {@link ElementInputError} naming every bad field. */
+/**
+ * Validate raw input (form, JSON, CSV row) without throwing. The data returned is deep-frozen: to
+ * change an input, change a copy (or the raw object) and parse it again.
+ */
+export function parseElementInput(raw: unknown): Parsed {
+	return validate(raw, true);
+}
+
+/** Validate raw input; throws {@link ElementInputError} naming every bad field. Frozen as above. */
 export function assertElementInput(raw: unknown): ElementInput {
-	const r = parseElementInput(raw);
+	const r = validate(raw, true);
+	if (!r.ok) throw new ElementInputError(r.issues);
+	return r.data;
+}
+
+/**
+ * For the engine itself (`analyseElement`): a value returned by {@link parseElementInput} as it is,
+ * anything else validated into a private copy that never leaves the calculation (so neither frozen
+ * nor remembered). Throws {@link ElementInputError} naming every bad field.
+ */
+export function checkedElementInput(raw: unknown): ElementInput {
+	const r = validate(raw, false);
 	if (!r.ok) throw new ElementInputError(r.issues);
 	return r.data;
 }
