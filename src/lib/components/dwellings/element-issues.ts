@@ -13,15 +13,23 @@ const SHOWN_AT_FIELD = [
 	'internal.humidityClass'
 ];
 
-/** Issues that no field shows, for the list under the form. */
+/**
+ * Issues that no field shows, for the list under the form: each once, although the page's own check and
+ * the server's answer often name the same one (a repeated key stops the list from rendering).
+ */
 export function issuesWithoutField(issues: Issue[]): Issue[] {
-	return issues.filter(
-		(i) =>
+	const seen = new Set<string>();
+	return issues.filter((i) => {
+		const key = `${i.path}\u0000${i.message}`;
+		if (seen.has(key)) return false;
+		seen.add(key);
+		return (
 			!i.path.startsWith('buildUp.layers.') &&
 			!i.path.startsWith('buildUp.ground.') &&
 			i.path !== 'buildUp.roofSpace' &&
 			!SHOWN_AT_FIELD.includes(i.path)
-	);
+		);
+	});
 }
 
 /** The layers' messages by path (`layers.2.thicknessMm`), for the build-up table. */
