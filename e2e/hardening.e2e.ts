@@ -272,3 +272,23 @@ test('the sign-in answer does not tell whether an address has an account', async
 	// The known addresses still get their link.
 	for (const email of emails) await waitForMail(email, /sign-in link/i, since);
 });
+
+test("Auth.js's own routes answer on the configured origin whatever host headers they are sent", async () => {
+	const api = await newRequest.newContext({ baseURL: ORIGIN });
+	const res = await api.get(
+		`/auth/callback/nodemailer?token=forged&email=${encodeURIComponent(DEMO.assessor)}`,
+		{
+			headers: {
+				'x-forwarded-host': 'evil.example.test',
+				'x-forwarded-proto': 'https',
+				forwarded: 'host=evil.example.test'
+			},
+			maxRedirects: 0
+		}
+	);
+	expect(res.status()).toBeGreaterThanOrEqual(300);
+	expect(res.status()).toBeLessThan(400);
+	const location = new URL(res.headers()['location'], ORIGIN);
+	expect(location.origin).toBe(ORIGIN);
+	await api.dispose();
+});

@@ -2,7 +2,7 @@ import type { Handle, HandleServerError, ServerInit } from '@sveltejs/kit';
 import { sequence } from '@sveltejs/kit/hooks';
 import { randomUUID } from 'node:crypto';
 import { dev } from '$app/environment';
-import { authHandle } from '$lib/server/auth';
+import { handleAuthRoutes } from '$lib/server/auth';
 import { behindProxy, configuredOrigin, publicOrigin } from '$lib/server/config';
 import { securityHeaders } from '$lib/server/http';
 import { refusalOf, UnavailableError } from '$lib/server/errors';
@@ -193,7 +193,7 @@ const refusals: Handle = async ({ event, resolve }) => {
  * asking comes from `identify`, and the sign-in and sign-out forms call Auth.js's signIn and signOut.
  */
 const auth: Handle = (input) =>
-	input.event.url.pathname.startsWith('/auth/') ? authHandle(input) : input.resolve(input.event);
+	input.event.url.pathname.startsWith('/auth/') ? handleAuthRoutes(input) : input.resolve(input.event);
 
 export const handle = sequence(refusals, checkHost, forgetAfterChanges, auth, identify, guard);
 

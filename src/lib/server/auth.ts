@@ -1,7 +1,7 @@
 import { SvelteKitAuth, type SvelteKitAuthConfig } from '@auth/sveltekit';
 import Nodemailer from '@auth/sveltekit/providers/nodemailer';
 import PostgresAdapter from '@auth/pg-adapter';
-import { isRedirect, type RequestEvent } from '@sveltejs/kit';
+import { isRedirect, type Handle, type RequestEvent } from '@sveltejs/kit';
 import { publicOrigin, setting } from './config';
 import { authPool } from './db';
 import { createTransport, mailFrom, smtpSettings } from './mail';
@@ -38,9 +38,10 @@ export const {
 } = SvelteKitAuth(async (): Promise<SvelteKitAuthConfig> => ({
 	adapter: PostgresAdapter(authPool),
 	secret: setting('AUTH_SECRET'),
-	// Auth.js builds its links from the request it is given. Envelo only ever gives it requests made by
-	// onPublicOrigin() (sign-in, sign-out) or ones whose Host the hooks have checked (/auth/…), so the
-	// host it "trusts" is always the configured origin.
+	// Auth.js builds its links from the host of the request it is given, and refuses to run unless told
+	// to trust it. Every request it sees is rebuilt on the configured ORIGIN first (onPublicOrigin for
+	// sign-in and sign-out, handleAuthRoutes for /auth/…), with the caller's host headers removed, so the
+	// host it trusts is always ORIGIN's, never one a caller sent.
 	trustHost: true,
 	providers: [
 		Nodemailer({
@@ -73,14 +74,31 @@ const HOST_HEADERS = ['host', 'x-forwarded-host', 'x-forwarded-proto', 'x-forwar
  * X-Forwarded-Host the caller sent.
  */
 export function onPublicOrigin(event: RequestEvent, path: string, body: URLSearchParams): RequestEvent {
-	const origin = publicOrigin();
-	const url = new URL(path, origin);
-	const headers = new Headers(event.request.headers);
-	for (const name of HOST_HEADERS) headers.delete(name);
-	headers.set('host', url.host);
+	const url = new URL(path, publicOrigin());
+	const headers = publicHeaders(event.request.headers, url);
 	headers.set('content-type', 'application/x-www-form-urlencoded');
 	return { ...event, url, request: new Request(url, { method: 'POST', headers, body }) };
 }
+
+/** The caller's headers without any that name a host or a scheme, and with `host` set to `url`'s. */
+function publicHeaders(from: Headers, url: URL): Headers {
+	const headers = new Headers(from);
+	for (const name of HOST_HEADERS) headers.delete(name);
+	headers.set('host', url.host);
+	return headers;
+}
+
+/**
+ * Auth.js's own routes (/auth/…: the link's callback, its sign-out and session routes), given the
+ * request rebuilt on the configured origin with the same path, query, method and body.
+ */
+export const handleAuthRoutes: Handle = async ({ event, resolve }) => {
+	const url = new URL(event.url.pathname + event.url.search, publicOrigin());
+	const { method } = event.request;
+	const body = method === 'GET' || method === 'HEAD' ? undefined : await event.request.arrayBuffer();
+	const request = new Request(url, { method, headers: publicHeaders(event.request.headers, url), body });
+	return authHandle({ event: { ...event, url, request }, resolve });
+};
 
 /** Cookies that go nowhere: the sign-in link is requested after the answer has left. */
 const NO_COOKIES: RequestEvent['cookies'] = {
