@@ -47,6 +47,7 @@ export const DWELLING_STATUSES = [
 	'issued',
 	'awaiting-review',
 	'accepted',
+	'changed-after-acceptance',
 	'returned',
 	'archived'
 ] as const;
@@ -56,6 +57,7 @@ export const DWELLING_STATUS_LABELS: Record<DwellingStatus, string> = {
 	issued: 'Issued',
 	'awaiting-review': 'Awaiting review',
 	accepted: 'Accepted',
+	'changed-after-acceptance': 'Changed after acceptance',
 	returned: 'Returned',
 	archived: 'Archived'
 };

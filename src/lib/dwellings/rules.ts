@@ -4,6 +4,7 @@
  * carried out the assessment … myself", so the person who issues must be the dwelling's assessor.
  */
 import type { Role } from '$lib/members/roles';
+import type { DwellingStatus } from './kinds';
 import { ISSUE_ROLES } from '$lib/reports/rules';
 
 /** The person acting: their user id and their role in the dwelling's organisation. */
@@ -47,5 +48,41 @@ export function issueRefusal(actor: Actor, assessorId: string | null): string | 
 		return 'This dwelling has no assessor: name its assessor first, who then issues its reports.';
 	if (assessorId !== actor.userId)
 		return 'Only the dwelling’s assessor issues its reports, since the declaration in the report is theirs. To issue it yourself, become its assessor first (its assessor hands it over, or an admin reassigns it).';
+	return null;
+}
+
+/**
+ * When a dwelling's record may change, as the pages state it: an accepted dwelling, or one a supervisor
+ * is reviewing, is signed-off (or about to be) work, so it is reopened first with a reason, which is
+ * logged and shown to the supervisor with every change made after it.
+ */
+export const REOPEN_RULE =
+	'An accepted dwelling, or one awaiting review, is reopened with a reason before it changes. The reason, and every change made after it, is logged and shown to the supervisor; an accepted dwelling becomes “changed after acceptance” until it is reviewed again.';
+
+/** Statuses in which a dwelling is reopened (with a reason) before it changes. */
+export const REOPEN_STATUSES: readonly DwellingStatus[] = ['accepted', 'awaiting-review'];
+
+/**
+ * Why a dwelling in `status` may not change now (`reopened`: reopened during the current review), or
+ * null when it may. `needsReason` says that reopening it with a reason lifts the refusal.
+ */
+export function changeRefusal(
+	status: DwellingStatus,
+	reopened: boolean
+): { message: string; needsReason: boolean } | null {
+	if (status === 'archived')
+		return { message: 'This dwelling is archived; restore it before changing it.', needsReason: false };
+	if (status === 'accepted')
+		return {
+			message:
+				'This dwelling is accepted: reopen it with a reason before changing it (the reason and every change are logged and shown to the supervisor).',
+			needsReason: true
+		};
+	if (status === 'awaiting-review' && !reopened)
+		return {
+			message:
+				'This dwelling is awaiting review: reopen it with a reason before changing it (the supervisor sees the reason and every change).',
+			needsReason: true
+		};
 	return null;
 }

@@ -64,6 +64,17 @@ export const dwellingFieldsSchema = z.object({
 	climateId: uuidOrNull
 });
 
+/** Reopening an accepted dwelling, or one awaiting review, for changes: the reason, in a supervisor's words. */
+export const reopenSchema = z.object({
+	reason: z
+		.string({ error: 'say why the dwelling changes' })
+		.trim()
+		.min(10, 'say why the dwelling changes, in at least 10 characters')
+		.max(2000, 'must be at most 2,000 characters'),
+	version: versionSchema
+});
+export type ReopenInput = z.infer<typeof reopenSchema>;
+
 export const dwellingUpdateSchema = dwellingFieldsSchema.partial().extend({ version: versionSchema });
 
 export const dwellingCopySchema = z.object({
@@ -90,6 +101,12 @@ export const dwellingListQuerySchema = z.object({
 		.union([z.uuid({ error: 'must be an id' }), z.literal('')])
 		.optional()
 		.default(''),
+	/** only dwellings that differ from their latest issued dwelling report */
+	changed: z
+		.enum(['', '0', '1', 'true', 'false'], { error: 'must be 1 (only changed since issue) or left out' })
+		.optional()
+		.default('')
+		.transform((v) => v === '1' || v === 'true'),
 	sort: z.enum(DWELLING_SORTS, { error: `must be one of ${DWELLING_SORTS.join(', ')}` }).default('updated'),
 	dir: z.enum(['asc', 'desc'], { error: 'must be asc or desc' }).default('desc'),
 	page: z.coerce

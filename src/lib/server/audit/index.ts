@@ -499,7 +499,7 @@ export async function decideItem(member: Member, itemId: string, input: Decision
 		const status = input.decision === 'returned' ? 'returned' : 'accepted';
 		await trx('dwellings')
 			.where({ organisation_id: orgId, id: item.dwelling_id })
-			.update({ status, updated_at: trx.fn.now() });
+			.update({ status, reopened_at: null, updated_at: trx.fn.now() });
 		await logActivity(
 			{
 				organisationId: orgId,
@@ -665,7 +665,7 @@ export async function resubmitItem(
 			});
 		await trx('dwellings')
 			.where({ organisation_id: orgId, id: item.dwelling_id })
-			.update({ status: 'awaiting-review', updated_at: trx.fn.now() });
+			.update({ status: 'awaiting-review', reopened_at: null, updated_at: trx.fn.now() });
 		await logActivity(
 			{
 				organisationId: orgId,

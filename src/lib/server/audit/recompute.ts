@@ -95,8 +95,8 @@ export async function insertItems(
 				'id',
 				chunk.map((p) => p.id)
 			)
-			.whereIn('status', ['issued', 'accepted'])
-			.update({ status: 'awaiting-review', updated_at: trx.fn.now() });
+			.whereIn('status', ['issued', 'accepted', 'changed-after-acceptance'])
+			.update({ status: 'awaiting-review', reopened_at: null, updated_at: trx.fn.now() });
 	}
 }
 

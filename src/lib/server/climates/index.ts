@@ -16,6 +16,7 @@ import {
 	uniqueViolationAs
 } from '$lib/server/errors';
 import { fieldIssues } from '$lib/validation';
+import { markIssuedDwellings, usingClimate } from '$lib/server/reports/marks';
 
 /** An organisation's climates: twelve months of external conditions with their source. */
 
@@ -128,6 +129,8 @@ export async function updateClimate(
 				})
 				.returning('*');
 			await log(member, 'update', id, { name: data.name, version: row.version }, t);
+			if (JSON.stringify(current.months) !== JSON.stringify(data.months))
+				await markIssuedDwellings(t, member.organisationId, usingClimate(id));
 			return toClimate(row);
 		} catch (e) {
 			throw nameTaken(e, data.name);

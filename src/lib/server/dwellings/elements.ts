@@ -29,8 +29,9 @@ import type { ElementBrief } from '$lib/dwellings/summary';
 import { meetsLimit } from '$lib/limit-tables/rules';
 import { getClimateBrief, type ClimateBrief } from '$lib/server/climates';
 import { getApplicableLimitTable } from '$lib/server/limit-tables';
-import { lockDwelling, touchDwelling } from './locks';
+import { assertChangeable, lockDwelling, touchDwelling } from './locks';
 import { fieldIssues } from '$lib/validation';
+import { compareElements, type Change, type ComparedElement } from '$lib/dwellings/changes';
 import { limitFor } from '$lib/server/limit-tables';
 
 /* ------------------------------------------------------------ reads */
@@ -229,20 +230,15 @@ function columns(data: ElementFields, result: ElementResult | null) {
 	};
 }
 
-function assertWritable(status: string) {
-	if (status === 'archived')
-		throw new ConflictError('This dwelling is archived; restore it before changing its elements.');
-}
-
 /**
  * Lock an element for a change, in the order every writer takes the locks: its dwelling (which must not
- * be archived), then the element, whose version must be the one the caller loaded.
+ * be archived, nor accepted or awaiting review unless reopened), then the element, whose version must be the one the caller loaded.
  */
 async function lockElement(t: Db, organisationId: string, id: string, version: number) {
 	const existing = await t('elements').where({ organisation_id: organisationId, id }).first('dwelling_id');
 	if (!existing) throw new NotFoundError('No such element.');
 	const dwelling = await lockDwelling(t, organisationId, existing.dwelling_id);
-	assertWritable(dwelling.status);
+	assertChangeable(dwelling);
 	const current = await t('elements').where({ organisation_id: organisationId, id }).forUpdate().first();
 	assertVersion(current.version, version);
 	return { dwellingId: existing.dwelling_id as string, current };
@@ -260,7 +256,7 @@ export async function createElement(
 ): Promise<ElementWithVerdict> {
 	const write = async (t: Db) => {
 		const dwelling = await lockDwelling(t, member.organisationId, dwellingId);
-		assertWritable(dwelling.status);
+		assertChangeable(dwelling);
 		const d = await t('dwellings').where({ id: dwellingId }).first('climate_id', 'limit_table_id');
 		const { data, result } = await calculateElement(member.organisationId, raw, d.climate_id, t);
 		let position = data.position;
@@ -323,7 +319,8 @@ export async function updateElement(member: Member, id: string, raw: unknown): P
 				dwellingId,
 				version: current.version + 1,
 				uBefore: current.last_result?.uValue ?? current.given_u ?? null,
-				uAfter: result?.uValue ?? data.givenU ?? null
+				uAfter: result?.uValue ?? data.givenU ?? null,
+				changes: await rowChanges(t, current, row)
 			},
 			t
 		);
@@ -368,7 +365,7 @@ export async function reorderElements(
 	const { ids, version } = parsed.data;
 	return db.transaction(async (t) => {
 		const dwelling = await lockDwelling(t, member.organisationId, dwellingId);
-		assertWritable(dwelling.status);
+		assertChangeable(dwelling);
 		assertVersion(dwelling.version, version);
 		const rows: { id: string; position: number }[] = await t('elements')
 			.where({ organisation_id: member.organisationId, dwelling_id: dwellingId })
@@ -425,6 +422,58 @@ export async function duplicateElement(member: Member, id: string): Promise<Elem
 		climateId: el.climateId,
 		internal: el.internal
 	});
+}
+
+/** One stored element row as the change list compares it; `revisions` gives library revision numbers by id. */
+function comparable(
+	r: Record<string, any>,
+	revisions: Map<string, { revision: number; code: string | null }>
+): ComparedElement {
+	const buildUp = (r.build_up ?? null) as StoredBuildUp | null;
+	const materialRevisions = (buildUp?.layers ?? []).flatMap((l, layerIndex) => {
+		const rev = l.materialRevisionId ? revisions.get(l.materialRevisionId) : undefined;
+		return rev ? [{ layerIndex, ...rev }] : [];
+	});
+	return {
+		id: r.id,
+		name: r.name,
+		kind: r.kind,
+		area: Number(r.area),
+		heatFlow: r.heat_flow,
+		givenU: r.given_u ?? null,
+		givenUSource: r.given_u_source ?? null,
+		buildUp,
+		internal: (r.internal ?? null) as StoredInternal | null,
+		climate: r.climate_id ? { id: r.climate_id, name: 'another climate', months: [] } : null,
+		u: (r.last_result as ElementResult | null)?.uValueRounded ?? r.given_u ?? null,
+		materialRevisions
+	};
+}
+
+/** The field-by-field changes of one save (before → after), for the activity log. */
+async function rowChanges(t: Db, before: Record<string, any>, after: Record<string, any>): Promise<Change[]> {
+	const ids = [before, after].flatMap((r) =>
+		((r.build_up as StoredBuildUp | null)?.layers ?? []).map((l) => l.materialRevisionId).filter(Boolean)
+	) as string[];
+	const rows = ids.length
+		? await t('material_revisions as r')
+				.join('materials as m', 'm.id', 'r.material_id')
+				.whereIn('r.id', [...new Set(ids)])
+				.select('r.id', 'r.revision', 'm.code')
+		: [];
+	const revisions = new Map(
+		rows.map((x) => [x.id as string, { revision: Number(x.revision), code: x.code ?? null }])
+	);
+	const climateIds = [before.climate_id, after.climate_id].filter(Boolean) as string[];
+	const climates = climateIds.length
+		? await t('climates').whereIn('id', climateIds).select('id', 'name')
+		: [];
+	const named = (r: Record<string, any>): ComparedElement => {
+		const c = comparable(r, revisions);
+		const name = climates.find((x) => x.id === r.climate_id)?.name;
+		return c.climate && name ? { ...c, climate: { ...c.climate, name } } : c;
+	};
+	return compareElements(named(before), named(after));
 }
 
 /* ------------------------------------------------------------ mapping */

@@ -6,6 +6,7 @@ import {
 	dwellingFieldsSchema,
 	dwellingListQuerySchema,
 	dwellingUpdateSchema,
+	reopenSchema,
 	type DwellingListQuery
 } from '$lib/dwellings/schema';
 import {
@@ -18,7 +19,7 @@ import {
 	type FieldIssue
 } from '$lib/server/errors';
 import { fieldIssues } from '$lib/validation';
-import { type DwellingStatus } from '$lib/dwellings/kinds';
+import { DWELLING_STATUS_LABELS, type DwellingStatus } from '$lib/dwellings/kinds';
 import { summariseElements, type ElementSummaryRow } from '$lib/dwellings/summary';
 import { listElementSummaries, toElementBrief } from './elements';
 import { getClimateBrief, toClimateBrief, type ClimateBrief } from '$lib/server/climates';
@@ -28,7 +29,8 @@ import {
 	toLimitTableBrief,
 	type LimitTableBrief
 } from '$lib/server/limit-tables';
-import { lockDwelling } from './locks';
+import { assertChangeable, lockDwelling } from './locks';
+import { refreshIssueChanges } from '$lib/server/reports/changes';
 import { ASSESSOR_ROLES, reassignRefusal } from '$lib/dwellings/rules';
 
 /** Roles that create and change dwellings and elements; supervisors read only. */
@@ -65,6 +67,7 @@ export async function listDwellings(organisationId: string, rawQuery: unknown): 
 	if (q.status === 'active') base.andWhereNot('d.status', 'archived');
 	else if (q.status && q.status !== 'all') base.andWhere('d.status', q.status);
 	if (q.assessorId) base.andWhere('d.assessor_id', q.assessorId);
+	if (q.changed) base.andWhere('d.issue_changes', '>', 0);
 
 	const [{ n }] = await base.clone().count({ n: '*' });
 	const rows = await base
@@ -360,13 +363,10 @@ export async function updateDwelling(member: Member, id: string, raw: unknown): 
 	const sent = new Set(Object.keys((raw ?? {}) as object));
 	return db.transaction(async (t) => {
 		const current = await lockDwelling(t, member.organisationId, id);
-		if (current.status === 'archived')
-			throw new ConflictError('This dwelling is archived; restore it before changing it.');
+		assertChangeable(current);
 		assertVersion(current.version, version);
 		// The form sends the assessor with every save: only a different one is a reassignment.
-		const before = await t('dwellings')
-			.where({ organisation_id: member.organisationId, id })
-			.first('assessor_id');
+		const before = await t('dwellings').where({ organisation_id: member.organisationId, id }).first();
 		const from = (before?.assessor_id as string | null) ?? null;
 		const to = data.assessorId ?? null;
 		const reassigning = sent.has('assessorId') && to !== from;
@@ -377,17 +377,23 @@ export async function updateDwelling(member: Member, id: string, raw: unknown): 
 		await checkReferences(member.organisationId, reassigning ? data : { ...data, assessorId: undefined }, t);
 		const patch: Record<string, unknown> = { version: current.version + 1, updated_at: t.fn.now() };
 		const changed: string[] = [];
+		const was: Record<string, unknown> = {};
+		const now: Record<string, unknown> = {};
 		for (const [key, value] of Object.entries(data)) {
 			if (!sent.has(key) || !(key in COLUMN)) continue;
 			patch[COLUMN[key]] = value;
+			if ((before?.[COLUMN[key]] ?? null) === (value ?? null)) continue;
 			changed.push(key);
+			was[key] = before?.[COLUMN[key]] ?? null;
+			now[key] = value ?? null;
 		}
 		try {
 			await t('dwellings').where({ organisation_id: member.organisationId, id }).update(patch);
 		} catch (e) {
 			throw referenceTaken(e, String(data.reference));
 		}
-		await log(member, 'update', id, { changed }, t);
+		await log(member, 'update', id, { changed, before: was, after: now }, t);
+		await refreshIssueChanges(t, member.organisationId, id);
 		if (reassigning) {
 			const people = await personNames(t, [from, to]);
 			await log(
@@ -404,6 +410,81 @@ export async function updateDwelling(member: Member, id: string, raw: unknown): 
 		}
 		return (await getDwelling(member.organisationId, id, t)) as Dwelling;
 	});
+}
+
+/**
+ * Reopen an accepted dwelling, or one awaiting review, for changes, with a reason (`REOPEN_RULE` in
+ * `$lib/dwellings/rules`). The decision it reopens (the latest audit item's) is logged with the reason;
+ * an accepted dwelling becomes "changed after acceptance", one awaiting review stays in its batch, marked
+ * reopened, until the supervisor decides. `version` must be the one the caller loaded (else 409).
+ */
+export async function reopenDwelling(member: Member, id: string, raw: unknown): Promise<Dwelling> {
+	const parsed = reopenSchema.safeParse(raw);
+	if (!parsed.success) throw new ValidationError(fieldIssues(parsed.error));
+	const { reason, version } = parsed.data;
+	return db.transaction(async (t) => {
+		const current = await lockDwelling(t, member.organisationId, id);
+		assertVersion(current.version, version);
+		const reopenable =
+			current.status === 'accepted' || (current.status === 'awaiting-review' && !current.reopenedAt);
+		if (!reopenable) {
+			throw new ConflictError(
+				`This dwelling is ${DWELLING_STATUS_LABELS[current.status].toLowerCase()}${current.reopenedAt ? ' and already reopened' : ''}: it changes without being reopened.`
+			);
+		}
+		const to: DwellingStatus = current.status === 'accepted' ? 'changed-after-acceptance' : current.status;
+		await t('dwellings')
+			.where({ organisation_id: member.organisationId, id })
+			.update({
+				status: to,
+				reopened_at: current.status === 'awaiting-review' ? t.fn.now() : null,
+				version: current.version + 1,
+				updated_at: t.fn.now()
+			});
+		await log(
+			member,
+			'reopen',
+			id,
+			{
+				reference: current.reference,
+				reason,
+				from: current.status,
+				to,
+				decision: await latestDecision(t, member.organisationId, id)
+			},
+			t
+		);
+		return (await getDwelling(member.organisationId, id, t)) as Dwelling;
+	});
+}
+
+/** The decision a reopening sets aside: the dwelling's latest audit item, as it stood. */
+async function latestDecision(t: Db, organisationId: string, dwellingId: string) {
+	const item = await t('audit_items as i')
+		.join('audit_batches as b', 'b.id', 'i.batch_id')
+		.leftJoin('users as u', 'u.id', 'i.decided_by')
+		.where({ 'i.organisation_id': organisationId, 'i.dwelling_id': dwellingId })
+		.orderBy('i.created_at', 'desc')
+		.first(
+			'i.id',
+			'i.batch_id',
+			'b.name as batch',
+			'i.decision',
+			'i.comment',
+			'i.decided_at',
+			'u.name',
+			'u.email'
+		);
+	if (!item) return null;
+	return {
+		itemId: item.id,
+		batchId: item.batch_id,
+		batch: item.batch,
+		decision: item.decision ?? null,
+		comment: item.comment ?? null,
+		decidedBy: item.name ?? item.email ?? null,
+		decidedAt: item.decided_at ? new Date(item.decided_at).toISOString() : null
+	};
 }
 
 /** Names (else e-mail addresses) of users by id, for log entries that must read without a join. */
@@ -544,6 +625,8 @@ function toDwelling(r: Record<string, unknown>): Dwelling {
 		status: r.status as DwellingStatus,
 		limitTableId: (r.limit_table_id as string | null) ?? null,
 		climateId: (r.climate_id as string | null) ?? null,
+		issueChanges: r.issue_changes === null || r.issue_changes === undefined ? null : Number(r.issue_changes),
+		reopened: Boolean(r.reopened_at),
 		version: r.version as number,
 		createdAt: new Date(r.created_at as string).toISOString(),
 		updatedAt: new Date(r.updated_at as string).toISOString()
@@ -563,6 +646,10 @@ export type Dwelling = {
 	status: DwellingStatus;
 	limitTableId: string | null;
 	climateId: string | null;
+	/** differences from the latest issued dwelling report: null before the first issue, 0 when it matches */
+	issueChanges: number | null;
+	/** reopened for changes (with a reason) during the review it awaits */
+	reopened: boolean;
 	version: number;
 	createdAt: string;
 	updatedAt: string;

@@ -8,6 +8,7 @@ import {
 	dwellingListQuerySchema,
 	dwellingUpdateSchema,
 	elementFieldsSchema,
+	reopenSchema,
 	elementUpdateSchema,
 	thicknessRequestSchema
 } from '$lib/dwellings/schema';
@@ -131,6 +132,32 @@ export const paths: Record<string, unknown> = {
 			summary: 'Archive or restore to draft',
 			requestBody: jsonBody(archiveSchema),
 			responses: { '200': ok('Updated', dwelling), ...errors, ...stale }
+		}
+	},
+	'/api/v1/dwellings/{dwellingId}/changes': {
+		parameters: [idParam('dwellingId')],
+		get: {
+			tags: ['dwellings'],
+			summary:
+				'What differs between the dwelling now and its latest issued dwelling report: { report, changes: [{ elementId, element, field, before, after, by, at }] } (report null before the first issue)',
+			responses: { '200': ok('{ report, changes }'), ...errors }
+		}
+	},
+	'/api/v1/dwellings/{dwellingId}/reopen': {
+		parameters: [idParam('dwellingId')],
+		post: {
+			tags: ['dwellings'],
+			summary:
+				'Reopen an accepted dwelling, or one awaiting review, for changes, with a reason (logged with the decision it sets aside). Writes to such a dwelling are refused with 409 and code "reopen-required" until it is reopened.',
+			requestBody: jsonBody(reopenSchema),
+			responses: {
+				'200': ok(
+					'The dwelling, now changed after acceptance (or still awaiting review, reopened)',
+					dwelling
+				),
+				...errors,
+				...stale
+			}
 		}
 	},
 	'/api/v1/dwellings/{dwellingId}/elements': {

@@ -18,6 +18,7 @@ import {
 	uniqueViolationAs
 } from '$lib/server/errors';
 import { fieldIssues } from '$lib/validation';
+import { markIssuedDwellings, usingLimitTable } from '$lib/server/reports/marks';
 
 /**
  * Limit tables: maximum U by element kind, per jurisdiction or scheme. One per organisation is the
@@ -141,6 +142,9 @@ export async function createLimitTable(
 				{ name: data.name, edition: data.edition, isDefault: makeDefault },
 				t
 			);
+			// A new default: dwellings without a table of their own are now judged against it.
+			if (makeDefault)
+				await markIssuedDwellings(t, member.organisationId, (q) => q.whereNull('d.limit_table_id'));
 			return toLimitTable(row);
 		} catch (e) {
 			throw nameTaken(e, data.name, data.edition);
@@ -272,6 +276,8 @@ export async function updateLimitTable(
 				},
 				t
 			);
+			if (changes.length > 0)
+				await markIssuedDwellings(t, member.organisationId, usingLimitTable(id, Boolean(row.is_default)));
 			return toLimitTable(row);
 		} catch (e) {
 			throw nameTaken(e, data.name, data.edition);
@@ -291,6 +297,8 @@ export async function setDefaultLimitTable(member: Member, id: string): Promise<
 			.update({ is_default: true, version: current.version + 1, updated_at: t.fn.now() })
 			.returning('*');
 		await log(member, 'set-default', id, { name: row.name, edition: row.edition }, t);
+		// Dwellings without a table of their own are now judged against this one.
+		await markIssuedDwellings(t, member.organisationId, (q) => q.whereNull('d.limit_table_id'));
 		return toLimitTable(row);
 	});
 }

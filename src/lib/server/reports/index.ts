@@ -626,6 +626,11 @@ export async function issueReport(
 			},
 			t
 		);
+		// The new report is the dwelling as it is now: nothing differs from the issued record.
+		if (scope === 'dwelling')
+			await t('dwellings')
+				.where({ id: dwelling.id, organisation_id: caller.organisationId })
+				.update({ issue_changes: 0 });
 		if (scope === 'dwelling' && dwelling.status !== 'issued' && dwelling.status !== 'awaiting-review') {
 			await t('dwellings')
 				.where({ id: dwelling.id, organisation_id: caller.organisationId })
