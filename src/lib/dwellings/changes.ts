@@ -50,6 +50,16 @@ export type Change = {
 	after: string;
 };
 
+/** A change with who last changed that element (or the dwelling) after the issue, and when. */
+export type AttributedChange = Change & { by: string | null; at: string | null };
+
+/** The dwelling against its latest issued dwelling report. */
+export type IssueChanges = {
+	/** the latest issued dwelling report, null before the first issue */
+	report: { id: string; number: string; revision: number; issuedAt: string } | null;
+	changes: AttributedChange[];
+};
+
 const NONE = '—';
 
 function text(v: unknown): string {

@@ -86,3 +86,15 @@ export function changeRefusal(
 		};
 	return null;
 }
+
+/** A refused reopening in a person's words: the reason's own message ("Say why …"), else the refusal. */
+export function reopenRefusalText(
+	message: string,
+	issues: readonly { path: string; message: string }[]
+): string {
+	const reason = issues.find((i) => i.path === 'reason' || i.path === 'version');
+	if (!reason) return message;
+	const text =
+		reason.path === 'version' ? 'the page is out of date: reload it and try again' : reason.message;
+	return text.charAt(0).toUpperCase() + text.slice(1) + '.';
+}

@@ -30,6 +30,7 @@ import {
 } from '$lib/server/errors';
 import { exceedsLimit } from '$lib/limit-tables/rules';
 import { DECIDER_ROLES, decisionRefusal, type Involvement } from '$lib/audit/rules';
+import { changesSinceIssue, type IssueChanges } from '$lib/server/reports/changes';
 
 export type { BatchProgress, BatchSource };
 
@@ -304,6 +305,8 @@ export type ItemRow = {
 	decidedAt: string | null;
 	resubmissions: number;
 	recomputedAt: string | null;
+	/** when the dwelling entered the batch */
+	addedAt: string;
 	state: ItemState;
 };
 
@@ -353,6 +356,7 @@ function mapItem(r: Record<string, any>): ItemRow {
 		decidedAt: iso(r.decided_at),
 		resubmissions: r.resubmissions,
 		recomputedAt: iso(r.recomputed_at),
+		addedAt: iso(r.created_at)!,
 		state: itemState(r.decision, r.resubmissions)
 	};
 }
@@ -394,6 +398,123 @@ export async function getItem(organisationId: string, itemId: string): Promise<I
 			details: h.details ?? {}
 		}))
 	};
+}
+
+/* ------------------------------------------------------------------ after a decision */
+
+export type Reopening = { at: string; who: string | null; reason: string; from: string; to: string };
+
+/** The reopenings of a dwelling (reason, who, when), oldest first, after `since` when given. */
+export async function listReopenings(
+	organisationId: string,
+	dwellingId: string,
+	since: string | null = null
+): Promise<Reopening[]> {
+	const q = db('activity_log as l')
+		.leftJoin('users as u', 'u.id', 'l.user_id')
+		.where({
+			'l.organisation_id': organisationId,
+			'l.entity': 'dwelling',
+			'l.entity_id': dwellingId,
+			'l.action': 'reopen'
+		})
+		.orderBy('l.id', 'asc')
+		.select('l.created_at', 'l.details', 'u.name', 'u.email');
+	if (since) q.andWhere('l.created_at', '>', since);
+	return (await q).map((r) => ({
+		at: iso(r.created_at)!,
+		who: r.name ?? r.email ?? null,
+		reason: String(r.details?.reason ?? ''),
+		from: String(r.details?.from ?? ''),
+		to: String(r.details?.to ?? '')
+	}));
+}
+
+/**
+ * Whether a dwelling still matches what was decided on one audit item: nothing reopened it since the
+ * decision (or, before one, since it entered the batch), no report was issued after the decision, and
+ * it does not differ from its latest issued report.
+ */
+export async function decisionStanding(
+	organisationId: string,
+	item: { dwellingId: string; decidedAt: string | null; addedAt: string }
+): Promise<{ matches: boolean; reopenings: Reopening[]; changes: IssueChanges; reissued: boolean }> {
+	const since = item.decidedAt ?? item.addedAt;
+	const [reopenings, changes, later] = await Promise.all([
+		listReopenings(organisationId, item.dwellingId, since),
+		changesSinceIssue(organisationId, item.dwellingId),
+		db('reports')
+			.where({ organisation_id: organisationId, dwelling_id: item.dwellingId, scope: 'dwelling' })
+			.andWhere('issued_at', '>', since)
+			.first('id')
+	]);
+	const reissued = Boolean(later) && item.decidedAt !== null;
+	return {
+		matches: reopenings.length === 0 && changes.changes.length === 0 && !reissued,
+		reopenings,
+		changes,
+		reissued
+	};
+}
+
+export type ChangedAfterDecision = {
+	itemId: string;
+	batchId: string;
+	batchName: string;
+	dwellingId: string;
+	reference: string;
+	address: string;
+	dwellingStatus: string;
+	decision: string | null;
+	decidedAt: string | null;
+	reopenedAt: string;
+	reopenedBy: string | null;
+	reason: string;
+	issueChanges: number | null;
+};
+
+/**
+ * The supervisors' queue of work reopened after (or during) its review: for each dwelling, its latest
+ * audit item and the latest reopening that came after the item's decision (or, undecided, after the
+ * dwelling entered the batch). Newest reopening first.
+ */
+export async function listChangedAfterDecision(organisationId: string): Promise<ChangedAfterDecision[]> {
+	const { rows } = await db.raw(
+		`SELECT DISTINCT ON (i.dwelling_id)
+		        i.id AS item_id, i.batch_id, b.name AS batch_name, d.id AS dwelling_id, d.reference, d.address,
+		        d.status AS dwelling_status, i.decision, i.decided_at, l.created_at AS reopened_at,
+		        coalesce(u.name, u.email) AS reopened_by, l.details->>'reason' AS reason, d.issue_changes
+		   FROM audit_items i
+		   JOIN audit_batches b ON b.id = i.batch_id
+		   JOIN dwellings d ON d.id = i.dwelling_id AND d.organisation_id = i.organisation_id
+		   JOIN activity_log l ON l.organisation_id = i.organisation_id AND l.entity = 'dwelling'
+		                      AND l.entity_id = i.dwelling_id::text AND l.action = 'reopen'
+		                      AND l.created_at > coalesce(i.decided_at, i.created_at)
+		   LEFT JOIN users u ON u.id = l.user_id
+		  WHERE i.organisation_id = ?
+		    AND i.id = (SELECT i2.id FROM audit_items i2 WHERE i2.dwelling_id = i.dwelling_id
+		                 AND i2.organisation_id = i.organisation_id ORDER BY i2.created_at DESC LIMIT 1)
+		  ORDER BY i.dwelling_id, l.created_at DESC
+		  LIMIT 500`,
+		[organisationId]
+	);
+	return (rows as Record<string, any>[])
+		.map((r) => ({
+			itemId: r.item_id,
+			batchId: r.batch_id,
+			batchName: r.batch_name,
+			dwellingId: r.dwelling_id,
+			reference: r.reference,
+			address: r.address ?? '',
+			dwellingStatus: r.dwelling_status,
+			decision: r.decision ?? null,
+			decidedAt: iso(r.decided_at),
+			reopenedAt: iso(r.reopened_at)!,
+			reopenedBy: r.reopened_by ?? null,
+			reason: r.reason ?? '',
+			issueChanges: r.issue_changes === null ? null : Number(r.issue_changes)
+		}))
+		.sort((a, b) => b.reopenedAt.localeCompare(a.reopenedAt));
 }
 
 /* ------------------------------------------------------------------ recompute */

@@ -10,7 +10,7 @@ import {
 	type HeatFlow
 } from '$lib/physics';
 import { toElementInput, type StoredBuildUp, type StoredInternal } from '$lib/dwellings/element-input';
-import { DEFAULT_HEAT_FLOW, type ElementKind } from '$lib/dwellings/kinds';
+import { DEFAULT_HEAT_FLOW, type DwellingStatus, type ElementKind } from '$lib/dwellings/kinds';
 import {
 	elementFieldsSchema,
 	isGivenU,
@@ -119,8 +119,10 @@ export async function getDwellingContext(
 			id: d.id as string,
 			reference: d.reference as string,
 			address: d.address as string,
-			status: d.status as string,
-			climateId: (d.climate_id ?? null) as string | null
+			status: d.status as DwellingStatus,
+			climateId: (d.climate_id ?? null) as string | null,
+			version: d.version as number,
+			reopened: Boolean(d.reopened_at)
 		},
 		climate,
 		dwellingClimate,

@@ -6,17 +6,11 @@
  * worked out afresh.
  */
 import { db, type Db } from '$lib/server/db';
-import { compareRecords, type Change } from '$lib/dwellings/changes';
+import { compareRecords, type IssueChanges } from '$lib/dwellings/changes';
 import { buildSnapshot } from './index';
 import type { ReportSnapshot } from './snapshot';
 
-export type AttributedChange = Change & { by: string | null; at: string | null };
-
-export type IssueChanges = {
-	/** the latest issued dwelling report, null before the first issue */
-	report: { id: string; number: string; revision: number; issuedAt: string } | null;
-	changes: AttributedChange[];
-};
+export type { IssueChanges };
 
 /** The latest issued dwelling report of a dwelling, with its snapshot. */
 async function latestIssued(t: Db, organisationId: string, dwellingId: string) {
@@ -120,4 +114,22 @@ export async function refreshIssueChanges(
 			.update({ issue_changes: changes.length });
 	}
 	return changes.length;
+}
+
+/**
+ * The changes for a page or the API, correcting the stored count when it has drifted (a climate or limit
+ * table edited after issue marks its dwellings with at least one change; the exact number is set here).
+ */
+export async function readIssueChanges(
+	organisationId: string,
+	dwellingId: string,
+	storedCount: number | null
+): Promise<IssueChanges> {
+	const found = await changesSinceIssue(organisationId, dwellingId);
+	if (found.report && found.changes.length !== storedCount) {
+		await db('dwellings')
+			.where({ organisation_id: organisationId, id: dwellingId })
+			.update({ issue_changes: found.changes.length });
+	}
+	return found;
 }

@@ -6,6 +6,7 @@ import {
 	copyDwelling,
 	getDwellingPage,
 	getReturnNote,
+	reopenDwelling,
 	setDwellingArchived,
 	updateDwelling,
 	WRITE_ROLES
@@ -17,7 +18,9 @@ import {
 	reorderElements
 } from '$lib/server/dwellings/elements';
 import { copyFormSchema, dwellingFormSchema } from '$lib/dwellings/forms';
-import { ConflictError, ForbiddenError, NotFoundError, ValidationError } from '$lib/server/errors';
+import { readIssueChanges } from '$lib/server/reports/changes';
+import { AppError, ConflictError, ForbiddenError, NotFoundError, ValidationError } from '$lib/server/errors';
+import { reopenRefusalText } from '$lib/dwellings/rules';
 
 export const load = async (event) => {
 	const member = requireMember(event);
@@ -27,8 +30,9 @@ export const load = async (event) => {
 	if (!page) error(404, 'No such dwelling.');
 	const { options, ...overview } = page;
 	const d = overview.dwelling;
-	const [returned, form] = await Promise.all([
+	const [returned, changes, form] = await Promise.all([
 		d.status === 'returned' ? getReturnNote(member.organisationId, d.id) : null,
+		d.issueChanges === null ? null : readIssueChanges(member.organisationId, d.id, d.issueChanges),
 		superValidate(zod4(dwellingFormSchema), {
 			defaults: {
 				reference: d.reference,
@@ -44,7 +48,7 @@ export const load = async (event) => {
 			}
 		})
 	]);
-	return { ...overview, options, returned, form };
+	return { ...overview, options, returned, changes, form };
 };
 
 async function expected<T>(fn: () => Promise<T>) {
@@ -64,6 +68,22 @@ async function expected<T>(fn: () => Promise<T>) {
 }
 
 export const actions = {
+	/** Reopen an accepted dwelling, or one awaiting review, for changes, with a reason. */
+	reopen: async function reopen(event) {
+		const member = requireRole(event, ...WRITE_ROLES);
+		const data = await event.request.formData();
+		try {
+			await reopenDwelling(member, event.params.dwellingId, {
+				reason: String(data.get('reason') ?? ''),
+				version: Number(data.get('version'))
+			});
+		} catch (e) {
+			if (e instanceof AppError && e.status < 500)
+				return fail(e.status, { reopenError: reopenRefusalText(e.message, e.issues) });
+			throw e;
+		}
+		return { done: 'Reopened: the reason is logged, and the supervisor sees it with every change.' };
+	},
 	update: async function update(event) {
 		const member = requireRole(event, ...WRITE_ROLES);
 		const form = await superValidate(event.request, zod4(dwellingFormSchema));

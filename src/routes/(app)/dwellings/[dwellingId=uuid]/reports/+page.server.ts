@@ -13,6 +13,7 @@ import {
 	listReportsForDwelling
 } from '$lib/server/reports';
 import { requeueMail, kickOutbox } from '$lib/server/outbox';
+import { readIssueChanges } from '$lib/server/reports/changes';
 import { moistureWord, passWord } from '$lib/server/reports/document';
 import { emailSchema } from '$lib/reports/schema';
 import { ISSUE_ROLES } from '$lib/reports/rules';
@@ -51,9 +52,10 @@ export const load = async (event) => {
 		},
 		new Date().toISOString()
 	);
-	const [reports, mail] = await Promise.all([
+	const [reports, mail, changes] = await Promise.all([
 		listReportsForDwelling(member.organisationId, d.id),
-		listMailForDwelling(member.organisationId, d.id)
+		listMailForDwelling(member.organisationId, d.id),
+		d.issueChanges === null ? null : readIssueChanges(member.organisationId, d.id, d.issueChanges)
 	]);
 	return {
 		dwelling: {
@@ -81,6 +83,7 @@ export const load = async (event) => {
 		assessor: snapshot.dwelling.assessor,
 		problems,
 		reports,
+		changes,
 		mail,
 		canIssue: ISSUE_ROLES.includes(member.role)
 	};

@@ -1,6 +1,13 @@
 import { error, fail } from '@sveltejs/kit';
 import { requireMember, requireRole } from '$lib/server/guard';
-import { decideItem, decisionRefusalFor, getItem, listItems, type ItemRow } from '$lib/server/audit';
+import {
+	decideItem,
+	decisionRefusalFor,
+	decisionStanding,
+	getItem,
+	listItems,
+	type ItemRow
+} from '$lib/server/audit';
 import { decisionSchema } from '$lib/audit/schemas';
 import { DECIDER_ROLES } from '$lib/audit/rules';
 import { AppError } from '$lib/server/errors';
@@ -40,6 +47,7 @@ export async function load(event) {
 		: null;
 	return {
 		item,
+		standing: await decisionStanding(member.organisationId, item),
 		decisionRefusal,
 		position: at + 1,
 		total: queue.length,

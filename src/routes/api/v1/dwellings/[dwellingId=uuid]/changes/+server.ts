@@ -1,7 +1,7 @@
 import { json } from '@sveltejs/kit';
 import { requireMember } from '$lib/server/guard';
 import { getDwelling } from '$lib/server/dwellings';
-import { changesSinceIssue } from '$lib/server/reports/changes';
+import { readIssueChanges } from '$lib/server/reports/changes';
 import { answer } from '$lib/server/http';
 import { NotFoundError } from '$lib/server/errors';
 
@@ -11,5 +11,5 @@ export const GET = (event) =>
 		const member = requireMember(event);
 		const dwelling = await getDwelling(member.organisationId, event.params.dwellingId);
 		if (!dwelling) throw new NotFoundError('No such dwelling.');
-		return json(await changesSinceIssue(member.organisationId, dwelling.id));
+		return json(await readIssueChanges(member.organisationId, dwelling.id, dwelling.issueChanges));
 	});
