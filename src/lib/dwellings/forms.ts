@@ -24,5 +24,7 @@ export type DwellingForm = z.infer<typeof dwellingFormSchema>;
 
 export const copyFormSchema = z.object({
 	reference: z.string().trim().min(1, 'Give the copy its own reference.').max(60, 'At most 60 characters.'),
-	address: z.string().trim().max(300, 'At most 300 characters.').default('')
+	address: z.string().trim().max(300, 'At most 300 characters.').default(''),
+	/** "as-built" copies a design-stage dwelling as its as-built record */
+	kind: z.enum(['copy', 'as-built']).default('copy')
 });

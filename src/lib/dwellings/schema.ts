@@ -79,7 +79,9 @@ export const dwellingUpdateSchema = dwellingFieldsSchema.partial().extend({ vers
 
 export const dwellingCopySchema = z.object({
 	reference: text(60).min(1, 'is required'),
-	address: text(300).optional()
+	address: text(300).optional(),
+	/** copy a design-stage dwelling as its as-built record, keeping the link for the comparison */
+	asBuilt: z.boolean({ error: 'must be true or false' }).optional()
 });
 
 export const DWELLING_SORTS = ['reference', 'address', 'status', 'updated', 'assessor'] as const;

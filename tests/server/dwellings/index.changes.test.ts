@@ -244,4 +244,30 @@ describe.skipIf(!hasDatabase)('changed since issue, and reopening (PostgreSQL)',
 		});
 		expect((await changesSinceIssue(x.org.id, x.d.id)).changes.map((c) => c.field)).toEqual(['Area (m²)']);
 	});
+
+	it('a design copied as built keeps the link; the comparison lists installed thickness and a swapped product', async () => {
+		const x = await issued();
+		const copy = await dwellings.copyDwelling(x.me, x.d.id, {
+			reference: `${x.d.reference}-AB`,
+			asBuilt: true
+		});
+		expect(copy).toMatchObject({ stage: 'as-built', designId: x.d.id });
+		const [built] = await tdb()('elements').where({ dwelling_id: copy.id }).select('id', 'design_element_id');
+		expect(built.design_element_id).toBe(x.wall);
+		const { compareStages } = await import('../../../src/lib/server/dwellings/compare');
+		expect((await compareStages(x.org.id, copy.id))!.changed).toBe(0);
+		const body = await thicker(x.org.id, built.id, 80);
+		body.buildUp.layers[3] = { ...body.buildUp.layers[3], name: 'Facing brick B', lambda: 0.9 };
+		await elements.updateElement(x.me, built.id, body);
+		const c = (await compareStages(x.org.id, copy.id))!;
+		expect(c.changed).toBe(1);
+		const fields = c.pairs[0].changes.map((ch) => `${ch.field}: ${ch.before} → ${ch.after}`);
+		expect(fields).toContain('Layer 3, thickness (mm): 100 → 80');
+		expect(fields).toContain('Layer 4, material: ' + cavityWall().layers[3].name + ' → Facing brick B');
+		expect(fields.some((f) => f.startsWith('U-value'))).toBe(true);
+		// only a design-stage dwelling is copied as built
+		await expect(
+			dwellings.copyDwelling(x.me, copy.id, { reference: `${x.d.reference}-AB2`, asBuilt: true })
+		).rejects.toMatchObject({ status: 400 });
+	});
 });

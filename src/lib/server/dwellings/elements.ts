@@ -322,7 +322,7 @@ export async function updateElement(member: Member, id: string, raw: unknown): P
 				version: current.version + 1,
 				uBefore: current.last_result?.uValue ?? current.given_u ?? null,
 				uAfter: result?.uValue ?? data.givenU ?? null,
-				changes: await rowChanges(t, current, row)
+				changes: await compareElementRows(t, current, row)
 			},
 			t
 		);
@@ -452,8 +452,15 @@ function comparable(
 	};
 }
 
-/** The field-by-field changes of one save (before → after), for the activity log. */
-async function rowChanges(t: Db, before: Record<string, any>, after: Record<string, any>): Promise<Change[]> {
+/**
+ * The field-by-field changes from one stored element row to another (before → after): one save, for
+ * the activity log, or a design element against its as-built copy.
+ */
+export async function compareElementRows(
+	t: Db,
+	before: Record<string, any>,
+	after: Record<string, any>
+): Promise<Change[]> {
 	const ids = [before, after].flatMap((r) =>
 		((r.build_up as StoredBuildUp | null)?.layers ?? []).map((l) => l.materialRevisionId).filter(Boolean)
 	) as string[];

@@ -550,6 +550,12 @@ export async function copyDwelling(member: Member, id: string, raw: unknown): Pr
 	return db.transaction(async (t) => {
 		const source = await t('dwellings').where({ organisation_id: member.organisationId, id }).first();
 		if (!source) throw new NotFoundError('No such dwelling.');
+		const asBuilt = parsed.data.asBuilt === true;
+		if (asBuilt && source.stage !== 'design') {
+			throw new ValidationError([
+				{ path: 'asBuilt', message: 'only a design-stage dwelling is copied as its as-built record' }
+			]);
+		}
 		let newId: string;
 		try {
 			const [row] = await t('dwellings')
@@ -561,7 +567,8 @@ export async function copyDwelling(member: Member, id: string, raw: unknown): Pr
 					client_name: source.client_name,
 					client_email: source.client_email,
 					assessor_id: member.role === 'assessor' ? member.user.id : source.assessor_id,
-					stage: source.stage,
+					stage: asBuilt ? 'as-built' : source.stage,
+					design_id: asBuilt ? source.id : null,
 					limit_table_id: source.limit_table_id,
 					climate_id: source.climate_id
 				})
@@ -589,7 +596,8 @@ export async function copyDwelling(member: Member, id: string, raw: unknown): Pr
 					climate_id: e.climate_id,
 					internal: e.internal === null ? null : JSON.stringify(e.internal),
 					last_result: e.last_result === null ? null : JSON.stringify(e.last_result),
-					engine_version: e.engine_version
+					engine_version: e.engine_version,
+					design_element_id: asBuilt ? e.id : null
 				}))
 			);
 		}
@@ -601,7 +609,8 @@ export async function copyDwelling(member: Member, id: string, raw: unknown): Pr
 				from: id,
 				fromReference: source.reference,
 				reference: parsed.data.reference,
-				elements: elements.length
+				elements: elements.length,
+				asBuilt
 			},
 			t
 		);
@@ -625,6 +634,7 @@ function toDwelling(r: Record<string, unknown>): Dwelling {
 		status: r.status as DwellingStatus,
 		limitTableId: (r.limit_table_id as string | null) ?? null,
 		climateId: (r.climate_id as string | null) ?? null,
+		designId: (r.design_id as string | null) ?? null,
 		issueChanges: r.issue_changes === null || r.issue_changes === undefined ? null : Number(r.issue_changes),
 		reopened: Boolean(r.reopened_at),
 		version: r.version as number,
@@ -646,6 +656,8 @@ export type Dwelling = {
 	status: DwellingStatus;
 	limitTableId: string | null;
 	climateId: string | null;
+	/** the design-stage dwelling this as-built one was copied from */
+	designId: string | null;
 	/** differences from the latest issued dwelling report: null before the first issue, 0 when it matches */
 	issueChanges: number | null;
 	/** reopened for changes (with a reason) during the review it awaits */

@@ -143,6 +143,15 @@ export const paths: Record<string, unknown> = {
 			responses: { '200': ok('{ report, changes }'), ...errors }
 		}
 	},
+	'/api/v1/dwellings/{dwellingId}/compare': {
+		parameters: [idParam('dwellingId')],
+		get: {
+			tags: ['dwellings'],
+			summary:
+				'An as-built dwelling beside the design-stage dwelling it was copied from (POST …/copy with asBuilt: true): { design, asBuilt, pairs: [{ design, asBuilt, changes }], changed }; 404 when it was not copied from one',
+			responses: { '200': ok('{ design, asBuilt, pairs, changed }'), ...errors }
+		}
+	},
 	'/api/v1/dwellings/{dwellingId}/reopen': {
 		parameters: [idParam('dwellingId')],
 		post: {

@@ -109,7 +109,10 @@ export const actions = {
 		const body = Object.fromEntries(await event.request.formData());
 		const parsed = copyFormSchema.safeParse(body);
 		if (!parsed.success) return fail(400, { copyError: parsed.error.issues.map((i) => i.message).join(' ') });
-		const r = await expected(() => copyDwelling(member, event.params.dwellingId, parsed.data));
+		const { kind, ...copy } = parsed.data;
+		const r = await expected(() =>
+			copyDwelling(member, event.params.dwellingId, { ...copy, asBuilt: kind === 'as-built' })
+		);
 		if (!r.ok) return fail(r.status, { copyError: r.message });
 		redirect(303, `/dwellings/${r.value.id}`);
 	},
