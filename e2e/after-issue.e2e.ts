@@ -90,6 +90,14 @@ test('issue, accept, reopen with a reason and change: marked everywhere, in the 
 	await apage.goto(`/dwellings?changed=1&status=all&q=${reference}`);
 	await expect(apage.getByTestId('changed-mark')).toHaveCount(1);
 
+	// someone who is not the dwelling's assessor is told why instead of being offered Issue
+	await spage.goto(`/dwellings/${dwelling.id}/reports`);
+	await expect(spage.getByTestId('issue-refusal')).toContainText('Only assessors and admins issue reports');
+	await expect(spage.getByRole('button', { name: 'Issue dwelling report' })).toHaveCount(0);
+	await expect(spage.getByRole('navigation', { name: 'Breadcrumb' })).toHaveText(
+		/Dwellings\s*\/\s*E2E-R-\S+\s*\/\s*Reports$/
+	);
+
 	// the supervisor's queue and the audit item
 	await spage.goto('/audit');
 	const queue = spage.getByTestId('changed-queue');

@@ -17,6 +17,7 @@ import { readIssueChanges } from '$lib/server/reports/changes';
 import { moistureWord, passWord } from '$lib/server/reports/document';
 import { emailSchema } from '$lib/reports/schema';
 import { ISSUE_ROLES } from '$lib/reports/rules';
+import { issueRefusal } from '$lib/dwellings/rules';
 import { checkReportMailLimit } from '$lib/server/rate-limit';
 
 async function dwellingOf(organisationId: string, dwellingId: string) {
@@ -85,7 +86,9 @@ export const load = async (event) => {
 		reports,
 		changes,
 		mail,
-		canIssue: ISSUE_ROLES.includes(member.role)
+		// Only the dwelling's assessor issues (the declaration is theirs): others see why instead of a button.
+		canIssue: issueRefusal({ userId: member.user.id, role: member.role }, d.assessorId) === null,
+		issueRefusal: issueRefusal({ userId: member.user.id, role: member.role }, d.assessorId)
 	};
 };
 

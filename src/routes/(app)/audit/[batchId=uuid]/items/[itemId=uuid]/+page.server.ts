@@ -12,24 +12,16 @@ import { decisionSchema } from '$lib/audit/schemas';
 import { DECIDER_ROLES } from '$lib/audit/rules';
 import { AppError } from '$lib/server/errors';
 
-const rank: Record<string, number> = {
-	resubmitted: 0,
-	'awaiting-review': 1,
-	returned: 2,
-	'accepted-with-advice': 3,
-	accepted: 4
-};
 const weight = (i: ItemRow) =>
 	i.flags.reduce((s, f) => s + (f.severity === 'high' ? 100 : f.severity === 'medium' ? 10 : 1), 0);
 
-/** The review queue: open dwellings first, the most serious flags first within them. */
+/**
+ * The review queue: the most serious flags first, then by reference. The order does not depend on the
+ * decisions, so an item keeps its place ("2 of 11") when it is decided and when the page is reloaded;
+ * "next open" finds the next undecided one in the same order.
+ */
 function queueOrder(items: ItemRow[]) {
-	return items
-		.slice()
-		.sort(
-			(a, b) =>
-				rank[a.state] - rank[b.state] || weight(b) - weight(a) || a.reference.localeCompare(b.reference)
-		);
+	return items.slice().sort((a, b) => weight(b) - weight(a) || a.reference.localeCompare(b.reference));
 }
 
 export async function load(event) {
@@ -38,9 +30,9 @@ export async function load(event) {
 	if (!item || item.batchId !== event.params.batchId) error(404, 'No such audit item.');
 	const queue = queueOrder(await listItems(member.organisationId, item.batchId));
 	const at = queue.findIndex((q) => q.id === item.id);
-	const nextOpen = queue.find(
-		(q, i) => i !== at && (q.state === 'awaiting-review' || q.state === 'resubmitted')
-	);
+	// The next undecided item after this one, wrapping round to the start.
+	const open = (q: ItemRow) => q.state === 'awaiting-review' || q.state === 'resubmitted';
+	const nextOpen = [...queue.slice(at + 1), ...queue.slice(0, Math.max(at, 0))].find(open);
 	// Why this person may not decide here (they assessed the dwelling or issued its report), or null.
 	const decisionRefusal = DECIDER_ROLES.includes(member.role)
 		? await decisionRefusalFor(member.organisationId, item.dwellingId, member.user.id)
