@@ -88,6 +88,19 @@ const SCENARIOS: Scenario[] = [
 			)
 	},
 	{
+		name: 'an inside temperature outside the usual range',
+		raises: ['input-implausible'],
+		build: () =>
+			bundleOf(
+				[
+					element('e1', cleanWallLayers(), {
+						internal: { temperature: 40, humidityClass: 3 }
+					})
+				],
+				{ issued: false }
+			)
+	},
+	{
 		name: 'λ outside the plausible range, from the library category or the layer name',
 		raises: ['lambda-implausible'],
 		build: () => {

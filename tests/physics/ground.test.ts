@@ -1,5 +1,5 @@
-// Floors on the ground (ISO 13370:2017, 8.1 slab on ground) and roof spaces above insulated
-// ceilings (ISO 6946:2017, roof-space table). Formulas and table values of both standards are
+// Floors on the ground (ISO 13370:2017, 8.1 slab on ground; ground conductivity Table 7) and roof
+// spaces above insulated ceilings (ISO 6946:2017, Table 9; Table 3 in the 2007 edition). Formulas and table values of both standards are
 // quoted FROM MEMORY; every expected number is a hand calculation shown beside it. No published
 // worked example is reproduced: none is recalled reliably enough to quote.
 import { describe, expect, it } from 'vitest';
@@ -8,6 +8,7 @@ import {
 	characteristicDimension,
 	GROUND_LAMBDA,
 	GROUND_LAMBDA_DEFAULT,
+	groundKindOf,
 	parseElementInput,
 	ROOF_SPACE_RESISTANCE,
 	slabOnGroundU,
@@ -149,7 +150,54 @@ describe('ISO 13370 slab on ground (formulas from memory)', () => {
 	});
 });
 
-describe('roof space above an insulated ceiling (ISO 6946:2017 roof-space table, from memory)', () => {
+describe('the ground λ and where it comes from (ISO 13370:2017, Table 7, from memory)', () => {
+	const slab = (groundLambda?: number) =>
+		analyseElement(
+			floor([concrete], { perimeterM: 40, areaM2: 100, ...(groundLambda ? { groundLambda } : {}) })
+		);
+	// B′ = 5 m; dt = 0.3 + λ·(0.17 + 0.1 + 0.04) = 0.3 + 0.31·λ < B′: U = 2λ/(π·5 + dt)·ln(π·5/dt + 1)
+	const handU = (lambda: number) => {
+		const dt = 0.3 + lambda * 0.31;
+		return ((2 * lambda) / (Math.PI * 5 + dt)) * Math.log((Math.PI * 5) / dt + 1);
+	};
+
+	it('not given: 2.0 W/(m·K), the conventional value where the ground is not known', () => {
+		const r = slab();
+		expect(r.ground!.groundLambda).toBe(2.0);
+		expect(r.uValue).toBeCloseTo(handU(2.0), 12);
+		expect(r.ground!.groundLambdaSource).toMatch(
+			/^not given: the conventional value where the ground is not known \(ISO 13370:2017, Table 7, from memory/
+		);
+		expect(r.notes).toContain(
+			`Ground thermal conductivity λg = 2.0 W/(m·K), ${r.ground!.groundLambdaSource}.`
+		);
+	});
+
+	it('clay or silt 1.5, sand or gravel 2.0, rock 3.5: each named as the table gives it', () => {
+		for (const [lambda, words] of [
+			[1.5, 'clay or silt'],
+			[2.0, 'sand or gravel, also the value where the ground is not known'],
+			[3.5, 'homogeneous rock']
+		] as const) {
+			const r = slab(lambda);
+			expect(r.uValue).toBeCloseTo(handU(lambda), 12);
+			expect(r.ground!.groundLambdaSource).toMatch(
+				new RegExp(`^as given: the value for ${words} \\(ISO 13370`)
+			);
+		}
+		expect(groundKindOf(1.5)).toBe('clay-or-silt');
+		expect(groundKindOf(1.8)).toBeNull();
+	});
+
+	it('another value: as given', () => {
+		const r = slab(1.8);
+		expect(r.uValue).toBeCloseTo(handU(1.8), 12);
+		expect(r.ground!.groundLambdaSource).toBe('as given');
+		expect(r.notes).toContain('Ground thermal conductivity λg = 1.8 W/(m·K), as given.');
+	});
+});
+
+describe('roof space above an insulated ceiling (ISO 6946:2017 Table 9, from memory; Table 3 in the 2007 edition)', () => {
 	const ceiling = (roofSpace?: ElementInput['roofSpace']): ElementInput => ({
 		heatFlow: 'upward',
 		layers: [
@@ -175,6 +223,10 @@ describe('roof space above an insulated ceiling (ISO 6946:2017 roof-space table,
 		expect(r.rRoofSpace).toBe(0.2);
 		expect(r.rse).toBe(0.04);
 		expect(r.notes.some((n) => n.includes('Ru = 0.2'))).toBe(true);
+		// the note names the table; the report's method section reads the source out of its parentheses
+		expect(r.notes).toContain(
+			'Roof space above the ceiling (tiles with felt or boards under them): Ru = 0.2 m²·K/W (ISO 6946:2017, Table 9, from memory; Table 3 in the 2007 edition) is added to RT between the last layer and Rse.'
+		);
 	});
 
 	it('sits between the last layer and Rse in the profile', () => {

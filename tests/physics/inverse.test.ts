@@ -84,3 +84,70 @@ describe('solveThickness', () => {
 		expect(() => solveThickness(cavityWall(), 1, Number.NaN)).toThrow(/targetU/);
 	});
 });
+
+// "Thickness to meet the limit" when the element already meets it. The roof (heat flow upward:
+// Rsi 0.10, Rse 0.04 m²·K/W, ISO 6946:2017 Table 7) of plasterboard 12.5 mm (λ 0.21), PIR 170 mm
+// (λ 0.023) and a plywood deck 18 mm (λ 0.13): U = 1/ΣR = 0.129 → 0.13 W/(m²·K), against 0.16.
+// The product sizes are the editor's list (common practice, no source).
+const SIZES = [
+	20, 25, 30, 40, 50, 60, 70, 75, 80, 90, 100, 110, 120, 125, 130, 140, 150, 160, 170, 180, 200, 220, 240,
+	250, 260, 280, 300, 320, 350, 400
+];
+const roof = (pirMm = 170): ElementInput => ({
+	heatFlow: 'upward',
+	layers: [
+		{ name: 'plasterboard', thicknessMm: 12.5, lambda: 0.21 },
+		{ name: 'PIR board', thicknessMm: pirMm, lambda: 0.023 },
+		{ name: 'plywood deck', thicknessMm: 18, lambda: 0.13 }
+	]
+});
+/** U of the roof with `pirMm` of PIR, by hand: 1/(Rsi + Σd/λ + Rse), ISO 6946:2017 6.7.1. */
+const handU = (pirMm: number) => 1 / (0.1 + 0.0125 / 0.21 + pirMm / 1000 / 0.023 + 0.018 / 0.13 + 0.04);
+
+describe('solveThicknessDetailed: a layer that already meets the target', () => {
+	it('says it already meets, with the thickness and U as entered, and proposes no thinner layer by default', () => {
+		expect(handU(170)).toBeCloseTo(0.129378, 6);
+		const s = solveThicknessDetailed(roof(), 1, 0.16, SIZES);
+		expect(s.outcome).toBe('meets');
+		expect(s.currentMm).toBe(170);
+		expect(s.uCurrent).toBeCloseTo(handU(170), 12);
+		expect(s.uCurrentRounded).toBe(0.13);
+		expect(s.roundedMm).toBeNull();
+		expect(s.uAtRounded).toBeNull();
+		expect(s.notes.join(' ')).toMatch(/already reaches the target U = 0\.16 W\/\(m²·K\): U = 0\.13/);
+	});
+
+	it('asked for the thinnest: the thinnest product size whose 1/ΣR meets the target, checked by hand', () => {
+		const s = solveThicknessDetailed(roof(), 1, 0.16, SIZES, { mode: 'thinnest' });
+		expect(s.outcome).toBe('thinner');
+		// independent: the smallest size d of the list with 1/(Rsi + ΣR(d) + Rse) ≤ 0.16
+		const expected = SIZES.find((d) => handU(d) <= 0.16)!;
+		expect(expected).toBe(140); // d = 0.023·(1/0.16 − 0.337985)·1000 = 135.98 mm → 140
+		expect(s.roundedMm).toBe(expected);
+		expect(s.uAtRounded!).toBeCloseTo(handU(140), 12);
+		expect(handU(130)).toBeGreaterThan(0.16); // the next size down does not meet
+		expect(s.exactMm).toBeCloseTo(0.023 * (1 / 0.16 - (0.1 + 0.0125 / 0.21 + 0.018 / 0.13 + 0.04)) * 1000, 9);
+	});
+
+	it('asked for the thinnest when no thinner size meets: says so, proposes nothing', () => {
+		const s = solveThicknessDetailed(roof(140), 1, 0.16, SIZES, { mode: 'thinnest' });
+		expect(s.outcome).toBe('thinnest');
+		expect(s.roundedMm).toBeNull();
+	});
+
+	it('a layer that does not meet is thickened to the next product size, in either mode', () => {
+		for (const mode of ['meet', 'thinnest'] as const) {
+			const s = solveThicknessDetailed(roof(100), 1, 0.16, SIZES, { mode });
+			expect(s.outcome).toBe('thicker');
+			expect(s.roundedMm).toBe(140);
+		}
+	});
+
+	it('judges "already meets" on U as reported: 0.1604 reported as 0.16 meets 0.16', () => {
+		// d with 1/U = 1/0.1604: d = 0.023·(1/0.1604 − 0.337985)·1000 = 135.63 mm; U as reported 0.16
+		const d = 0.023 * (1 / 0.1604 - (0.1 + 0.0125 / 0.21 + 0.018 / 0.13 + 0.04)) * 1000;
+		const s = solveThicknessDetailed(roof(d), 1, 0.16, SIZES);
+		expect(s.uCurrent).toBeGreaterThan(0.16);
+		expect(s.outcome).toBe('meets');
+	});
+});

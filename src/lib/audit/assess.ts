@@ -4,9 +4,10 @@
  * issued dwelling report, and flagged. No I/O: the server module loads the rows, this decides. Each flag
  * is raised by one rule in ./checks; this module composes them, in a fixed order.
  */
-import { ENGINE_VERSION } from '$lib/physics';
+import { ENGINE_VERSION, plausibilityWarnings, type PlausibilityWarning } from '$lib/physics';
 import { GIVEN_U_KINDS } from '$lib/dwellings/kinds';
-import type { StoredLayer } from '$lib/dwellings/element-input';
+import { toElementInput, type StoredLayer } from '$lib/dwellings/element-input';
+import { plausibleForMaterial } from './plausible';
 import type { Flag } from './flags';
 import type { AuditElement, DwellingAudit, DwellingBundle, ElementRecompute } from './types';
 import {
@@ -18,7 +19,14 @@ import {
 	type AnalysisCache,
 	type LayerRevisions
 } from './element-recompute';
-import { elementContext, layerContext, limitTableName, type ElementContext } from './checks/context';
+import {
+	elementContext,
+	elementFlag,
+	layerContext,
+	limitTableName,
+	type ElementContext,
+	type LayerContext
+} from './checks/context';
 import {
 	addedAfterIssue,
 	changedAfterIssue,
@@ -197,4 +205,44 @@ function checkLayers(
 		...elementFramedWithoutBridging(ctx, contexts, flags),
 		...totalThicknessImplausible(ctx, layers)
 	);
+	flags.push(...inputImplausible(ctx, contexts, flags));
+}
+
+/** The flag a plausibility warning would repeat when that flag already stands on the same layer. */
+const SAME_AS: Partial<Record<PlausibilityWarning['check'], Flag['code']>> = {
+	'layer-too-thick': 'thickness-implausible',
+	'layer-too-thin': 'thickness-implausible',
+	'thickness-outside-range': 'thickness-implausible',
+	'lambda-outside-range': 'lambda-implausible'
+};
+
+/**
+ * `input-implausible` (low): the engine's plausibility warnings of the element as entered (the same
+ * the assessor saw in the editor and the report prints), each layer judged with the ranges it carries
+ * from the library, else those of the revision it names (./plausible). A warning is left out where a
+ * flag of its kind already stands on the same layer (`lambda-implausible`, `thickness-implausible`).
+ */
+function inputImplausible(ctx: ElementContext, layers: LayerContext[], flags: Flag[]): Flag[] {
+	const el = ctx.element;
+	const stored = layers.map((l) =>
+		l.layer.plausible || !l.rev ? l.layer : { ...l.layer, plausible: plausibleForMaterial(l.rev) }
+	);
+	const input = toElementInput({
+		heatFlow: el.heatFlow,
+		buildUp: { ...el.buildUp!, layers: stored },
+		internal: el.internal
+	});
+	const standing = (code: Flag['code'] | undefined, i: number | undefined) =>
+		code !== undefined && flags.some((f) => f.code === code && f.elementId === el.id && f.layerIndex === i);
+	return plausibilityWarnings(input)
+		.filter((w) => !standing(SAME_AS[w.check], w.layerIndex))
+		.map((w) => {
+			const flag = elementFlag(
+				ctx,
+				'input-implausible',
+				'low',
+				`${ctx.at}: ${w.message.replace(/\.$/, '')} (${w.source}).`
+			);
+			return w.layerIndex === undefined ? flag : { ...flag, layerIndex: w.layerIndex };
+		});
 }

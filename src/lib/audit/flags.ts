@@ -14,7 +14,8 @@ export const FLAG_CODES = [
 	'not-reproducing',
 	'library-changed',
 	'stale-report',
-	'recompute-failed'
+	'recompute-failed',
+	'input-implausible'
 ] as const;
 export type FlagCode = (typeof FLAG_CODES)[number];
 
@@ -33,7 +34,8 @@ export const FLAG_LABELS: Record<FlagCode, string> = {
 	'not-reproducing': 'Issued numbers do not reproduce',
 	'library-changed': 'Current library gives a different result',
 	'stale-report': 'Inputs changed after issue',
-	'recompute-failed': 'Could not be recomputed'
+	'recompute-failed': 'Could not be recomputed',
+	'input-implausible': 'Unusual input (plausibility warning)'
 };
 
 export const SEVERITIES = ['high', 'medium', 'low'] as const;

@@ -1,5 +1,6 @@
 import { type ElementKind } from '$lib/dwellings/kinds';
-import { type MaterialCategory } from '$lib/library/categories';
+import { MATERIAL_CATEGORY_LABELS, type MaterialCategory } from '$lib/library/categories';
+import type { Layer } from '$lib/physics';
 
 /**
  * Plausible ranges an auditor checks entered values against. A value outside a range is not wrong by
@@ -72,6 +73,47 @@ export const PLAUSIBLE_TOTAL_THICKNESS_MM: Partial<Record<ElementKind, Range>> =
 	},
 	'exposed-floor': { min: 50, max: 800, source: 'common practice, no source' }
 };
+
+/**
+ * The thinnest product of each category, mm: a layer thinner than this is most likely a thickness
+ * typed in another unit (m, cm). Common practice, no source. Air layers and "other" have none.
+ */
+export const SMALLEST_PRODUCT_MM: Partial<Record<MaterialCategory, number>> = {
+	masonry: 20, // common practice, no source: brick slips ≈ 20 mm; bricks and blocks far thicker
+	concrete: 25, // common practice, no source: thin toppings and screeds ≈ 25 mm
+	'timber-boards': 3, // common practice, no source: hardboard ≈ 3 mm
+	insulation: 10, // common practice, no source: the thinnest boards ≈ 10 mm (thin blankets under it deserve a look)
+	membranes: 0.05, // common practice, no source: foils and sheets ≈ 0.05–0.5 mm (a 1 mm floor would flag most vapour control layers)
+	'plasters-linings': 2 // common practice, no source: a skim coat ≈ 2 mm
+};
+
+/**
+ * What a layer carries from its library material for the engine's plausibility warnings
+ * (`Layer['plausible']`): the category's λ range (PLAUSIBLE_LAMBDA, with its source), the material's
+ * stated thicknesses and the category's thinnest product (SMALLEST_PRODUCT_MM). Undefined when
+ * there is nothing to carry.
+ */
+export function plausibleForMaterial(m: {
+	category: string;
+	thicknessMinMm?: number | null;
+	thicknessMaxMm?: number | null;
+}): Layer['plausible'] {
+	const category = m.category as MaterialCategory;
+	const lambda = PLAUSIBLE_LAMBDA[category];
+	const out: NonNullable<Layer['plausible']> = {};
+	const label = MATERIAL_CATEGORY_LABELS[category];
+	if (label) out.category = label.toLowerCase();
+	if (lambda) {
+		out.lambdaMin = lambda.min;
+		out.lambdaMax = lambda.max;
+		out.lambdaSource = lambda.source;
+	}
+	if (typeof m.thicknessMinMm === 'number') out.thicknessMinMm = m.thicknessMinMm;
+	if (typeof m.thicknessMaxMm === 'number') out.thicknessMaxMm = m.thicknessMaxMm;
+	const smallest = SMALLEST_PRODUCT_MM[category];
+	if (smallest !== undefined) out.smallestMm = smallest;
+	return Object.keys(out).length > (out.category ? 1 : 0) ? out : undefined;
+}
 
 /** Largest plausible single insulation layer, mm (common practice, no source). */
 export const MAX_INSULATION_LAYER_MM = 600;

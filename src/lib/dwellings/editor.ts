@@ -4,7 +4,15 @@
  */
 import Papa from 'papaparse';
 import type { StoredBuildUp, StoredGround, StoredLayer } from '$lib/dwellings/element-input';
-import type { RoofSpace } from '$lib/physics';
+import type { ElementKind } from '$lib/dwellings/kinds';
+import { GROUND_LAMBDA, groundKindOf, type GroundKind, type Layer, type RoofSpace } from '$lib/physics';
+
+/**
+ * Kinds whose own plane may be inclined, and so take an inclination (ISO 6946:2017, 6.8, note to
+ * Table 7): a roof insulated at the rafters and a flat roof (with its fall). A ceiling under a roof
+ * space is flat whatever the roof's pitch; walls and floors have their direction from their kind.
+ */
+export const INCLINATION_KINDS: readonly ElementKind[] = ['pitched-roof-rafters', 'flat-roof'];
 
 export type LayerMode = 'lambda' | 'resistance' | 'air';
 export type AirKind = 'unventilated' | 'slightly-ventilated' | 'well-ventilated';
@@ -40,6 +48,8 @@ export type EditRow = {
 	materialId?: string;
 	materialRevisionId?: string;
 	materialCode?: string;
+	/** what is usual for the layer's library material (for plausibility warnings), copied when it is picked */
+	plausible?: Layer['plausible'];
 };
 
 let nextKey = 1;
@@ -132,7 +142,8 @@ export function rowFromLayer(l: StoredLayer): EditRow {
 		fastenerPenetration: str(l.fasteners?.penetrationMm),
 		materialId: l.materialId,
 		materialRevisionId: l.materialRevisionId,
-		materialCode: l.materialCode
+		materialCode: l.materialCode,
+		plausible: l.plausible
 	});
 }
 
@@ -183,27 +194,44 @@ export function layerFromRow(r: EditRow): StoredLayer {
 	if (r.materialId) layer.materialId = r.materialId;
 	if (r.materialRevisionId) layer.materialRevisionId = r.materialRevisionId;
 	if (r.materialCode) layer.materialCode = r.materialCode;
+	if (r.plausible) layer.plausible = r.plausible;
 	for (const k of Object.keys(layer)) if (layer[k] === undefined) delete layer[k];
 	return layer as StoredLayer;
 }
 
-/** Ground-floor inputs as typed (text). */
-export type GroundText = { perimeter: string; area: string; lambda: string; wall: string };
+/**
+ * How the ground's λ is chosen: not known (the conventional 2.0 W/(m·K)), a kind of ground from
+ * ISO 13370's table, or a value typed in `lambda`.
+ */
+export type GroundSoil = '' | GroundKind | 'value';
+
+/** Ground-floor inputs as typed (text); without `soil`, a λ typed is taken as a value. */
+export type GroundText = { perimeter: string; area: string; soil?: GroundSoil; lambda: string; wall: string };
 
 export function groundText(g: StoredGround | undefined): GroundText {
+	const lambda = g?.groundLambda;
+	const kind = lambda === undefined ? null : groundKindOf(lambda);
 	return {
 		perimeter: str(g?.perimeterM),
 		area: str(g?.areaM2),
-		lambda: str(g?.groundLambda),
+		soil: lambda === undefined ? '' : (kind ?? 'value'),
+		lambda: kind ? '' : str(lambda),
 		wall: str(g?.wallThicknessM)
 	};
+}
+
+/** The ground's λ as stored: none when not known, the table's value for a kind, else what was typed. */
+function groundLambdaOf(g: GroundText): number | string | undefined {
+	if (g.soil === '') return undefined;
+	if (g.soil === undefined || g.soil === 'value') return parseNumber(g.lambda);
+	return GROUND_LAMBDA[g.soil];
 }
 
 export function buildUpFromRows(
 	rows: EditRow[],
 	rsi?: string,
 	rse?: string,
-	extras: { ground?: GroundText | null; roofSpace?: RoofSpace | '' | null } = {}
+	extras: { ground?: GroundText | null; roofSpace?: RoofSpace | '' | null; inclination?: string | null } = {}
 ): StoredBuildUp {
 	const b: Record<string, unknown> = { layers: rows.map(layerFromRow) };
 	const a = rsi === undefined ? undefined : parseNumber(rsi);
@@ -215,13 +243,15 @@ export function buildUpFromRows(
 		const g: Record<string, unknown> = {
 			perimeterM: parseNumber(extras.ground.perimeter),
 			areaM2: parseNumber(extras.ground.area),
-			groundLambda: parseNumber(extras.ground.lambda),
+			groundLambda: groundLambdaOf(extras.ground),
 			wallThicknessM: parseNumber(extras.ground.wall)
 		};
 		for (const k of Object.keys(g)) if (g[k] === undefined && k !== 'perimeterM') delete g[k];
 		b.ground = g;
 	}
 	if (extras.roofSpace) b.roofSpace = extras.roofSpace;
+	const inclination = extras.inclination ? parseNumber(extras.inclination) : undefined;
+	if (inclination !== undefined) b.inclinationDeg = inclination;
 	return b as StoredBuildUp;
 }
 

@@ -24,13 +24,15 @@ export type StoredGround = {
 	wallThicknessM?: number;
 };
 
-/** Older rows have only rsi/rse/layers; `ground` and `roofSpace` are optional additions. */
+/** Older rows have only rsi/rse/layers; `ground`, `roofSpace` and `inclinationDeg` are optional additions. */
 export type StoredBuildUp = {
 	rsi?: number;
 	rse?: number;
 	layers: StoredLayer[];
 	ground?: StoredGround;
 	roofSpace?: RoofSpace;
+	/** a roof's inclination from the horizontal, degrees (ISO 6946: 60° or more takes horizontal heat flow) */
+	inclinationDeg?: number;
 };
 
 export type StoredInternal = {
@@ -110,6 +112,7 @@ export function toElementInput(
 		input.ground = ground as ElementInput['ground'];
 	}
 	if (buildUp.roofSpace !== undefined) input.roofSpace = buildUp.roofSpace;
+	if (buildUp.inclinationDeg !== undefined) input.inclinationDeg = buildUp.inclinationDeg;
 	if (el.internal) {
 		const internal: StoredInternal = { temperature: internalTemperature };
 		if (typeof el.internal.relativeHumidity === 'number')

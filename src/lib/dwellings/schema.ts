@@ -170,7 +170,9 @@ export const storedBuildUpSchema = z.object({
 		})
 		.optional(),
 	/** roof space above an insulated ceiling (ISO 6946 roof-space resistance) */
-	roofSpace: roofSpaceSchema.optional()
+	roofSpace: roofSpaceSchema.optional(),
+	/** a roof's inclination from the horizontal, degrees; ranges are checked by the engine */
+	inclinationDeg: z.number({ error: 'must be a number of degrees from the horizontal' }).optional()
 });
 
 export const elementFieldsSchema = z.object({
@@ -272,7 +274,13 @@ export function validateElement(
 		for (const i of engine.issues) {
 			let path = i.path;
 			if (path.startsWith('layers')) path = `buildUp.${path}`;
-			else if (path === 'rsi' || path === 'rse' || path === 'roofSpace' || path.startsWith('ground'))
+			else if (
+				path === 'rsi' ||
+				path === 'rse' ||
+				path === 'roofSpace' ||
+				path === 'inclinationDeg' ||
+				path.startsWith('ground')
+			)
 				path = `buildUp.${path}`;
 			else if (path.startsWith('climate')) path = 'climateId';
 			else if (path.startsWith('designTemperatures')) path = 'internal.temperature';
@@ -296,5 +304,12 @@ export const thicknessRequestSchema = z.object({
 		.int('must be a whole number')
 		.min(0, 'must be ≥ 0'),
 	targetU: z.number({ error: 'must be a number in W/(m²·K)' }).gt(0, 'must be > 0'),
-	productThicknessesMm: z.array(z.number().gt(0, 'must be > 0')).max(200).optional()
+	productThicknessesMm: z.array(z.number().gt(0, 'must be > 0')).max(200).optional(),
+	/** meet: the current thickness if it already meets the target, else the least that does; thinnest: always the least */
+	mode: z
+		.enum(['meet', 'thinnest'], {
+			error:
+				'must be meet (the default: nothing is proposed when the layer already meets the target) or thinnest'
+		})
+		.optional()
 });

@@ -1,5 +1,14 @@
-/** Version of the calculation core; reports store it with their input snapshot. */
-export const ENGINE_VERSION = '1.2.0';
+/**
+ * Version of the calculation core; reports store it with their input snapshot. What each version
+ * changed (the figures of an unchanged input change only where said):
+ * - 1.3.0: results carry `plausibility` (warnings of unusual inputs, never refusals; figures
+ *   unchanged); an optional `inclinationDeg` decides horizontal or vertical heat flow (ISO 6946:2017,
+ *   6.8, note to Table 7); the ground's λ is stated with its source (`ground.groundLambdaSource`, a
+ *   note) and the roof-space note names its table; the thickness solve says when a layer already
+ *   meets the target and proposes a thinner one only when asked (`mode: 'thinnest'`).
+ * - 1.2.0 and earlier: see the repository's history.
+ */
+export const ENGINE_VERSION = '1.3.0';
 
 /** Cautions shown with every result and report. */
 export const CAUTIONS: readonly string[] = [

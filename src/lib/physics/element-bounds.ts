@@ -4,7 +4,7 @@
  * the calculation cannot disagree.
  */
 import type { ElementInput } from './schema';
-import { RSI } from './resistances';
+import { effectiveHeatFlow, RSI } from './resistances';
 import { R_NEGLIGIBLE, negligibleAsZero } from './bounds';
 import { surfaceResistances } from './element-films';
 import { roofSpaceResistance } from './element-ground';
@@ -20,7 +20,7 @@ import { totalResistance } from './element-combined';
  * negligible) is taken through the model: its films, roof space, layers and total.
  */
 export function totalResistanceIsZero(input: ElementInput): boolean {
-	if (negligibleAsZero(input.rsi ?? RSI[input.heatFlow], R_NEGLIGIBLE) > 0) return false;
+	if (negligibleAsZero(input.rsi ?? RSI[effectiveHeatFlow(input)], R_NEGLIGIBLE) > 0) return false;
 	const notes: string[] = [];
 	const warnings: string[] = [];
 	const { rsi, rse, active } = surfaceResistances(input, notes);

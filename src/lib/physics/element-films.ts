@@ -2,8 +2,9 @@
  * Surface resistances of an element by heat-flow direction (ISO 6946:2017, 6.8 and Table 7), and
  * the rule for a well-ventilated air layer (6.9.4), which decides how many layers count.
  */
-import { RSE, RSI } from './resistances';
+import { effectiveHeatFlow, HORIZONTAL_HEAT_FLOW_WITHIN_DEG, RSE, RSI, type HeatFlow } from './resistances';
 import type { ElementInput } from './schema';
+import { fmt } from './note-format';
 import { R_NEGLIGIBLE } from './bounds';
 
 export interface SurfaceFilms {
@@ -30,13 +31,28 @@ function given(name: 'Rsi' | 'Rse', r: number, notes: string[]): number {
 }
 
 /**
+ * Why an inclined element takes the heat-flow direction it does (ISO 6946:2017, 6.8, note to Table 7,
+ * from memory): the heat flows normal to the element, at 90° − inclination from the horizontal plane.
+ */
+function inclinationNote(inclinationDeg: number, dir: HeatFlow): string {
+	const fromHorizontal = 90 - inclinationDeg;
+	return (
+		`The element is inclined ${fmt(inclinationDeg, 1)}° from the horizontal, so its heat flow runs ${fmt(fromHorizontal, 1)}° from the horizontal plane: ` +
+		(dir === 'horizontal'
+			? `within ±${HORIZONTAL_HEAT_FLOW_WITHIN_DEG}° of it, the values for horizontal heat flow apply (ISO 6946:2017, 6.8, note to Table 7).`
+			: `more than ${HORIZONTAL_HEAT_FLOW_WITHIN_DEG}° from it, the values for ${dir} heat flow apply (ISO 6946:2017, 6.8, note to Table 7).`)
+	);
+}
+
+/**
  * Rsi and Rse, m²·K/W: the conventional values for the heat-flow direction (ISO 6946:2017, 6.8,
- * Table 7) unless given. A well-ventilated air layer and every layer outside it are disregarded and
+ * Table 7; for an inclined element the direction its inclination gives) unless given. A well-ventilated air layer and every layer outside it are disregarded and
  * Rse takes the value of Rsi (6.9.4), unless Rse is given. Notes say which values apply and why; a
  * given value below {@link R_NEGLIGIBLE} is taken as zero.
  */
 export function surfaceResistances(input: ElementInput, notes: string[]): SurfaceFilms {
-	const dir = input.heatFlow;
+	const dir = effectiveHeatFlow(input);
+	if (input.inclinationDeg !== undefined) notes.push(inclinationNote(input.inclinationDeg, dir));
 	notes.push(
 		input.rsi === undefined
 			? `Rsi = ${RSI[dir]} m²·K/W for ${dir} heat flow (ISO 6946:2017, Table 7).`

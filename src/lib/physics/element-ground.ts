@@ -1,22 +1,28 @@
 /**
  * What lies beyond the last layer besides Rse: a roof space above an insulated ceiling
- * (ISO 6946:2017, roof-space table, from memory) or, for a floor on the ground, the ground itself
+ * (ISO 6946:2017, Table 9, from memory) or, for a floor on the ground, the ground itself
  * (ISO 13370:2017, 8.1, slab on ground, from memory).
  */
 import type { ElementInput } from './schema';
 import type { ThermalModel } from './element-model';
-import { ROOF_SPACE_LABELS, ROOF_SPACE_RESISTANCE, slabOnGroundU } from './ground';
+import {
+	groundLambdaSource,
+	ROOF_SPACE_LABELS,
+	ROOF_SPACE_RESISTANCE,
+	ROOF_SPACE_SOURCE,
+	slabOnGroundU
+} from './ground';
 import { fmt } from './note-format';
 
 /**
- * Resistance Ru of the element's roof space, m²·K/W (ISO 6946:2017, roof-space table, from
- * memory), added to RT between the last layer and Rse; 0 without a roof space. Notes it.
+ * Resistance Ru of the element's roof space, m²·K/W (ISO 6946:2017, Table 9, from memory; Table 3
+ * in the 2007 edition), added to RT between the last layer and Rse; 0 without a roof space. Notes it.
  */
 export function roofSpaceResistance(input: ElementInput, notes: string[]): number {
 	if (!input.roofSpace) return 0;
 	const rRoofSpace = ROOF_SPACE_RESISTANCE[input.roofSpace];
 	notes.push(
-		`Roof space above the ceiling (${ROOF_SPACE_LABELS[input.roofSpace].toLowerCase()}): Ru = ${rRoofSpace} m²·K/W (ISO 6946:2017, roof-space table) is added to RT between the last layer and Rse.`
+		`Roof space above the ceiling (${ROOF_SPACE_LABELS[input.roofSpace].toLowerCase()}): Ru = ${rRoofSpace} m²·K/W (${ROOF_SPACE_SOURCE}) is added to RT between the last layer and Rse.`
 	);
 	return rRoofSpace;
 }
@@ -34,7 +40,8 @@ export interface GroundFloorModel {
 /**
  * Floor on the ground, ISO 13370:2017, 8.1 (slab on ground, from memory): Rf = RT − Rsi − Rse of
  * the build-up (m²·K/W), U from B′ and dt (W/(m²·K)); the floor is then carried as its equivalent
- * resistance 1/U, the ground adding 1/U − RT outside the slab. Notes show the calculation.
+ * resistance 1/U, the ground adding 1/U − RT outside the slab. Notes show the calculation and where
+ * the ground's λ comes from (ISO 13370:2017, Table 7, from memory).
  */
 export function groundFloorModel(
 	ground: NonNullable<ElementInput['ground']>,
@@ -48,6 +55,12 @@ export function groundFloorModel(
 	// ≥ 0 by the formulas (1/U ≥ RT); the clamp only removes round-off
 	const rGround = Math.max(0, 1 / g.u - rBuildUp);
 	const rTotal = 1 / g.u;
+	const lambdaSource = groundLambdaSource(ground.groundLambda);
+	// 2.0 as the table writes it; a typed value as typed
+	const lambdaText = Number.isInteger(g.groundLambda * 10)
+		? g.groundLambda.toFixed(1)
+		: String(g.groundLambda);
+	notes.push(`Ground thermal conductivity λg = ${lambdaText} W/(m·K), ${lambdaSource}.`);
 	notes.push(
 		`Floor on the ground, U by ISO 13370:2017, 8.1 (slab on ground): B′ = A/(0.5·P) = ${fmt(g.characteristicDimensionM)} m, ` +
 			`dt = w + λg·(Rsi + Rf + Rse) = ${fmt(g.wallThicknessM)} + ${fmt(g.groundLambda)}·(${fmt(rsi)} + ${fmt(rFloor)} + ${fmt(rse)}) = ${fmt(g.equivalentThicknessM)} m, ` +
@@ -69,6 +82,7 @@ export function groundFloorModel(
 			characteristicDimensionM: g.characteristicDimensionM,
 			equivalentThicknessM: g.equivalentThicknessM,
 			groundLambda: g.groundLambda,
+			groundLambdaSource: lambdaSource,
 			wallThicknessM: g.wallThicknessM,
 			regime: g.regime,
 			rGround,

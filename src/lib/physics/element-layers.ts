@@ -5,7 +5,12 @@
  */
 import type { ElementInput, Layer, LayerResult } from './schema';
 import type { LayerModel } from './element-model';
-import { layerResistance, unventilatedAirLayerResistance, type HeatFlow } from './resistances';
+import {
+	effectiveHeatFlow,
+	layerResistance,
+	unventilatedAirLayerResistance,
+	type HeatFlow
+} from './resistances';
 import { bridgeFraction } from './bridging';
 import { vapourThickness } from './moisture';
 import { R_NEGLIGIBLE, SD_NEGLIGIBLE } from './bounds';
@@ -76,13 +81,14 @@ export function modelLayers(
 	notes: string[]
 ): LayerModel[] {
 	const layers: LayerModel[] = new Array(input.layers.length);
+	const heatFlow = effectiveHeatFlow(input);
 	let pos = 0;
 	for (let i = 0; i < input.layers.length; i++) {
 		const l = input.layers[i];
 		const overridden = override !== undefined && override.index === i;
 		const d = overridden ? override.thicknessMm : l.thicknessMm;
 		const kind = layerKind(l);
-		let r = layerThermalResistance(l, d, input.heatFlow);
+		let r = layerThermalResistance(l, d, heatFlow);
 		if (r > 0 && r < R_NEGLIGIBLE) {
 			notes.push(
 				`Layer ${i + 1} (${l.name}): R = ${tiny(r)} m²·K/W is below ${R_NEGLIGIBLE} m²·K/W and is taken as zero.`

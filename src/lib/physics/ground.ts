@@ -1,18 +1,57 @@
 /**
- * Heat transfer through a slab-on-ground floor, ISO 13370:2017 clause 8.1, and the thermal
- * resistance of a roof space above an insulated ceiling, ISO 6946:2017 (roof spaces).
+ * Heat transfer through a slab-on-ground floor, ISO 13370:2017 clause 8.1 (ground conductivity:
+ * Table 7), and the thermal resistance of a roof space above an insulated ceiling, ISO 6946:2017
+ * (Table 9).
  * Formulas, clause and table numbers are given FROM MEMORY (not checked against a copy of the
  * standards); the tests show the hand calculations.
  */
 
-/** Thermal conductivity of the ground when its kind is not known, W/(m·K). */
-export const GROUND_LAMBDA_DEFAULT = 2.0; // ISO 13370:2017, Table 7 (from memory: value to use when the ground is not known)
+/** Where the ground conductivities come from, as notes and reports cite it (no parentheses inside). */
+export const GROUND_LAMBDA_SOURCE = 'ISO 13370:2017, Table 7, from memory; Table 1 in the 2007 edition';
 
 /**
- * Thermal conductivity of the ground by kind, W/(m·K).
- * ISO 13370:2017, Table 7, from memory: clay or silt 1.5, sand or gravel 2.0, homogeneous rock 3.5.
+ * Thermal conductivity of the ground when its kind is not known, W/(m·K): the conventional choice.
+ * ISO 13370:2017, Table 7 and the text beside it (from memory; Table 1 in the 2007 edition).
  */
-export const GROUND_LAMBDA = { 'clay-or-silt': 1.5, 'sand-or-gravel': 2.0, 'homogeneous-rock': 3.5 } as const;
+export const GROUND_LAMBDA_DEFAULT = 2.0; // ISO 13370:2017, Table 7 (from memory): to use when the ground is not known
+
+/**
+ * Thermal conductivity of the unfrozen ground by kind, W/(m·K).
+ * ISO 13370:2017, Table 7 (from memory; Table 1 in the 2007 edition).
+ */
+export const GROUND_LAMBDA = {
+	'clay-or-silt': 1.5, // ISO 13370:2017, Table 7 (from memory): clay or silt
+	'sand-or-gravel': 2.0, // ISO 13370:2017, Table 7 (from memory): sand or gravel
+	'homogeneous-rock': 3.5 // ISO 13370:2017, Table 7 (from memory): homogeneous rock
+} as const;
+export type GroundKind = keyof typeof GROUND_LAMBDA;
+
+/** Plain names of the kinds of ground. */
+export const GROUND_KIND_LABELS: Readonly<Record<GroundKind, string>> = {
+	'clay-or-silt': 'clay or silt',
+	'sand-or-gravel': 'sand or gravel',
+	'homogeneous-rock': 'homogeneous rock'
+};
+
+/** The kind of ground whose tabulated λ (W/(m·K)) equals `lambda`, if any. */
+export function groundKindOf(lambda: number): GroundKind | null {
+	const kinds = Object.keys(GROUND_LAMBDA) as GroundKind[];
+	return kinds.find((k) => Math.abs(GROUND_LAMBDA[k] - lambda) < 1e-9) ?? null;
+}
+
+/**
+ * Where the ground's λ (W/(m·K)) of a floor comes from, in words: the conventional value when none is
+ * given, else the value as given and, when it is one of them, the kind of ground it is tabulated for
+ * (ISO 13370:2017, Table 7, from memory).
+ */
+export function groundLambdaSource(given: number | undefined): string {
+	if (given === undefined)
+		return `not given: the conventional value where the ground is not known (${GROUND_LAMBDA_SOURCE})`;
+	const kind = groundKindOf(given);
+	if (!kind) return 'as given';
+	const unknown = kind === 'sand-or-gravel' ? ', also the value where the ground is not known' : '';
+	return `as given: the value for ${GROUND_KIND_LABELS[kind]}${unknown} (${GROUND_LAMBDA_SOURCE})`;
+}
 
 /** Thickness of the external walls at ground level when none is given, m. */
 export const WALL_THICKNESS_DEFAULT_M = 0.3; // common practice, no source (a typical full wall thickness)
@@ -89,16 +128,20 @@ export const ROOF_SPACES = [
 ] as const;
 export type RoofSpace = (typeof ROOF_SPACES)[number];
 
+/** Where the roof-space resistances come from, as notes cite it (no parentheses inside: reports read it). */
+export const ROOF_SPACE_SOURCE = 'ISO 6946:2017, Table 9, from memory; Table 3 in the 2007 edition';
+
 /**
  * Thermal resistance Ru of a roof space above an insulated flat ceiling, m²·K/W, which includes
  * the resistance of the ventilated roof space and of the roof covering, and replaces nothing: it
- * is added between the last layer and Rse (ISO 6946:2017, roof-space table, from memory).
+ * is added between the last layer and Rse (ISO 6946:2017, Table 9 "thermal resistance of roof
+ * spaces", from memory; Table 3 in the 2007 edition).
  */
 export const ROOF_SPACE_RESISTANCE: Readonly<Record<RoofSpace, number>> = {
-	'tiles-no-felt': 0.06, // ISO 6946:2017, roof-space table (from memory): tiled roof, no felt, boards or similar
-	'tiles-with-felt-or-boards': 0.2, // ISO 6946:2017, roof-space table (from memory): sheeted or tiled roof with felt or boards under the tiles
-	'tiles-with-foil-lined-felt': 0.3, // ISO 6946:2017, roof-space table (from memory): as above with aluminium-faced cladding or other low-emissivity surface at the underside
-	'boards-and-felt': 0.3 // ISO 6946:2017, roof-space table (from memory): roof lined with boards and felt
+	'tiles-no-felt': 0.06, // ISO 6946:2017, Table 9 (from memory): tiled roof, no felt, boards or similar
+	'tiles-with-felt-or-boards': 0.2, // ISO 6946:2017, Table 9 (from memory): sheeted or tiled roof with felt or boards under the tiles
+	'tiles-with-foil-lined-felt': 0.3, // ISO 6946:2017, Table 9 (from memory): as above with aluminium-faced cladding or other low-emissivity surface at the underside
+	'boards-and-felt': 0.3 // ISO 6946:2017, Table 9 (from memory): roof lined with boards and felt
 };
 
 /** Plain descriptions of the roof-space kinds. */

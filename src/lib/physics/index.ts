@@ -26,7 +26,8 @@ export {
 } from './bounds';
 export type { ThermalModel, LayerModel } from './element';
 export { solveThickness, solveThicknessDetailed } from './inverse';
-export type { ThicknessSolution } from './inverse';
+export type { ThicknessSolution, ThicknessOutcome, ThicknessOptions } from './inverse';
+export { plausibilityWarnings, LAYER_PLAUSIBLE_MAX_MM, INSIDE_TEMPERATURE_PLAUSIBLE } from './element-result';
 export {
 	saturationPressure,
 	saturationTemperature,
@@ -49,7 +50,10 @@ export {
 	AIR_LAYER_RESISTANCE,
 	unventilatedAirLayerResistance,
 	slightlyVentilatedTotal,
-	layerResistance
+	layerResistance,
+	heatFlowForInclination,
+	effectiveHeatFlow,
+	HORIZONTAL_HEAT_FLOW_WITHIN_DEG
 } from './resistances';
 export { HEAT_FLOWS, type HeatFlow } from './resistances';
 export { combinedMethod, bridgeFraction, COMBINED_METHOD_MAX_RATIO } from './bridging';
@@ -73,12 +77,17 @@ export {
 	characteristicDimension,
 	GROUND_LAMBDA,
 	GROUND_LAMBDA_DEFAULT,
+	GROUND_LAMBDA_SOURCE,
+	GROUND_KIND_LABELS,
+	groundKindOf,
+	groundLambdaSource,
+	ROOF_SPACE_SOURCE,
 	WALL_THICKNESS_DEFAULT_M,
 	ROOF_SPACES,
 	ROOF_SPACE_RESISTANCE,
 	ROOF_SPACE_LABELS
 } from './ground';
-export type { GroundFloorInput, GroundFloorResult, RoofSpace } from './ground';
+export type { GroundFloorInput, GroundFloorResult, GroundKind, RoofSpace } from './ground';
 export {
 	elementInputSchema,
 	layerSchema,
@@ -91,6 +100,7 @@ export {
 	surfaceResultSchema,
 	condensationResultSchema,
 	groundResultSchema,
+	plausibilityWarningSchema,
 	roofSpaceSchema,
 	parseElementInput,
 	assertElementInput,
@@ -108,5 +118,6 @@ export type {
 	CondensationResult,
 	FieldIssue,
 	MoistureLimits,
+	PlausibilityWarning,
 	Rounding
 } from './schema';

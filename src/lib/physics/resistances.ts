@@ -10,6 +10,35 @@ export const HEAT_FLOWS = ['upward', 'horizontal', 'downward'] as const;
 /** Direction of the heat flow through an element: the one heat-flow type of the calculation core. */
 export type HeatFlow = (typeof HEAT_FLOWS)[number];
 
+/**
+ * Angle from the horizontal plane within which a heat flow takes the "horizontal" values, degrees.
+ * ISO 6946:2017, 6.8, note to Table 7 (from memory; the note to Table 1 in the 2007 edition): "the
+ * values under horizontal apply to directions of heat flow ±30° from the horizontal plane".
+ */
+export const HORIZONTAL_HEAT_FLOW_WITHIN_DEG = 30;
+
+/**
+ * Heat-flow direction through a plane element inclined `inclinationDeg` degrees from the horizontal
+ * (0: a flat roof or floor, 90: a wall). The heat flows normal to the element, at 90° − inclination
+ * from the horizontal plane; within ±30° of it (an inclination of 60° or more) the horizontal values
+ * apply, otherwise the vertical ones in the sense given (upward for a roof in heating conditions,
+ * downward for a floor). ISO 6946:2017, 6.8 and note to Table 7 (from memory).
+ */
+export function heatFlowForInclination(inclinationDeg: number, sense: 'upward' | 'downward'): HeatFlow {
+	return 90 - inclinationDeg <= HORIZONTAL_HEAT_FLOW_WITHIN_DEG ? 'horizontal' : sense;
+}
+
+/**
+ * The heat-flow direction an element's surface and air-layer resistances take: `heatFlow` as given,
+ * or with an inclination the direction {@link heatFlowForInclination} gives, `heatFlow` saying the
+ * sense (upward or downward; a horizontal one with an inclination below 60° is refused by the schema
+ * and taken as upward here).
+ */
+export function effectiveHeatFlow(e: { heatFlow: HeatFlow; inclinationDeg?: number }): HeatFlow {
+	if (e.inclinationDeg === undefined) return e.heatFlow;
+	return heatFlowForInclination(e.inclinationDeg, e.heatFlow === 'downward' ? 'downward' : 'upward');
+}
+
 /** Conventional internal surface resistance Rsi, m²·K/W, by heat-flow direction. */
 export const RSI: Readonly<Record<HeatFlow, number>> = {
 	upward: 0.1, // ISO 6946:2017, 6.8 and Table 7

@@ -18,7 +18,9 @@ import {
 	AIR_LAYER_MAX_MM,
 	AIR_OPENING_SLIGHTLY_MAX,
 	AIR_OPENING_UNVENTILATED_MAX,
+	effectiveHeatFlow,
 	HEAT_FLOWS,
+	heatFlowForInclination,
 	unventilatedAirLayerResistance,
 	type HeatFlow
 } from './resistances';
@@ -201,9 +203,33 @@ const LAYER_RANGES: (readonly [string, readonly Rule[]])[] = [
 	['sd', [...NON_NEGATIVE, atMost(LAYER_SD_MAX, '100 000 m')]]
 ];
 
+const PLAUSIBLE_RANGES: (readonly [string, readonly Rule[]])[] = [
+	['lambdaMin', POSITIVE],
+	['lambdaMax', POSITIVE],
+	['thicknessMinMm', NON_NEGATIVE],
+	['thicknessMaxMm', POSITIVE],
+	['smallestMm', NON_NEGATIVE]
+];
+
+/** The usual ranges a layer carries from the library: each positive, each minimum at most its maximum. */
+function refinePlausible(p: Record<string, unknown>, add: Add): void {
+	checkRanges(p, add, PLAUSIBLE_RANGES);
+	for (const k of ['category', 'lambdaSource'] as const)
+		if (typeof p[k] === 'string' && (p[k] as string).length > NAME_MAX)
+			add([k], `must be at most ${NAME_MAX} characters`);
+	const pairs = [
+		['lambdaMin', 'lambdaMax'],
+		['thicknessMinMm', 'thicknessMaxMm']
+	] as const;
+	for (const [lo, hi] of pairs)
+		if (isPositive(p[hi]) && typeof p[lo] === 'number' && (p[lo] as number) > (p[hi] as number))
+			add([hi], `must be at least ${lo}`);
+}
+
 function refineLayer(l: Record<string, unknown>, add: Add): void {
 	checkRanges(l, add, LAYER_RANGES);
 	checkName(l, add);
+	if (isObject(l.plausible)) refinePlausible(l.plausible, prefixed(add, ['plausible']));
 	const thickness = l.thicknessMm as number;
 	// λ of an air layer is ignored (its resistance comes from the table), so only a material's counts.
 	checkThicknessProducts(l.air === undefined ? l : { mu: l.mu }, thickness, add, 'this layer');
@@ -267,6 +293,7 @@ const LIMIT_RANGES: (readonly [string, readonly Rule[]])[] = [
 const ELEMENT_RANGES: (readonly [string, readonly Rule[]])[] = [
 	['rsi', RESISTANCE_LIMIT],
 	['rse', RESISTANCE_LIMIT],
+	['inclinationDeg', [[(v) => v >= 0 && v <= 90, 'must be 0–90° from the horizontal (0 flat, 90 vertical)']]],
 	['surfaceRsi', [[(v) => v > 0 && v <= 10, 'must be over 0 and at most 10 m²·K/W']]]
 ];
 const GROUND_RANGES: (readonly [string, readonly Rule[]])[] = [
@@ -345,6 +372,21 @@ const fastenersShape = z.object({
 	penetrationMm: num().optional()
 });
 
+const plausibleShape = z.object({
+	/** the material's category as the library names it, for messages */
+	category: z.string({ error: 'must be text' }).optional(),
+	/** λ its category allows, W/(m·K); > 0, min ≤ max */
+	lambdaMin: num().optional(),
+	lambdaMax: num().optional(),
+	/** where that λ range comes from */
+	lambdaSource: z.string({ error: 'must be text' }).optional(),
+	/** the thicknesses the material is stated to come in, mm (the product's own data); min ≤ max */
+	thicknessMinMm: num().optional(),
+	thicknessMaxMm: num().optional(),
+	/** the thinnest product of its category, mm (common practice, no source) */
+	smallestMm: num().optional()
+});
+
 const layerShape = z.object({
 	name: z.string({ error: 'must be text' }),
 	/** mm; > 0 */
@@ -367,7 +409,12 @@ const layerShape = z.object({
 	/** ISO 6946 air-gap correction level */
 	airGapLevel: z.literal([0, 1, 2], { error: 'must be 0, 1 or 2' }).optional(),
 	bridge: bridgeShape.optional(),
-	fasteners: fastenersShape.optional()
+	fasteners: fastenersShape.optional(),
+	/**
+	 * What is usual for the layer's material, as the library states it (the engine does not know the
+	 * material): used for plausibility warnings only, never to refuse an input or change a result.
+	 */
+	plausible: plausibleShape.optional()
 });
 
 const climateMonthShape = z.object({
@@ -450,7 +497,13 @@ const elementShape = z.object({
 	/** slab-on-ground floor: U by ISO 13370 from the floor's geometry and the ground */
 	ground: groundShape.optional(),
 	/** roof space above an insulated ceiling: its resistance (ISO 6946) is added to RT */
-	roofSpace: roofSpaceSchema.optional()
+	roofSpace: roofSpaceSchema.optional(),
+	/**
+	 * inclination of the element from the horizontal, degrees (0 flat, 90 vertical); when given, it
+	 * decides whether the heat flow is horizontal (60° or more, ISO 6946:2017, 6.8, note to Table 7)
+	 * and `heatFlow` gives its sense (upward or downward)
+	 */
+	inclinationDeg: num().optional()
 });
 
 /**
@@ -458,10 +511,16 @@ const elementShape = z.object({
  * air layer by Table 8 unless given; a well-ventilated one 0); NaN when a field is not a number,
  * which then has its own issue.
  */
-function layersResistance(layers: readonly Record<string, unknown>[], heatFlow: unknown): number {
-	const dir: HeatFlow = (HEAT_FLOWS as readonly unknown[]).includes(heatFlow)
+function layersResistance(
+	layers: readonly Record<string, unknown>[],
+	heatFlow: unknown,
+	inclinationDeg: unknown
+): number {
+	const given: HeatFlow = (HEAT_FLOWS as readonly unknown[]).includes(heatFlow)
 		? (heatFlow as HeatFlow)
 		: 'downward';
+	const inclined = typeof inclinationDeg === 'number' && inclinationDeg >= 0 && inclinationDeg <= 90;
+	const dir = effectiveHeatFlow({ heatFlow: given, inclinationDeg: inclined ? inclinationDeg : undefined });
 	let sum = 0;
 	for (let i = 0; i < layers.length; i++) {
 		const l = layers[i];
@@ -489,6 +548,26 @@ function modelledVapourThickness(l: Record<string, unknown>): number {
 	return negligibleAsZero(sd, SD_NEGLIGIBLE);
 }
 
+/**
+ * An inclination and the heat flow it gives (ISO 6946:2017, 6.8, note to Table 7, from memory): an
+ * element inclined less than 60° from the horizontal has a vertical heat flow, so `heatFlow` must say
+ * its sense; a floor on the ground and a ceiling under a roof space need a vertical one.
+ */
+function refineInclination(e: Record<string, unknown>, add: Add): void {
+	const deg = e.inclinationDeg;
+	if (typeof deg !== 'number' || !(deg >= 0 && deg <= 90)) return;
+	const horizontal = heatFlowForInclination(deg, 'upward') === 'horizontal';
+	if (!horizontal && e.heatFlow === 'horizontal')
+		add(
+			['heatFlow'],
+			`an element inclined ${deg}° from the horizontal has a vertical heat flow (horizontal only at 60° or more, ISO 6946 Table 7): give upward or downward, its sense`
+		);
+	if (horizontal && isObject(e.ground))
+		add(['inclinationDeg'], 'a floor on the ground lies flat: leave the inclination out or below 60°');
+	if (horizontal && e.roofSpace !== undefined)
+		add(['inclinationDeg'], 'a ceiling under a roof space lies flat: leave the inclination out or below 60°');
+}
+
 function refineElement(e: Record<string, unknown>, add: Add): void {
 	checkRanges(e, add, ELEMENT_RANGES);
 	if (isObject(e.designTemperatures))
@@ -510,13 +589,14 @@ function refineElement(e: Record<string, unknown>, add: Add): void {
 	if (layers.length > LAYERS_MAX)
 		add(['layers'], `at most ${LAYERS_MAX} layers are supported, got ${layers.length}`);
 	for (let i = 0; i < layers.length; i++) refineLayer(layers[i], prefixed(add, ['layers', i]));
-	const rLayers = layersResistance(layers, e.heatFlow);
+	const rLayers = layersResistance(layers, e.heatFlow, e.inclinationDeg);
 	if (beyond(rLayers, TOTAL_R_MAX))
 		add(
 			['layers'],
 			`the layers' thermal resistances add up to ${figure(rLayers)} m²·K/W, more than the ${TOTAL_R_MAX} m²·K/W an element may have: check the λ-values and thicknesses`
 		);
 	const well = layers.findIndex((l) => l.air === 'well-ventilated');
+	refineInclination(e, add);
 	if (isObject(e.ground)) {
 		refineGround(e.ground, prefixed(add, ['ground']));
 		if (e.heatFlow !== undefined && e.heatFlow !== 'downward')
@@ -735,10 +815,34 @@ export const groundResultSchema = z.object({
 	characteristicDimensionM: z.number(),
 	equivalentThicknessM: z.number(),
 	groundLambda: z.number(),
+	/** where λg comes from, in words (given by engines from 1.3.0) */
+	groundLambdaSource: z.string().optional(),
 	wallThicknessM: z.number(),
 	regime: z.string(),
 	/** resistance of the ground between the last layer and Rse that gives the floor's U, m²·K/W */
 	rGround: z.number()
+});
+
+/**
+ * A plausibility warning: an input that is allowed but unusual (a layer over 1 m, thinner than any
+ * product of its kind, outside its material's stated thicknesses or its category's λ, an inside
+ * temperature outside 5–35 °C). It never refuses an input nor changes a figure; `path` names the
+ * field of the input (`layers.2.thicknessMm`, `internal.temperature`), `source` the range's origin.
+ */
+export const plausibilityWarningSchema = z.object({
+	kind: z.literal('plausibility'),
+	check: z.enum([
+		'layer-too-thick',
+		'layer-too-thin',
+		'thickness-outside-range',
+		'lambda-outside-range',
+		'inside-temperature'
+	]),
+	path: z.string(),
+	layerIndex: z.number().int().optional(),
+	value: z.number(),
+	message: z.string(),
+	source: z.string()
 });
 
 export const elementResultSchema = z.object({
@@ -774,6 +878,8 @@ export const elementResultSchema = z.object({
 	condensation: condensationResultSchema.optional(),
 	notes: z.array(z.string()),
 	warnings: z.array(z.string()),
+	/** plausibility warnings (given by engines from 1.3.0; absent in earlier stored results) */
+	plausibility: z.array(plausibilityWarningSchema).optional(),
 	cautions: z.array(z.string())
 });
 
@@ -781,6 +887,7 @@ export type LayerResult = z.infer<typeof layerResultSchema>;
 export type SurfaceResult = z.infer<typeof surfaceResultSchema>;
 export type CondensationResult = z.infer<typeof condensationResultSchema>;
 export type ElementResult = z.infer<typeof elementResultSchema>;
+export type PlausibilityWarning = z.infer<typeof plausibilityWarningSchema>;
 
 /* ------------------------------------------------------------------ parsing */
 

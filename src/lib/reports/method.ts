@@ -99,6 +99,10 @@ export function methodParagraphs(r: MethodResult): string[] {
 				: `The build-up by ISO 6946:2017, as if exposed to outside air: RT = Rsi + ΣR + Rse = ${fx(rBuildUp, 3)} m²·K/W (U = ${fx(uBuildUp, 4)} W/(m²·K)); the floor construction's resistance is Rf = ΣR = ${fx(rFloor, 3)} m²·K/W.`
 		);
 		const branch = groundBranch(g);
+		if (g.groundLambdaSource)
+			out.push(
+				`Thermal conductivity of the ground λg = ${fx(g.groundLambda, 2)} W/(m·K), ${g.groundLambdaSource}.`
+			);
 		out.push(
 			`U of the floor on the ground by ${g.method}, from its equivalent thickness: characteristic dimension B′ = A/(0.5·P) = ${trim(g.areaM2, 2)}/(0.5·${trim(g.perimeterM, 2)}) = ${fx(g.characteristicDimensionM, 2)} m; total equivalent thickness dt = w + λg·(Rsi + Rf + Rse) = ${fx(g.wallThicknessM, 2)} + ${fx(g.groundLambda, 2)}·(${fx(r.rsi, 2)} + ${fx(rFloor, 3)} + ${fx(r.rse, 2)}) = ${fx(g.equivalentThicknessM, 3)} m. ` +
 				(branch === 'dt < B′'

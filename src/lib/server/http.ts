@@ -12,13 +12,84 @@ import { RateLimitedError, refusalOf, UnavailableError, ValidationError } from '
 export async function readJson(request: Request): Promise<unknown> {
 	const text = await request.text();
 	if (text.trim() === '') return {};
+	refuseDeepNesting(text);
+	let body: unknown;
 	try {
-		return JSON.parse(text);
+		body = JSON.parse(text);
 	} catch (e) {
 		throw new ValidationError(
 			[{ path: '(body)', message: `is not valid JSON: ${(e as Error).message}` }],
 			'The request body is not valid JSON.'
 		);
+	}
+	// A lone surrogate can only come in as a \u escape (the UTF-8 decoder replaces broken bytes).
+	if (/\\u[dD][89abcdefABCDEF]/.test(text)) refuseLoneSurrogates(body);
+	return body;
+}
+
+/** How deep a JSON body may nest; Envelo's deepest (an element's bridged layer) is five levels. */
+export const MAX_JSON_DEPTH = 64;
+
+/**
+ * A 400 for a body nested deeper than MAX_JSON_DEPTH, found in one pass over the text before it is
+ * parsed: the checks after parsing walk bodies recursively, and thousands of levels would exhaust the
+ * stack (a 500) instead of answering what is wrong.
+ */
+function refuseDeepNesting(text: string): void {
+	let depth = 0;
+	let inString = false;
+	for (let i = 0; i < text.length; i++) {
+		const c = text.charCodeAt(i);
+		if (inString) {
+			if (c === 0x5c)
+				i++; // backslash: skip the escaped character
+			else if (c === 0x22) inString = false;
+		} else if (c === 0x22) inString = true;
+		else if (c === 0x5b || c === 0x7b) {
+			if (++depth > MAX_JSON_DEPTH) {
+				throw new ValidationError(
+					[{ path: '(body)', message: `is nested more than ${MAX_JSON_DEPTH} levels deep` }],
+					`The request body is nested more than ${MAX_JSON_DEPTH} levels deep; no request of Envelo's needs that many.`
+				);
+			}
+		} else if (c === 0x5d || c === 0x7d) depth--;
+	}
+}
+
+/** Half of a UTF-16 surrogate pair without its other half. */
+const LONE_SURROGATE = /[\uD800-\uDBFF](?![\uDC00-\uDFFF])|(?<![\uD800-\uDBFF])[\uDC00-\uDFFF]/;
+
+/**
+ * A 400 naming the first key or text that holds half a surrogate pair (`"\ud800"`): it is no Unicode
+ * character, PostgreSQL refuses it in JSON columns, and text columns would silently store U+FFFD instead.
+ * Walks the body without recursion, so deep nesting costs no stack.
+ */
+function refuseLoneSurrogates(body: unknown): void {
+	const stack: [unknown, string][] = [[body, '']];
+	while (stack.length) {
+		const [value, at] = stack.pop()!;
+		if (typeof value === 'string') {
+			if (LONE_SURROGATE.test(value)) {
+				// a key at fault is named with its half pair written out
+				const path = at.replace(new RegExp(LONE_SURROGATE, 'g'), (c) => `\\u${c.charCodeAt(0).toString(16)}`);
+				throw new ValidationError(
+					[
+						{
+							path: path || '(body)',
+							message: 'holds half a surrogate pair (\\ud800–\\udfff), which is not text'
+						}
+					],
+					`Text in the request${path ? ` (${path})` : ''} holds half a surrogate pair (\\ud800–\\udfff), which is not a character: remove it and try again.`
+				);
+			}
+		} else if (value !== null && typeof value === 'object') {
+			for (const [key, v] of Object.entries(value)) {
+				// the path as far as a person reads it (deep nesting would make it megabytes long)
+				const next = at.length > 120 ? at : (at ? `${at}.${key}` : key).slice(0, 121);
+				if (LONE_SURROGATE.test(key)) stack.push([key, next]);
+				stack.push([v, next]);
+			}
+		}
 	}
 }
 
@@ -58,12 +129,29 @@ export function errorResponse(e: unknown): Response {
 	return json(refusal.body(), { status: refusal.status, headers });
 }
 
-/** Run a handler; expected refusals become their JSON answers. */
-export async function answer(fn: () => Promise<Response> | Response): Promise<Response> {
+/**
+ * Run a handler; expected refusals become their JSON answers. Given the request, a refusal made before
+ * its body was read (a rate limit, a bad query parameter) reads and drops the body first: an answer
+ * sent over an unread body leaves the connection stuck, and the client sees a reset, not the answer.
+ */
+export async function answer(fn: () => Promise<Response> | Response, request?: Request): Promise<Response> {
 	try {
 		return await fn();
 	} catch (e) {
-		return errorResponse(e);
+		const response = errorResponse(e);
+		if (request && !request.bodyUsed) await discardBody(request);
+		return response;
+	}
+}
+
+/** Read a request's body to its end and drop it, chunk by chunk. */
+export async function discardBody(request: Request): Promise<void> {
+	const reader = request.body?.getReader();
+	if (!reader) return;
+	try {
+		while (!(await reader.read()).done);
+	} catch {
+		// the client went away: nothing left to read
 	}
 }
 

@@ -26,7 +26,7 @@ function fontDir(): string {
 }
 
 /** What this module uses of a fontkit font, of fontkit and of pdfkit's document (they ship no types). */
-type FontkitFont = { postscriptName: string };
+type FontkitFont = { postscriptName: string; characterSet: number[]; glyphForCodePoint(cp: number): unknown };
 type Fontkit = {
 	create(buffer: Uint8Array, postscriptName?: string): FontkitFont;
 	registerFormat(format: unknown): void;
@@ -89,6 +89,11 @@ function pdfkitModules(): { fontkit: Fontkit; PDFKit: { prototype: PdfkitDocumen
 /** Parse one TTF file once and keep its marker. */
 function parseOnce(fontkit: Fontkit, file: string): string {
 	const font = fontkit.create(fs.readFileSync(file));
+	// fontkit keeps each glyph it makes, with the characters it was first made for; the text layer's
+	// character map (ToUnicode) is written from those. Shared by every document, a glyph first made by
+	// shaping (a substitution, with no character) would lose its character in every later document:
+	// so every glyph of the character map is made here, from its own character, before any shaping.
+	for (const cp of font.characterSet) font.glyphForCodePoint(cp);
 	// Recognised by no built-in fontkit format (TrueType, OpenType, WOFF, WOFF2, collections, dfont).
 	const marker = Buffer.from(`envelo-parsed-font ${path.basename(file)}`, 'latin1');
 	parsed.set(marker, font);

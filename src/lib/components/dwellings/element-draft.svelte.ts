@@ -2,7 +2,7 @@
  * The element as it is being edited: every field as the person types it (text, so "0,035" and
  * half-typed numbers survive), and the same fields as the API takes them.
  */
-import type { ElementResult, HeatFlow, RoofSpace } from '$lib/physics';
+import { heatFlowForInclination, type ElementResult, type HeatFlow, type RoofSpace } from '$lib/physics';
 import type { StoredBuildUp, StoredInternal } from '$lib/dwellings/element-input';
 import {
 	DEFAULT_HEAT_FLOW,
@@ -14,6 +14,7 @@ import {
 	blankRow,
 	buildUpFromRows,
 	groundText,
+	INCLINATION_KINDS,
 	parseNumber,
 	rowFromLayer,
 	type EditRow,
@@ -84,9 +85,24 @@ export class ElementDraft {
 	rows: EditRow[] = $state([]);
 	ground: GroundText = $state(groundText(undefined));
 	roofSpace: RoofSpace | '' = $state('');
+	/** a roof's inclination from the horizontal, degrees, as typed ('' not given) */
+	inclination: string = $state('');
 
 	/** windows and doors: a given U-value instead of a build-up */
 	readonly given = $derived(GIVEN_U_KINDS.includes(this.kind));
+
+	/** roofs whose own plane is inclined take an inclination */
+	readonly inclinable = $derived(INCLINATION_KINDS.includes(this.kind));
+
+	/**
+	 * The heat flow a valid inclination gives (ISO 6946:2017, 6.8, note to Table 7: horizontal at 60° or
+	 * more from the horizontal, else upward for a roof), which then replaces the chosen one; null without.
+	 */
+	readonly inclinationHeatFlow: HeatFlow | null = $derived.by(() => {
+		if (!this.inclinable) return null;
+		const v = parseNumber(this.inclination);
+		return typeof v === 'number' && v >= 0 && v <= 90 ? heatFlowForInclination(v, 'upward') : null;
+	});
 
 	readonly fields: ElementFieldValues = $derived.by(() => {
 		const internal: Record<string, unknown> = { temperature: parseNumber(this.internalTemp) };
@@ -96,14 +112,15 @@ export class ElementDraft {
 			name: this.name,
 			kind: this.kind,
 			area: parseNumber(this.area),
-			heatFlow: this.heatFlow,
+			heatFlow: this.inclinationHeatFlow ?? this.heatFlow,
 			climateId: this.climateId || null,
 			internal,
 			buildUp: this.given
 				? null
 				: buildUpFromRows(this.rows, this.rsi, this.rse, {
 						ground: this.kind === 'ground-floor' ? this.ground : null,
-						roofSpace: this.kind === 'pitched-roof-ceiling' ? this.roofSpace : null
+						roofSpace: this.kind === 'pitched-roof-ceiling' ? this.roofSpace : null,
+						inclination: this.inclinable ? this.inclination : null
 					}),
 			givenU: this.given ? parseNumber(this.givenU) : null,
 			givenUSource: this.given ? this.givenUSource : null
@@ -128,6 +145,8 @@ export class ElementDraft {
 		this.rows = start?.buildUp?.layers?.length ? start.buildUp.layers.map(rowFromLayer) : [blankRow()];
 		this.ground = groundText(start?.buildUp?.ground);
 		this.roofSpace = start?.buildUp?.roofSpace ?? '';
+		this.inclination =
+			start?.buildUp?.inclinationDeg !== undefined ? String(start.buildUp.inclinationDeg) : '';
 	}
 
 	/** A new kind; the name and heat flow follow it while they are still the old kind's defaults. */
@@ -152,6 +171,8 @@ export class ElementDraft {
 				return this.ground.lambda;
 			case 'ground.wallThicknessM':
 				return this.ground.wall;
+			case 'inclinationDeg':
+				return this.inclination;
 			default:
 				return undefined;
 		}
@@ -167,6 +188,7 @@ export class ElementDraft {
 		if (b.rsi !== undefined) this.rsi = String(b.rsi);
 		if (b.rse !== undefined) this.rse = String(b.rse);
 		if (b.roofSpace !== undefined) this.roofSpace = b.roofSpace;
+		if (b.inclinationDeg !== undefined) this.inclination = String(b.inclinationDeg);
 	}
 
 	/** A layer takes a newer library revision's values; false when the layer is no longer there. */

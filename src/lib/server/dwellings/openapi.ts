@@ -76,7 +76,9 @@ export const paths: Record<string, unknown> = {
 			summary: 'Thickness of one layer that reaches a target U, rounded up to a product size. Stateless.',
 			requestBody: jsonBody(thicknessRequestSchema),
 			responses: {
-				'200': ok('exactMm, roundedMm, uAtExact, uAtRounded, method, notes'),
+				'200': ok(
+					'outcome (thicker: the layer must grow; meets: it already reaches the target; thinner / thinnest: with mode thinnest, a thinner product size that still reaches it, or the thinnest there is), currentMm, uCurrent, uCurrentRounded, exactMm, roundedMm (null when nothing is proposed), uAtExact, uAtRounded, method, notes'
+				),
 				'400': errors['400'],
 				'401': common['401']
 			}

@@ -749,6 +749,8 @@ function assumptions(el: SnapshotElement, r: ElementResult | null): Content {
 	if (r) {
 		for (const n of r.notes) items.push(n);
 		for (const w of r.warnings) items.push(`Warning: ${w}`);
+		// Unusual inputs (engine 1.3.0 on): reasons to look, never refusals; the figures are as entered.
+		for (const p of r.plausibility ?? []) items.push(`Plausibility: ${p.message} (${p.source})`);
 	}
 	if (el.givenU != null)
 		items.push(`The U-value is given, not calculated: ${el.givenUSource ?? 'source not recorded'}.`);

@@ -51,4 +51,4 @@ export const POST = (event) =>
 		return new Response(JSON.stringify(detail === 'summary' ? summary(result) : result), {
 			headers: { 'content-type': 'application/json' }
 		});
-	});
+	}, event.request);

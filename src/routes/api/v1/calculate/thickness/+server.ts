@@ -6,7 +6,11 @@ import { ValidationError } from '$lib/server/errors';
 import { PRODUCT_THICKNESSES_MM, thicknessRequestSchema } from '$lib/dwellings/schema';
 import { takeCalculation } from '$lib/server/rate-limit';
 
-/** Stateless: the thickness of one layer that reaches a target U, rounded up to a product size. */
+/**
+ * Stateless: the thickness of one layer that reaches a target U, rounded up to a product size; when
+ * the layer as entered already reaches it, says so (`outcome: 'meets'`) and proposes a thinner layer
+ * only with `mode: 'thinnest'`.
+ */
 export const POST = (event) =>
 	answer(async () => {
 		const member = requireMember(event);
@@ -26,11 +30,12 @@ export const POST = (event) =>
 					input.data,
 					body.data.layerIndex,
 					body.data.targetU,
-					body.data.productThicknessesMm ?? PRODUCT_THICKNESSES_MM
+					body.data.productThicknessesMm ?? PRODUCT_THICKNESSES_MM,
+					{ mode: body.data.mode ?? 'meet' }
 				)
 			);
 		} catch (e) {
 			if (e instanceof ElementInputError) throw new ValidationError(e.issues);
 			throw e;
 		}
-	});
+	}, event.request);
