@@ -42,6 +42,25 @@ start_mail() {
 	die "the fake SMTP server did not start"
 }
 
+# A local S3-compatible store for evidence files (scripts/fake-s3.js, s3rver on loopback), and the
+# S3_* settings Envelo reads (src/lib/server/evidence/storage.ts). Left alone when S3_BUCKET is set: a
+# real store is configured.
+start_s3() {
+	local port="$1" dir="$2"
+	if [ -n "${S3_BUCKET:-}" ]; then log "evidence files go to the configured S3 bucket $S3_BUCKET"; return 0; fi
+	node scripts/fake-s3.js --port "$port" --dir "$dir" --bucket envelo-evidence &
+	PIDS+=($!)
+	for _ in $(seq 1 50); do
+		if node -e "require('net').connect($port,'127.0.0.1').on('connect',()=>process.exit(0)).on('error',()=>process.exit(1))"; then
+			export S3_ENDPOINT="http://127.0.0.1:$port" S3_REGION=us-east-1 S3_BUCKET=envelo-evidence
+			export S3_ACCESS_KEY_ID=S3RVER S3_SECRET_ACCESS_KEY=S3RVER S3_FORCE_PATH_STYLE=true
+			return 0
+		fi
+		sleep 0.2
+	done
+	die "the local S3 store for evidence files did not start"
+}
+
 run_start() {
 	ensure_system_packages
 	ensure_node_modules
@@ -78,6 +97,7 @@ run_start() {
 	pgboss_prepare envelo
 
 	start_mail "$smtp_port" "$inbox_port" "$ROOT/.data/mail"
+	start_s3 "${S3_PORT:-4569}" "$ROOT/.data/s3"
 
 	if [ ! -f build/index.js ] || [ -n "$(find src static svelte.config.js vite.config.ts tailwind.config.js package-lock.json -newer build/index.js -print -quit 2>/dev/null)" ]; then
 		log "building Envelo"
@@ -95,6 +115,7 @@ run_start() {
 
   Envelo        http://127.0.0.1:$app_port
   Mail inbox    http://127.0.0.1:$inbox_port   (every e-mail Envelo sends lands here)
+  Evidence      ${S3_ENDPOINT:-S3} bucket $S3_BUCKET   (photos and documents kept with a dwelling)
   PostgreSQL    127.0.0.1:$port, database envelo: Envelo connects as $PG_APP_ROLE, migrations run as
                 $PG_OWNER_ROLE (passwords in $data_root/pg-app-password, pg-owner-password)
 
@@ -105,7 +126,7 @@ run_start() {
     supervisor  dara.quinn@northfield-retrofit.example.test
     (second organisation, for isolation) eli.brandt@harbourline-surveys.example.test
 
-  Ctrl-C stops Envelo, the mail server and PostgreSQL.
+  Ctrl-C stops Envelo, the mail server, the local S3 store and PostgreSQL.
 TXT
 	wait -n "${PIDS[@]}" || true
 }
@@ -161,6 +182,8 @@ run_test() {
 		TEST_BUILD="$ROOT/.test-builds/$(basename "$TEST_TMP")"
 		export BUILD_DIR="$TEST_BUILD/build" KIT_OUT_DIR="$TEST_BUILD/kit"
 		build_app "$TEST_TMP/build.log" || { tail -40 "$TEST_TMP/build.log"; die "build failed"; }
+		# The browser tests store evidence in a local S3 store; the server tests start their own.
+		start_s3 "$(free_port)" "$TEST_TMP/s3"
 		log "end-to-end tests (Playwright, Debian's Chromium)"
 		pg_migrate envelo_e2e seed
 		pgboss_prepare envelo_e2e
@@ -205,6 +228,7 @@ run_bench() {
 	unset DATABASE_OWNER_URL
 	local smtp_port inbox_port; smtp_port=$(free_port); inbox_port=$(free_port)
 	start_mail "$smtp_port" "$inbox_port" "$TEST_TMP/mail"
+	start_s3 "$(free_port)" "$TEST_TMP/s3"
 	export SMTP_HOST=127.0.0.1 SMTP_PORT="$smtp_port" INBOX_URL="http://127.0.0.1:$inbox_port"
 	export AUTH_SECRET="bench-secret-$RANDOM$RANDOM"
 	TEST_BUILD="$ROOT/.test-builds/$(basename "$TEST_TMP")"

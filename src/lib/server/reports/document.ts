@@ -1109,6 +1109,65 @@ export function dwellingSummary(s: ReportSnapshot): Content[] {
 }
 
 /** The complete pdfmake document for a snapshot (element or dwelling scope). */
+const EVIDENCE_TYPE_LABELS: Record<string, string> = {
+	'image/jpeg': 'JPEG photo',
+	'image/png': 'PNG image',
+	'application/pdf': 'PDF document'
+};
+
+/** A file's size for people: 1.2 MB, 340 kB, 900 bytes. */
+function fileSize(bytes: number): string {
+	if (bytes >= 1e6) return `${trim(bytes / 1e6, 1)} MB`;
+	if (bytes >= 1e3) return `${Math.round(bytes / 1e3)} kB`;
+	return `${bytes} bytes`;
+}
+
+/**
+ * The evidence kept with the dwelling when the report was issued: each file with what it shows, its kind
+ * and size, when it was uploaded and its SHA-256, by which a copy can be matched to this report. Nothing
+ * when the snapshot lists none (or was frozen before evidence was listed).
+ */
+export function evidenceBlock(s: ReportSnapshot, head: Content): Content[] {
+	const files = s.evidence ?? [];
+	if (!files.length) return [];
+	const forWhat = (e: (typeof files)[number]) =>
+		e.elementName === null
+			? 'The dwelling'
+			: e.layerIndex === null
+				? e.elementName
+				: `${e.elementName}, layer ${e.layerIndex + 1}${e.layerName ? `: ${e.layerName}` : ''}`;
+	// The heading stays with the first lines; a long list breaks across pages, its header repeated.
+	return [
+		keep(head, {
+			text: `${files.length === 1 ? 'One file was' : `${files.length} files were`} kept with the dwelling when this report was issued, and stay as they were. A copy matches when its SHA-256 is the one printed here.`,
+			color: SOFT,
+			margin: [0, 0, 0, 4]
+		} as Content),
+		{
+			table: {
+				headerRows: 1,
+				dontBreakRows: true,
+				widths: ['*', 120, 70, 60],
+				body: [
+					[th('File and SHA-256'), th('Shows'), th('Kind, size'), th('Uploaded')],
+					...files.map((e) => [
+						{
+							stack: [
+								{ text: e.name, bold: true },
+								{ text: e.sha256, fontSize: 6.5, color: SOFT, characterSpacing: 0.2 }
+							]
+						},
+						{ text: forWhat(e) },
+						{ text: `${EVIDENCE_TYPE_LABELS[e.contentType] ?? e.contentType}, ${fileSize(e.bytes)}` },
+						{ text: longDate(e.uploadedAt) }
+					])
+				] as TableCell[][]
+			},
+			layout: rules
+		} as Content
+	];
+}
+
 export function reportDocument(s: ReportSnapshot): TDocumentDefinitions {
 	const d = s.document;
 	const content: Content[] = [];
@@ -1118,12 +1177,17 @@ export function reportDocument(s: ReportSnapshot): TDocumentDefinitions {
 			content.push({ text: '', pageBreak: 'after' } as Content);
 			content.push(...elementSection(s, el, { index: i, of: s.elements.length }));
 		});
+		if (s.evidence?.length) {
+			content.push({ text: '', pageBreak: 'after' } as Content);
+			content.push(...evidenceBlock(s, h1('Evidence', `Dwelling ${s.dwelling.reference}`)));
+		}
 		// The declaration closes the dwelling report, on a page of its own.
 		content.push({ text: '', pageBreak: 'after' } as Content);
 		content.push(h1('Declaration', `Dwelling ${s.dwelling.reference}`));
 		content.push(declarationBlock(s, null));
 	} else {
 		content.push(...elementSection(s, s.elements[0], null));
+		content.push(...evidenceBlock(s, h2('Annex', 'Evidence kept with the dwelling')));
 	}
 	const numberLine = d.draft ? 'DRAFT — not issued' : `Report ${d.number} · revision ${d.revision}`;
 	const title =

@@ -33,6 +33,7 @@ import type {
 	SnapshotLimitTable,
 	SnapshotMaterialRevision
 } from './snapshot';
+import { evidenceForReport } from '$lib/server/evidence';
 
 export type { ReportSnapshot, ReportScope } from './snapshot';
 
@@ -144,6 +145,8 @@ export async function buildSnapshot(
 		organisation: { id: organisationId, name: org?.name ?? '' },
 		limitTable,
 		elements: elements.map((e) => snapshotElement(e, context, problems)),
+		// every report of the dwelling lists all its evidence (and issuing it keeps them: a trigger)
+		evidence: await evidenceForReport(trx, organisationId, dwellingId),
 		engineVersion: ENGINE_VERSION,
 		issuedAt,
 		document: {

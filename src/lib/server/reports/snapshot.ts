@@ -6,6 +6,7 @@
 import type { ElementInput, ElementResult, HeatFlow } from '$lib/physics';
 import { type ElementKind } from '$lib/dwellings/kinds';
 import type { StoredBuildUp, StoredInternal } from '$lib/dwellings/element-input';
+import type { EvidenceForReport } from '$lib/server/evidence';
 
 export type ReportScope = 'element' | 'dwelling';
 
@@ -58,6 +59,8 @@ export type SnapshotElement = {
 	materialRevisions: SnapshotMaterialRevision[];
 };
 
+export type SnapshotEvidence = EvidenceForReport;
+
 export type ReportSnapshot = {
 	dwelling: {
 		id: string;
@@ -72,6 +75,11 @@ export type ReportSnapshot = {
 	organisation: { id: string; name: string };
 	limitTable: SnapshotLimitTable | null;
 	elements: SnapshotElement[];
+	/**
+	 * The evidence files kept with the dwelling when the report was issued (name and SHA-256 of each).
+	 * Absent from snapshots frozen before evidence was listed.
+	 */
+	evidence?: SnapshotEvidence[];
 	engineVersion: string;
 	issuedAt: string;
 	/** identity of the document itself, frozen with the data */

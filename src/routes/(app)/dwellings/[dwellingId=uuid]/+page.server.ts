@@ -19,6 +19,8 @@ import {
 } from '$lib/server/dwellings/elements';
 import { copyFormSchema, dwellingFormSchema } from '$lib/dwellings/forms';
 import { readIssueChanges } from '$lib/server/reports/changes';
+import { listJunctions } from '$lib/server/junctions';
+import { evidencePanel } from '$lib/server/evidence';
 import { AppError, ConflictError, ForbiddenError, NotFoundError, ValidationError } from '$lib/server/errors';
 import { reopenRefusalText } from '$lib/dwellings/rules';
 
@@ -30,9 +32,11 @@ export const load = async (event) => {
 	if (!page) error(404, 'No such dwelling.');
 	const { options, ...overview } = page;
 	const d = overview.dwelling;
-	const [returned, changes, form] = await Promise.all([
+	const [returned, changes, junctions, evidence, form] = await Promise.all([
 		d.status === 'returned' ? getReturnNote(member.organisationId, d.id) : null,
 		d.issueChanges === null ? null : readIssueChanges(member.organisationId, d.id, d.issueChanges),
+		listJunctions(member.organisationId, d.id),
+		evidencePanel(member, d.id),
 		superValidate(zod4(dwellingFormSchema), {
 			defaults: {
 				reference: d.reference,
@@ -48,7 +52,7 @@ export const load = async (event) => {
 			}
 		})
 	]);
-	return { ...overview, options, returned, changes, form };
+	return { ...overview, options, returned, changes, junctions, evidence, form };
 };
 
 async function expected<T>(fn: () => Promise<T>) {

@@ -11,6 +11,7 @@ import {
 import { decisionSchema } from '$lib/audit/schemas';
 import { DECIDER_ROLES } from '$lib/audit/rules';
 import { AppError } from '$lib/server/errors';
+import { evidencePanel } from '$lib/server/evidence';
 
 const weight = (i: ItemRow) =>
 	i.flags.reduce((s, f) => s + (f.severity === 'high' ? 100 : f.severity === 'medium' ? 10 : 1), 0);
@@ -37,9 +38,14 @@ export async function load(event) {
 	const decisionRefusal = DECIDER_ROLES.includes(member.role)
 		? await decisionRefusalFor(member.organisationId, item.dwellingId, member.user.id)
 		: null;
+	const [standing, evidence] = await Promise.all([
+		decisionStanding(member.organisationId, item),
+		evidencePanel(member, item.dwellingId)
+	]);
 	return {
 		item,
-		standing: await decisionStanding(member.organisationId, item),
+		standing,
+		evidence,
 		decisionRefusal,
 		position: at + 1,
 		total: queue.length,

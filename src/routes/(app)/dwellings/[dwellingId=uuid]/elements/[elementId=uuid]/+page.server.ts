@@ -4,6 +4,7 @@ import { getElementContext } from '$lib/server/dwellings/elements';
 import { listEditorClimates, reopenDwelling, WRITE_ROLES } from '$lib/server/dwellings';
 import { changeRefusal } from '$lib/dwellings/rules';
 import { AppError } from '$lib/server/errors';
+import { evidencePanel } from '$lib/server/evidence';
 import { reopenRefusalText } from '$lib/dwellings/rules';
 
 export const load = async (event) => {
@@ -12,9 +13,14 @@ export const load = async (event) => {
 	if (!ctx || ctx.element.dwellingId !== event.params.dwellingId) error(404, 'No such element.');
 	const writer = member.role !== 'supervisor';
 	const needsReopening = changeRefusal(ctx.dwelling.status, ctx.dwelling.reopened)?.needsReason === true;
+	const [climates, evidence] = await Promise.all([
+		listEditorClimates(member.organisationId),
+		evidencePanel(member, ctx.dwelling.id)
+	]);
 	return {
 		...ctx,
-		climates: await listEditorClimates(member.organisationId),
+		climates,
+		evidence,
 		writer,
 		needsReopening,
 		canEdit: writer && !needsReopening
