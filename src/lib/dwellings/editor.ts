@@ -216,7 +216,8 @@ export function groundText(g: StoredGround | undefined): GroundText {
 		area: str(g?.areaM2),
 		soil: lambda === undefined ? '' : (kind ?? 'value'),
 		lambda: kind ? '' : str(lambda),
-		wall: str(g?.wallThicknessM)
+		// typed in mm like every other thickness, stored in m as ISO 13370 writes it
+		wall: g?.wallThicknessM === undefined ? '' : String(Math.round(g.wallThicknessM * 1e6) / 1e3)
 	};
 }
 
@@ -225,6 +226,11 @@ function groundLambdaOf(g: GroundText): number | string | undefined {
 	if (g.soil === '') return undefined;
 	if (g.soil === undefined || g.soil === 'value') return parseNumber(g.lambda);
 	return GROUND_LAMBDA[g.soil];
+}
+
+/** A thickness typed in mm, in m; text that is no number is passed on for the engine to name. */
+function mmToM(v: number | string | undefined): number | string | undefined {
+	return typeof v === 'number' ? v / 1000 : v;
 }
 
 export function buildUpFromRows(
@@ -244,7 +250,7 @@ export function buildUpFromRows(
 			perimeterM: parseNumber(extras.ground.perimeter),
 			areaM2: parseNumber(extras.ground.area),
 			groundLambda: groundLambdaOf(extras.ground),
-			wallThicknessM: parseNumber(extras.ground.wall)
+			wallThicknessM: mmToM(parseNumber(extras.ground.wall))
 		};
 		for (const k of Object.keys(g)) if (g[k] === undefined && k !== 'perimeterM') delete g[k];
 		b.ground = g;

@@ -1,7 +1,7 @@
 import { describe, it, expect, afterAll } from 'vitest';
 import { hasDatabase, makeTeam } from '../../factories';
 import { toElementInput, type StoredBuildUp } from '../../../src/lib/dwellings/element-input';
-import { blankRow, buildUpFromRows, rowFromLayer } from '../../../src/lib/dwellings/editor';
+import { blankRow, buildUpFromRows, groundText, rowFromLayer } from '../../../src/lib/dwellings/editor';
 import { validateElement } from '../../../src/lib/dwellings/schema';
 
 // Ground floors (ISO 13370:2017 8.1, formulas from memory), roof spaces (ISO 6946:2017 roof-space
@@ -77,6 +77,21 @@ describe('editor helpers and the engine input (pure)', () => {
 			null
 		);
 		expect(v.ok ? [] : v.issues.map((i) => i.path)).toEqual(['buildUp.ground.perimeterM']);
+	});
+
+	it('takes the wall thickness in mm, as every other thickness, and stores it in m', () => {
+		const rows = [blankRow({ name: 'Slab', thickness: '150', lambda: '1.5', mu: '100' })];
+		const b = buildUpFromRows(rows, undefined, undefined, {
+			ground: { perimeter: '40', area: '100', lambda: '', wall: '300' }
+		});
+		expect(b.ground?.wallThicknessM).toBeCloseTo(0.3, 12);
+		expect(groundText(b.ground).wall).toBe('300');
+		expect(groundText({ perimeterM: 40, wallThicknessM: 0.365 }).wall).toBe('365');
+		// text that is no number goes on to the engine, which names it
+		const typo = buildUpFromRows(rows, undefined, undefined, {
+			ground: { perimeter: '40', area: '', lambda: '', wall: '30o' }
+		});
+		expect(typo.ground?.wallThicknessM).toBe('30o');
 	});
 
 	it('engine errors on the ground and roof space come back under buildUp', () => {
