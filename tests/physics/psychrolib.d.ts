@@ -6,6 +6,8 @@ declare module 'psychrolib' {
 		SetUnitSystem(unitSystem: number): void;
 		/** saturation vapour pressure over water (> 0.01 °C) or ice, Pa in SI */
 		GetSatVapPres(dryBulb: number): number;
+		/** dew-point temperature, °C in SI, from the dry-bulb temperature and the vapour pressure (Pa) */
+		GetTDewPointFromVapPres(dryBulb: number, vapourPressure: number): number;
 	}
 	const psychrolib: PsychroLib;
 	export default psychrolib;
