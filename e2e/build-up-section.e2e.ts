@@ -52,3 +52,52 @@ test('the section drawing follows the build-up as it is typed', async ({ page, c
 	await expect(section.locator('figcaption')).toContainText('Layers to scale, inside on the left.');
 	await page.screenshot({ path: '/tmp/section-element-page.png', fullPage: true });
 });
+
+// ISO 13786 (formulas from memory; the engine is checked against numpy in tests/physics and
+// tests/dwellings): the heat storage of a masonry wall from the library's ρ and c, as the page shows it.
+test('a masonry wall shows its κ1 and decrement factor from the library values', async ({
+	page,
+	context
+}) => {
+	await signInAs(context, DEMO.assessor);
+	const reference = `E2E-K-${Date.now().toString(36)}`;
+	await page.goto('/dwellings/new');
+	await waitForApp(page);
+	await page.getByLabel('Reference').fill(reference);
+	await page.getByRole('button', { name: 'Create dwelling' }).click();
+	await expect(page.getByRole('heading', { name: reference })).toBeVisible();
+	await page.getByRole('button', { name: 'Add element' }).click();
+	await waitForApp(page);
+	await page.getByLabel('Area m²').fill('20');
+	await page.getByRole('button', { name: 'Choose layer 1 from the library' }).click();
+	await page.getByLabel('Search the library').fill('dense');
+	await expect(page.locator('#material-results').getByRole('option').first()).toContainText('dense', {
+		ignoreCase: true
+	});
+	await page.getByLabel('Search the library').press('Enter');
+	await page.getByLabel('Layer 1 thickness in mm').fill('215');
+	const storage = page.getByTestId('heat-storage');
+	await expect(storage.getByTestId('kappa1')).toContainText('kJ/(m²·K)');
+	const kappa1 = Number((await storage.getByTestId('kappa1').innerText()).split(' ')[0]);
+	const f = Number(await storage.getByTestId('decrement-factor').innerText());
+	// a heavy wall: tens of kJ/(m²·K) inside, and a daily swing damped well below 1
+	expect(kappa1).toBeGreaterThan(30);
+	expect(kappa1).toBeLessThan(120);
+	expect(f).toBeGreaterThan(0);
+	expect(f).toBeLessThan(0.8);
+
+	// a typed layer without ρ and c: the card says what to give
+	await page.getByRole('button', { name: 'Add layer' }).click();
+	await page.getByLabel('Layer 2 name').fill('Board');
+	await page.getByLabel('Layer 2 thickness in mm').fill('12.5');
+	await page.getByLabel('Layer 2 λ in W/(m·K)').fill('0.21');
+	await page.getByLabel('Layer 2 vapour resistance factor μ').fill('10');
+	await expect(storage.getByTestId('heat-storage-missing')).toHaveText(
+		'Not calculated: give the density and specific heat of layer 2 (layer details).'
+	);
+	await page.getByRole('button', { name: 'Layer 2 corrections: air gaps and fasteners' }).click();
+	await page.getByLabel('Layer 2 density in kg/m³').fill('700');
+	await page.getByLabel('Layer 2 specific heat capacity in J/(kg·K)').fill('1000');
+	await expect(storage.getByTestId('kappa1')).toBeVisible();
+	await storage.screenshot({ path: '/tmp/heat-storage.png' });
+});

@@ -34,6 +34,8 @@ ensure_system_packages() {
 	if [ "${1:-}" = "test" ]; then
 		apt_ensure /usr/bin/chromium chromium
 		apt_ensure pdftotext poppler-utils
+		# the physics tests' independent references are Python with numpy (tests/physics/reference)
+		if ! python3 -c 'import numpy' >/dev/null 2>&1; then apt_ensure /usr/lib/python3/dist-packages/numpy python3-numpy; fi
 	fi
 }
 

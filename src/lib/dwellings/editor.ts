@@ -50,6 +50,9 @@ export type EditRow = {
 	materialCode?: string;
 	/** what is usual for the layer's library material (for plausibility warnings), copied when it is picked */
 	plausible?: Layer['plausible'];
+	/** density ρ, kg/m³, and specific heat capacity c, J/(kg·K): for the heat storage (ISO 13786) */
+	density: string;
+	specificHeat: string;
 };
 
 let nextKey = 1;
@@ -83,6 +86,8 @@ export function blankRow(over: Partial<EditRow> = {}): EditRow {
 		fastenerPerM2: '',
 		fastenerRecessed: false,
 		fastenerPenetration: '',
+		density: '',
+		specificHeat: '',
 		...over
 	};
 }
@@ -143,7 +148,9 @@ export function rowFromLayer(l: StoredLayer): EditRow {
 		materialId: l.materialId,
 		materialRevisionId: l.materialRevisionId,
 		materialCode: l.materialCode,
-		plausible: l.plausible
+		plausible: l.plausible,
+		density: str(l.density),
+		specificHeat: str(l.specificHeat)
 	});
 }
 
@@ -195,6 +202,8 @@ export function layerFromRow(r: EditRow): StoredLayer {
 	if (r.materialRevisionId) layer.materialRevisionId = r.materialRevisionId;
 	if (r.materialCode) layer.materialCode = r.materialCode;
 	if (r.plausible) layer.plausible = r.plausible;
+	layer.density = parseNumber(r.density);
+	layer.specificHeat = parseNumber(r.specificHeat);
 	for (const k of Object.keys(layer)) if (layer[k] === undefined) delete layer[k];
 	return layer as StoredLayer;
 }

@@ -14,6 +14,9 @@ export type StoredLayer = Layer & {
 	bridgeGeometry?: { widthMm: number; centresMm: number };
 	/** fastener diameter as entered, mm (the engine takes its cross-section `fasteners.areaMm2`) */
 	fastenerDiameterMm?: number;
+	/** density ρ, kg/m³, and specific heat capacity c, J/(kg·K): the heat storage only (ISO 13786) */
+	density?: number;
+	specificHeat?: number;
 };
 
 /** A floor on the ground (ISO 13370): exposed perimeter, floor area (else the element's area), ground λ, wall thickness. */

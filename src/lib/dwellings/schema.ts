@@ -13,6 +13,12 @@ import {
 	type ElementKind
 } from '$lib/dwellings/kinds';
 import { HEAT_FLOWS, internalSchema, layerSchema, parseElementInput, roofSpaceSchema } from '$lib/physics';
+import {
+	DYNAMIC_DENSITY_MAX,
+	DYNAMIC_DENSITY_MIN,
+	DYNAMIC_SPECIFIC_HEAT_MAX,
+	DYNAMIC_SPECIFIC_HEAT_MIN
+} from '$lib/physics/dynamic';
 import { toElementInput, type ClimateMonthValues, type StoredBuildUp } from '$lib/dwellings/element-input';
 
 const text = (max: number, what = 'text') =>
@@ -137,7 +143,21 @@ export const storedLayerSchema = layerSchema.safeExtend({
 			centresMm: z.number({ error: 'must be a number' }).gt(0, 'must be > 0')
 		})
 		.optional(),
-	fastenerDiameterMm: z.number({ error: 'must be a number in mm' }).gt(0, 'must be > 0 mm').optional()
+	fastenerDiameterMm: z.number({ error: 'must be a number in mm' }).gt(0, 'must be > 0 mm').optional(),
+	/** for the heat storage (ISO 13786) only; the U-value and the moisture checks do not use them */
+	density: z
+		.number({ error: 'must be a number in kg/m³' })
+		.gte(DYNAMIC_DENSITY_MIN, `must be at least ${DYNAMIC_DENSITY_MIN} kg/m³`)
+		.lte(DYNAMIC_DENSITY_MAX, `must be at most ${DYNAMIC_DENSITY_MAX} kg/m³`)
+		.optional(),
+	specificHeat: z
+		.number({ error: 'must be a number in J/(kg·K)' })
+		.gte(
+			DYNAMIC_SPECIFIC_HEAT_MIN,
+			`must be at least ${DYNAMIC_SPECIFIC_HEAT_MIN} J/(kg·K) (a value in kJ/(kg·K) is multiplied by 1000)`
+		)
+		.lte(DYNAMIC_SPECIFIC_HEAT_MAX, `must be at most ${DYNAMIC_SPECIFIC_HEAT_MAX} J/(kg·K)`)
+		.optional()
 });
 
 export const storedBuildUpSchema = z.object({

@@ -3,7 +3,12 @@
 import { spawnSync } from 'node:child_process';
 import { fileURLToPath } from 'node:url';
 
-const probe = spawnSync('python3', ['-c', 'import numpy; print(numpy.__version__)'], { encoding: 'utf8' });
+/** The first Python with numpy: the one on the PATH, else Debian's (where the test command installs numpy). */
+const PYTHON =
+	['python3', '/usr/bin/python3'].find(
+		(p) => spawnSync(p, ['-c', 'import numpy'], { encoding: 'utf8' }).status === 0
+	) ?? 'python3';
+const probe = spawnSync(PYTHON, ['-c', 'import numpy; print(numpy.__version__)'], { encoding: 'utf8' });
 
 /** numpy's version, or null when python3 with numpy is not available. */
 export const numpyVersion: string | null = probe.status === 0 ? probe.stdout.trim() : null;
@@ -16,7 +21,7 @@ export const referenceTitle = numpyVersion
 /** Run `script` (a file name in this folder) on `input`; its parsed JSON output. */
 export function runReference<T>(script: string, input: unknown): T {
 	const path = fileURLToPath(new URL(`./${script}`, import.meta.url));
-	const out = spawnSync('python3', [path], {
+	const out = spawnSync(PYTHON, [path], {
 		input: JSON.stringify(input),
 		encoding: 'utf8',
 		timeout: 60000

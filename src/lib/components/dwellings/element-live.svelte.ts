@@ -9,7 +9,13 @@ import { validateElement } from '$lib/dwellings/schema';
 import type { ClimateOption, ElementFieldValues } from './element-draft.svelte';
 import type { Issue } from './element-issues';
 
-export type Live = { issues: Issue[]; result: ElementResult | null; input: ElementInput | null };
+export type Live = {
+	issues: Issue[];
+	result: ElementResult | null;
+	input: ElementInput | null;
+	/** the build-up as it would be stored (layers with their density and specific heat) */
+	buildUp?: StoredBuildUp | null;
+};
 type Months = ClimateOption['months'];
 
 /** Issues, or the result with the engine input it came from (none for a window or door). */
@@ -26,7 +32,12 @@ export function computeLive(f: ElementFieldValues, months: Months | null): Live 
 		months
 	);
 	try {
-		return { issues: [], result: analyseElement(input), input };
+		return {
+			issues: [],
+			result: analyseElement(input),
+			input,
+			buildUp: checked.data.buildUp as StoredBuildUp
+		};
 	} catch (e) {
 		return { issues: [{ path: '(input)', message: (e as Error).message }], result: null, input: null };
 	}
