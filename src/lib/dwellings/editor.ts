@@ -215,7 +215,24 @@ export function layerFromRow(r: EditRow): StoredLayer {
 export type GroundSoil = '' | GroundKind | 'value';
 
 /** Ground-floor inputs as typed (text); without `soil`, a λ typed is taken as a value. */
-export type GroundText = { perimeter: string; area: string; soil?: GroundSoil; lambda: string; wall: string };
+export type GroundText = {
+	perimeter: string;
+	area: string;
+	soil?: GroundSoil;
+	lambda: string;
+	wall: string;
+	/** a slab on the ground (the default) or a suspended floor over a ventilated space (ISO 13370, 8.2) */
+	floor?: 'slab' | 'suspended';
+	/** suspended: the deck's height above the outside ground, mm */
+	height?: string;
+	/** suspended: U of the underfloor space's walls, W/(m²·K) */
+	underfloorWallU?: string;
+	/** suspended: ventilation openings, mm² per metre of exposed perimeter (stored as ε in m²/m) */
+	openings?: string;
+	/** suspended: wind speed at 10 m, m/s */
+	wind?: string;
+	shielding?: 'sheltered' | 'average' | 'exposed';
+};
 
 export function groundText(g: StoredGround | undefined): GroundText {
 	const lambda = g?.groundLambda;
@@ -226,7 +243,13 @@ export function groundText(g: StoredGround | undefined): GroundText {
 		soil: lambda === undefined ? '' : (kind ?? 'value'),
 		lambda: kind ? '' : str(lambda),
 		// typed in mm like every other thickness, stored in m as ISO 13370 writes it
-		wall: g?.wallThicknessM === undefined ? '' : String(Math.round(g.wallThicknessM * 1e6) / 1e3)
+		wall: g?.wallThicknessM === undefined ? '' : String(Math.round(g.wallThicknessM * 1e6) / 1e3),
+		floor: g?.suspended ? 'suspended' : 'slab',
+		height: g?.suspended ? String(Math.round(g.suspended.heightM * 1e6) / 1e3) : '',
+		underfloorWallU: str(g?.suspended?.underfloorWallU),
+		openings: g?.suspended ? String(Math.round(g.suspended.openingsPerPerimeter * 1e9) / 1e3) : '',
+		wind: str(g?.suspended?.windSpeed),
+		shielding: g?.suspended?.windShielding ?? 'average'
 	};
 }
 
@@ -261,6 +284,17 @@ export function buildUpFromRows(
 			groundLambda: groundLambdaOf(extras.ground),
 			wallThicknessM: mmToM(parseNumber(extras.ground.wall))
 		};
+		if (extras.ground.floor === 'suspended') {
+			const openings = parseNumber(extras.ground.openings ?? '');
+			g.suspended = {
+				heightM: mmToM(parseNumber(extras.ground.height ?? '')),
+				underfloorWallU: parseNumber(extras.ground.underfloorWallU ?? ''),
+				// mm² per metre of perimeter → m²/m
+				openingsPerPerimeter: typeof openings === 'number' ? openings / 1e6 : openings,
+				windSpeed: parseNumber(extras.ground.wind ?? ''),
+				windShielding: extras.ground.shielding ?? 'average'
+			};
+		}
 		for (const k of Object.keys(g)) if (g[k] === undefined && k !== 'perimeterM') delete g[k];
 		b.ground = g;
 	}

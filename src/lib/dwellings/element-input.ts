@@ -25,6 +25,8 @@ export type StoredGround = {
 	areaM2?: number;
 	groundLambda?: number;
 	wallThicknessM?: number;
+	/** a suspended floor over a ventilated underfloor space (ISO 13370, 8.2) */
+	suspended?: NonNullable<ElementInput['ground']>['suspended'];
 };
 
 /** Older rows have only rsi/rse/layers; `ground`, `roofSpace` and `inclinationDeg` are optional additions. */
@@ -112,6 +114,7 @@ export function toElementInput(
 		if (area !== undefined) ground.areaM2 = area;
 		if (g.groundLambda !== undefined) ground.groundLambda = g.groundLambda;
 		if (g.wallThicknessM !== undefined) ground.wallThicknessM = g.wallThicknessM;
+		if (g.suspended !== undefined) ground.suspended = g.suspended;
 		input.ground = ground as ElementInput['ground'];
 	}
 	if (buildUp.roofSpace !== undefined) input.roofSpace = buildUp.roofSpace;

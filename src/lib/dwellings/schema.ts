@@ -186,7 +186,19 @@ export const storedBuildUpSchema = z.object({
 			}),
 			areaM2: z.number({ error: 'must be a number in m²' }).optional(),
 			groundLambda: z.number({ error: 'must be a number in W/(m·K)' }).optional(),
-			wallThicknessM: z.number({ error: 'must be a number in m' }).optional()
+			wallThicknessM: z.number({ error: 'must be a number in m' }).optional(),
+			/** a suspended floor; ranges are checked by the engine */
+			suspended: z
+				.object({
+					heightM: z.number({ error: 'must be a number in m' }),
+					underfloorWallU: z.number({ error: 'must be a number in W/(m²·K)' }),
+					openingsPerPerimeter: z.number({ error: 'must be a number in m²/m' }),
+					windSpeed: z.number({ error: 'must be a number in m/s' }),
+					windShielding: z.enum(['sheltered', 'average', 'exposed'], {
+						error: 'must be sheltered, average or exposed'
+					})
+				})
+				.optional()
 		})
 		.optional(),
 	/** roof space above an insulated ceiling (ISO 6946 roof-space resistance) */

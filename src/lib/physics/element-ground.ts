@@ -13,6 +13,7 @@ import {
 	slabOnGroundU
 } from './ground';
 import { fmt } from './note-format';
+import { analyseSuspendedFloor } from './ground-suspended';
 
 /**
  * Resistance Ru of the element's roof space, m²·K/W (ISO 6946:2017, Table 9, from memory; Table 3
@@ -50,6 +51,7 @@ export function groundFloorModel(
 	rBuildUp: number,
 	notes: string[]
 ): GroundFloorModel {
+	if (ground.suspended) return suspendedFloorModel(ground, ground.suspended, rsi, rse, rBuildUp, notes);
 	const rFloor = rBuildUp - rsi - rse;
 	const g = slabOnGroundU(ground, rsi, rFloor, rse);
 	// ≥ 0 by the formulas (1/U ≥ RT); the clamp only removes round-off
@@ -88,6 +90,79 @@ export function groundFloorModel(
 			rGround,
 			rBuildUp,
 			uBuildUp: 1 / rBuildUp
+		}
+	};
+}
+
+/**
+ * A suspended floor over a ventilated underfloor space, ISO 13370:2017, 8.2 (from memory): the layers
+ * are the deck, whose Uf = 1/(Rsi + Rf + Rsi) takes the internal surface resistance on both faces (the
+ * underfloor space is still air); U = 1/(1/Uf + 1/(Ug + Ux)) by ./ground-suspended. As for a slab, the
+ * floor is then carried as its equivalent resistance 1/U, the underfloor space and the ground adding
+ * 1/U − RT outside the deck.
+ */
+function suspendedFloorModel(
+	ground: NonNullable<ElementInput['ground']>,
+	sus: NonNullable<NonNullable<ElementInput['ground']>['suspended']>,
+	rsi: number,
+	rse: number,
+	rBuildUp: number,
+	notes: string[]
+): GroundFloorModel {
+	const rFloor = rBuildUp - rsi - rse;
+	const floorU = 1 / (rsi + rFloor + rsi);
+	const r = analyseSuspendedFloor({
+		perimeterM: ground.perimeterM,
+		areaM2: ground.areaM2,
+		groundLambda: ground.groundLambda,
+		wallThicknessM: ground.wallThicknessM,
+		floorU,
+		heightM: sus.heightM,
+		underfloorWallU: sus.underfloorWallU,
+		openingsPerPerimeter: sus.openingsPerPerimeter,
+		windSpeed: sus.windSpeed,
+		windShielding: sus.windShielding
+	});
+	const rTotal = 1 / r.u;
+	const rGround = Math.max(0, rTotal - rBuildUp);
+	notes.push(...r.notes);
+	notes.push(
+		`Suspended floor, U by ISO 13370:2017, 8.2: the deck Uf = 1/(Rsi + Rf + Rsi) = 1/(${fmt(rsi)} + ${fmt(rFloor)} + ${fmt(rsi)}) = ${fmt(floorU, 4)} W/(m²·K); ` +
+			`B′ = ${fmt(r.characteristicDimensionM)} m, dg = w + λ·(Rsi + Rg + Rse) = ${fmt(r.equivalentThicknessM)} m, Ug = ${fmt(r.ug, 4)}; ` +
+			`Ux = 2·h·Uw/B′ + 1450·ε·v·fw/B′ = ${fmt(r.uxWalls, 4)} + ${fmt(r.uxVentilation, 4)} = ${fmt(r.ux, 4)} W/(m²·K); ` +
+			`U = 1/(1/Uf + 1/(Ug + Ux)) = ${fmt(r.u, 4)} W/(m²·K).`
+	);
+	notes.push(
+		`The temperature profile and the surface check use the floor's equivalent resistance 1/U = ${fmt(rTotal)} m²·K/W: the underfloor space and the ground add ${fmt(rGround)} m²·K/W below the deck (a steady-state simplification).`
+	);
+	return {
+		rTotal,
+		rExternal: rse + rGround,
+		ground: {
+			method: 'ISO 13370:2017, 8.2 (suspended floor)',
+			perimeterM: ground.perimeterM,
+			areaM2: ground.areaM2,
+			characteristicDimensionM: r.characteristicDimensionM,
+			equivalentThicknessM: r.equivalentThicknessM,
+			groundLambda: r.groundLambda,
+			groundLambdaSource: r.groundLambdaSource,
+			wallThicknessM: r.wallThicknessM,
+			regime: 'suspended',
+			rGround,
+			rBuildUp,
+			uBuildUp: 1 / rBuildUp,
+			suspended: {
+				floorU,
+				ug: r.ug,
+				ux: r.ux,
+				uxWalls: r.uxWalls,
+				uxVentilation: r.uxVentilation,
+				heightM: sus.heightM,
+				underfloorWallU: sus.underfloorWallU,
+				openingsPerPerimeter: sus.openingsPerPerimeter,
+				windSpeed: sus.windSpeed,
+				windShieldingFactor: r.windShieldingFactor
+			}
 		}
 	};
 }

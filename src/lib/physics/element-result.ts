@@ -72,7 +72,8 @@ function groundFigures(
 			groundLambdaSource: g.groundLambdaSource,
 			wallThicknessM: g.wallThicknessM,
 			regime: g.regime,
-			rGround: g.rGround
+			rGround: g.rGround,
+			...(g.suspended ? { suspended: g.suspended } : {})
 		}
 	};
 }

@@ -296,6 +296,12 @@ const ELEMENT_RANGES: (readonly [string, readonly Rule[]])[] = [
 	['inclinationDeg', [[(v) => v >= 0 && v <= 90, 'must be 0–90° from the horizontal (0 flat, 90 vertical)']]],
 	['surfaceRsi', [[(v) => v > 0 && v <= 10, 'must be over 0 and at most 10 m²·K/W']]]
 ];
+const SUSPENDED_RANGES: (readonly [string, readonly Rule[]])[] = [
+	['heightM', [...NON_NEGATIVE, [(v) => v <= 10, 'must be ≤ 10 m']]],
+	['underfloorWallU', [...NON_NEGATIVE, [(v) => v <= 10, 'must be ≤ 10 W/(m²·K)']]],
+	['openingsPerPerimeter', [...NON_NEGATIVE, [(v) => v <= 1, 'must be ≤ 1 m²/m (1 000 000 mm² per metre)']]],
+	['windSpeed', [...NON_NEGATIVE, [(v) => v <= 50, 'must be ≤ 50 m/s']]]
+];
 const GROUND_RANGES: (readonly [string, readonly Rule[]])[] = [
 	['perimeterM', [...POSITIVE, [(v) => v <= 100000, 'must be ≤ 100 000 m']]],
 	['areaM2', [...POSITIVE, [(v) => v <= 1000000, 'must be ≤ 1 000 000 m²']]],
@@ -309,6 +315,7 @@ const DESIGN_RANGES: (readonly [string, readonly Rule[]])[] = [
 
 function refineGround(g: Record<string, unknown>, add: Add): void {
 	checkRanges(g, add, GROUND_RANGES);
+	if (isObject(g.suspended)) checkRanges(g.suspended, prefixed(add, ['suspended']), SUSPENDED_RANGES);
 	// P is the EXPOSED perimeter (ISO 13370: walls between heated spaces are left out), so a terraced
 	// house's floor may have far less perimeter than its shape; no lower bound beyond P > 0 but that
 	// of B′ = A/(0.5·P), which keeps the ground's U finite and above zero.
@@ -470,7 +477,32 @@ const groundShape = z.object({
 	/** thermal conductivity of the ground, W/(m·K); default 2.0 */
 	groundLambda: num().optional(),
 	/** thickness of the external walls, m; default 0.3 */
-	wallThicknessM: num().optional()
+	wallThicknessM: num().optional(),
+	/**
+	 * a suspended floor over a ventilated underfloor space (ISO 13370, 8.2): the layers are then the
+	 * floor deck, whose U takes an internal surface resistance on both faces
+	 */
+	suspended: z
+		.object(
+			{
+				/** h, height of the floor's upper surface above the outside ground, m */
+				heightM: num(),
+				/** Uw, U-value of the underfloor space's walls above the ground, W/(m²·K) */
+				underfloorWallU: num(),
+				/** ε, ventilation openings per metre of exposed perimeter, m²/m */
+				openingsPerPerimeter: num(),
+				/** v, mean wind speed at 10 m height, m/s */
+				windSpeed: num(),
+				windShielding: z.enum(['sheltered', 'average', 'exposed'], {
+					error: 'must be sheltered, average or exposed'
+				})
+			},
+			{
+				error:
+					'must be an object with heightM, underfloorWallU, openingsPerPerimeter, windSpeed and windShielding'
+			}
+		)
+		.optional()
 });
 
 export const roofSpaceSchema = z.enum(ROOF_SPACES, { error: `must be one of ${ROOF_SPACES.join(', ')}` });
@@ -819,6 +851,21 @@ export const groundResultSchema = z.object({
 	groundLambdaSource: z.string().optional(),
 	wallThicknessM: z.number(),
 	regime: z.string(),
+	/** a suspended floor (ISO 13370, 8.2): the deck's Uf, the ground's Ug and Ux with its two parts, W/(m²·K) */
+	suspended: z
+		.object({
+			floorU: z.number(),
+			ug: z.number(),
+			ux: z.number(),
+			uxWalls: z.number(),
+			uxVentilation: z.number(),
+			heightM: z.number(),
+			underfloorWallU: z.number(),
+			openingsPerPerimeter: z.number(),
+			windSpeed: z.number(),
+			windShieldingFactor: z.number()
+		})
+		.optional(),
 	/** resistance of the ground between the last layer and Rse that gives the floor's U, m²·K/W */
 	rGround: z.number()
 });

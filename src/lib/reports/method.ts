@@ -98,6 +98,20 @@ export function methodParagraphs(r: MethodResult): string[] {
 				? `The build-up by ISO 6946:2017, combined method (6.7.2), as if exposed to outside air: ${combinedFigures(r.rUpper!, r.rLower!, rBuildUp, r.relativeError)} (U = ${fx(uBuildUp, 4)} W/(m²·K)); the floor construction's resistance is Rf = RT − Rsi − Rse = ${fx(rFloor, 3)} m²·K/W.`
 				: `The build-up by ISO 6946:2017, as if exposed to outside air: RT = Rsi + ΣR + Rse = ${fx(rBuildUp, 3)} m²·K/W (U = ${fx(uBuildUp, 4)} W/(m²·K)); the floor construction's resistance is Rf = ΣR = ${fx(rFloor, 3)} m²·K/W.`
 		);
+		if (g.suspended) {
+			const sus = g.suspended;
+			if (g.groundLambdaSource)
+				out.push(
+					`Thermal conductivity of the ground λg = ${fx(g.groundLambda, 2)} W/(m·K), ${g.groundLambdaSource}.`
+				);
+			out.push(
+				`The floor deck over the ventilated underfloor space, with the internal surface resistance on both faces: Uf = 1/(Rsi + Rf + Rsi) = 1/(${fx(r.rsi, 2)} + ${fx(rFloor, 3)} + ${fx(r.rsi, 2)}) = ${fx(sus.floorU, 4)} W/(m²·K).`,
+				`U of the suspended floor by ISO 13370:2017, 8.2: B′ = A/(0.5·P) = ${trim(g.areaM2, 2)}/(0.5·${trim(g.perimeterM, 2)}) = ${fx(g.characteristicDimensionM, 2)} m; dg = w + λg·(Rsi + Rg + Rse) = ${fx(g.equivalentThicknessM, 3)} m; Ug = 2λg/(π·B′ + dg)·ln(π·B′/dg + 1) = ${fx(sus.ug, 4)} W/(m²·K); ` +
+					`Ux = 2·h·Uw/B′ + 1450·ε·v·fw/B′ = 2·${trim(sus.heightM, 3)}·${trim(sus.underfloorWallU, 3)}/${fx(g.characteristicDimensionM, 2)} + 1450·${trim(sus.openingsPerPerimeter, 5)}·${trim(sus.windSpeed, 2)}·${trim(sus.windShieldingFactor, 3)}/${fx(g.characteristicDimensionM, 2)} = ${fx(sus.uxWalls, 4)} + ${fx(sus.uxVentilation, 4)} = ${fx(sus.ux, 4)} W/(m²·K); U = 1/(1/Uf + 1/(Ug + Ux)) = ${fx(r.uUncorrected, 4)} W/(m²·K).`,
+				`The floor's equivalent resistance 1/U = ${fx(r.rTotal, 3)} m²·K/W is used for the temperature profile and the surface check: the underfloor space and the ground add ${fx(g.rGround, 3)} m²·K/W below the deck.`
+			);
+			return out;
+		}
 		const branch = groundBranch(g);
 		if (g.groundLambdaSource)
 			out.push(
