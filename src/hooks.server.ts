@@ -10,6 +10,7 @@ import { getSignedInMember } from '$lib/server/members';
 import { startWorkers } from '$lib/server/workers';
 // Background workers register themselves when their module is imported (one line each, below).
 import '$lib/server/audit/worker';
+import '$lib/server/library/reach-worker';
 import '$lib/server/outbox';
 
 /** Auth.js's database-session cookie (the __Secure- form is used behind HTTPS). */

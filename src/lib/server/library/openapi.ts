@@ -3,10 +3,13 @@
  * schemas the endpoints validate with. Merged into /api/v1/openapi.json.
  */
 import { listQuerySchema, materialValuesObject, MATERIAL_STATUSES, LAMBDA_KINDS } from '$lib/library/schema';
+import { DWELLING_STATUSES } from '$lib/dwellings/kinds';
+import { moveRequestSchema, reachQuerySchema } from './reach-schema';
 import { MATERIAL_CATEGORIES } from '$lib/library/categories';
 import {
 	fail,
 	idParam,
+	uuid,
 	issue,
 	jsonBody,
 	ok,
@@ -79,6 +82,179 @@ const valuesBody = (properties: Record<string, JsonSchema>) =>
 const writeBody = valuesBody({
 	confirmWarnings: { type: 'boolean', description: 'save values that are unusual for the category' }
 });
+
+/** The headline figures of an element's result: U as calculated and as reported, moisture, fRsi. */
+const outcome = {
+	type: 'object',
+	properties: {
+		u: { ...num, description: 'W/(m²·K), unrounded' },
+		uRounded: { ...num, description: 'W/(m²·K), as reported' },
+		moisture: { enum: ['none', 'dries', 'accumulates', null], description: 'ISO 13788 Glaser outcome' },
+		surfacePass: { type: ['boolean', 'null'], description: 'the fRsi surface-humidity check' },
+		pass: { type: ['boolean', 'null'], description: 'U as reported meets the limit (null: no limit or no U)' }
+	}
+};
+const reachElement = {
+	type: 'object',
+	properties: {
+		id: uuid,
+		name: { type: 'string' },
+		kind: { type: 'string' },
+		position: { type: 'integer' },
+		version: { type: 'integer' },
+		layers: {
+			type: 'array',
+			description: 'the layers of the material on an older revision',
+			items: {
+				type: 'object',
+				properties: {
+					layerIndex: { type: 'integer' },
+					fromRevisionId: uuid,
+					fromRevision: { type: 'integer' }
+				}
+			}
+		},
+		limit: { ...num, description: 'maximum U for the kind from the dwelling’s limit table, W/(m²·K)' },
+		now: { ...outcome, description: 'the stored result' },
+		next: { anyOf: [outcome, { type: 'null' }], description: 'recomputed with the current revision' },
+		error: { ...text, description: 'why the recompute with the current revision fails' },
+		passFlip: { enum: ['to-fail', 'to-pass', null] },
+		moistureChanged: { type: 'boolean' },
+		surfaceChanged: { type: 'boolean' },
+		stale: { type: 'boolean', description: 'the stored result is from another engine version' }
+	},
+	required: ['id', 'name', 'kind', 'layers', 'now', 'next', 'passFlip', 'moistureChanged']
+};
+const reachDwelling = {
+	type: 'object',
+	properties: {
+		id: uuid,
+		reference: { type: 'string' },
+		address: { type: 'string' },
+		status: { enum: [...DWELLING_STATUSES] },
+		statusLabel: { type: 'string' },
+		reopened: { type: 'boolean' },
+		needsReopening: {
+			type: 'boolean',
+			description: 'accepted, or awaiting review and not reopened: its elements are skipped by a move'
+		},
+		refusal: text,
+		issuedReports: { type: 'integer', description: 'issued dwelling reports (every revision)' },
+		lastIssuedAt: { ...text, format: 'date-time' },
+		changesSinceIssue: { type: ['integer', 'null'] },
+		auditDecision: { ...text, description: 'the latest audit decision on the dwelling, in any batch' },
+		audit: {
+			type: ['object', 'null'],
+			description: 'the dwelling’s latest audit item; open while it waits for a decision in an open batch',
+			properties: {
+				itemId: uuid,
+				batchId: uuid,
+				batchName: { type: 'string' },
+				open: { type: 'boolean' },
+				decision: text,
+				decidedAt: { ...text, format: 'date-time' }
+			}
+		},
+		limitTable: { type: ['object', 'null'] },
+		elements: { type: 'array', items: reachElement }
+	},
+	required: ['id', 'reference', 'status', 'needsReopening', 'issuedReports', 'elements']
+};
+const count = { type: 'integer' };
+const reach = {
+	type: 'object',
+	properties: {
+		material: {
+			type: 'object',
+			properties: { id: uuid, code: { type: 'string' }, name: { type: 'string' } }
+		},
+		to: {
+			type: 'object',
+			description: 'the current revision, which the elements would move to',
+			properties: { id: uuid, revision: count, status: { type: 'string' } }
+		},
+		olderRevisions: { type: 'array', items: count },
+		onSupersededCurrent: {
+			type: ['object', 'null'],
+			description:
+				'when the current revision is itself superseded (no newer revision yet): the work that uses it',
+			properties: { elements: count, dwellings: count }
+		},
+		totals: {
+			type: 'object',
+			description: 'over every dwelling, not only this page',
+			properties: Object.fromEntries(
+				[
+					'elements',
+					'dwellings',
+					'flips',
+					'toFail',
+					'toPass',
+					'moistureChanges',
+					'surfaceChanges',
+					'errors',
+					'withIssuedReports',
+					'needsReopening',
+					'accepted',
+					'inOpenAudit',
+					'staleResults'
+				].map((k) => [k, count])
+			)
+		},
+		distinctInputs: count,
+		page: count,
+		pageSize: count,
+		pages: count,
+		dwellings: { type: 'array', items: reachDwelling }
+	},
+	required: ['material', 'to', 'totals', 'dwellings', 'page', 'pages']
+};
+const move = {
+	type: 'object',
+	properties: {
+		id: uuid,
+		materialId: uuid,
+		toRevisionId: uuid,
+		toRevision: { type: ['integer', 'null'] },
+		state: { enum: ['queued', 'running', 'done', 'failed'] },
+		total: count,
+		done: count,
+		moved: count,
+		already: count,
+		skipped: count,
+		failed: count,
+		error: text,
+		createdAt: { type: 'string', format: 'date-time' },
+		finishedAt: { ...text, format: 'date-time' },
+		background: { type: 'boolean' }
+	},
+	required: ['id', 'state', 'total', 'done']
+};
+const moveWithItems = {
+	type: 'object',
+	properties: {
+		move,
+		items: {
+			type: 'array',
+			description: 'each element done so far, refused ones first (at most 500)',
+			items: {
+				type: 'object',
+				properties: {
+					elementId: uuid,
+					outcome: { enum: ['moved', 'already', 'skipped', 'failed'] },
+					reason: { ...text, description: 'why it was not moved, e.g. reopen the dwelling first' },
+					fromRevision: { type: ['integer', 'null'] },
+					toRevision: { type: ['integer', 'null'] },
+					version: { type: ['integer', 'null'], description: 'the element’s version after the move' },
+					elementName: text,
+					dwellingId: { type: ['string', 'null'], format: 'uuid' },
+					dwellingReference: text
+				}
+			}
+		}
+	},
+	required: ['move', 'items']
+};
 
 export const paths: Record<string, unknown> = {
 	'/api/v1/materials': {
@@ -256,6 +432,68 @@ export const paths: Record<string, unknown> = {
 					}
 				}),
 				400: fail('No build-up given')
+			}
+		}
+	},
+	'/api/v1/materials/{materialId}/reach': {
+		parameters: [materialId],
+		get: {
+			summary:
+				'Elements on an older revision of the material, grouped by dwelling, with the effect of the current one',
+			description:
+				'Every element of the organisation with a layer of the material on a revision older than the current one, ' +
+				'with its U now (stored result) and recomputed with the current revision, the limit, whether pass/fail ' +
+				'or the moisture outcome would change, and per dwelling its status and issued reports. One page of ' +
+				'dwellings; the totals count every one. Steady-state results that support, not replace, professional judgement.',
+			tags: ['Library'],
+			parameters: queryParams(reachQuerySchema),
+			responses: {
+				200: ok('The reach (one page of dwellings)', reach),
+				400: fail('A query parameter is not right'),
+				404: fail('No such material')
+			}
+		}
+	},
+	'/api/v1/materials/{materialId}/reach/move': {
+		parameters: [materialId],
+		post: {
+			summary: 'Move elements to the current revision; assessors and admins',
+			description:
+				'Each element is saved through the element service: versioned, recomputed, logged (move-revision) and ' +
+				'counted as a change since issue. Elements of a dwelling that must be reopened first are skipped with ' +
+				'the reason; an element already on the revision is not moved again. Up to 50 elements are moved at once ' +
+				'(200); more run as a background job (202) followed by GET …/reach/move/{moveId}.',
+			tags: ['Library'],
+			requestBody: jsonBody(moveRequestSchema),
+			responses: {
+				200: ok('The move, done, with the outcome of each element', moveWithItems),
+				202: ok('The move, queued as a background job', moveWithItems),
+				400: fail('The body is not right'),
+				403: fail('Not allowed'),
+				404: fail('No such material'),
+				409: fail('The revision is not the current one')
+			}
+		}
+	},
+	'/api/v1/materials/{materialId}/reach/move/{moveId}': {
+		parameters: [materialId, idParam('moveId')],
+		get: {
+			summary: 'A move with its progress and each element’s outcome so far',
+			tags: ['Library'],
+			responses: { 200: ok('The move', moveWithItems), 404: fail('No such move of this material') }
+		}
+	},
+	'/api/v1/materials/{materialId}/reach/references.csv': {
+		parameters: [materialId],
+		get: {
+			summary: 'References of the dwellings with elements on an older revision, as CSV (for an audit batch)',
+			tags: ['Library'],
+			responses: {
+				200: {
+					description: 'CSV with a reference column',
+					content: { 'text/csv': { schema: { type: 'string' } } }
+				},
+				404: fail('No such material')
 			}
 		}
 	}

@@ -13,7 +13,32 @@ export async function load(event) {
 		listAssessors(member.organisationId),
 		listProgrammes(member.organisationId)
 	]);
-	return { assessors, programmes, statuses: DWELLING_STATUSES };
+	return {
+		assessors,
+		programmes,
+		statuses: DWELLING_STATUSES,
+		prefill: prefilledReferences(event.url),
+		prefillName: prefilledName(event.url)
+	};
+}
+
+/**
+ * `?references=` (one per line): dwelling references to start a batch "from a list of references" with,
+ * as a link from another page (a material's reach) gives them. At most 5,000; checked like any typed
+ * list when the batch is created (a reference may hold a comma, so only line breaks separate them).
+ */
+function prefilledReferences(url: URL): string[] {
+	const raw = url.searchParams.get('references') ?? '';
+	const refs = raw
+		.split(/[\r\n]+/)
+		.map((r) => r.trim())
+		.filter((r) => r.length > 0 && r.length <= 200);
+	return [...new Set(refs)].slice(0, 5000);
+}
+
+/** `?name=`: the batch name the linking page suggests (checked like a typed one on creation). */
+function prefilledName(url: URL): string {
+	return (url.searchParams.get('name') ?? '').trim().slice(0, 200);
 }
 
 const text = (f: FormData, k: string) => {
