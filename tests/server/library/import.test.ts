@@ -89,6 +89,16 @@ describe.skipIf(!hasDatabase)('material library CSV', async () => {
 		);
 		const csv = imp.materialsToCsv(await lib.listAllCurrent(t.org.id));
 		expect(csv.startsWith('\uFEFFcode,name,')).toBe(true);
+		// a material without a manufacturer is written with the manufacturer left blank, not "generic"
+		const lines = csv.split('\r\n');
+		const col = lines[0].replace('\uFEFF', '').split(',').indexOf('manufacturer');
+		expect(
+			lines
+				.slice(1)
+				.filter(Boolean)
+				.every((l) => !/(^|,)generic(,|$)/.test(l))
+		).toBe(true);
+		expect(col).toBeGreaterThan(0);
 		const back = await preview(t.org.id, enc(csv));
 		if (back.kind !== 'preview') throw new Error(back.message);
 		expect(back.counts).toEqual({ new: 0, changed: 0, unchanged: 45, rejected: 0, warnings: 0 });

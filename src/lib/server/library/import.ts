@@ -983,7 +983,14 @@ export function materialsToCsv(items: MaterialValues[]): string {
 	function* rows(): Generator<Cell[]> {
 		for (const v of items)
 			yield IMPORT_FIELDS.map((f) =>
-				f === 'indicative' ? (v.indicative ? 'yes' : 'no') : ((v as Record<string, unknown>)[f] as Cell)
+				f === 'indicative'
+					? v.indicative
+						? 'yes'
+						: 'no'
+					: // no manufacturer is kept as 'generic' and written as the blank it was typed as (read back the same)
+						f === 'manufacturer' && v.manufacturer === 'generic'
+						? ''
+						: ((v as Record<string, unknown>)[f] as Cell)
 			);
 	}
 	return toCsv(headers, rows());
