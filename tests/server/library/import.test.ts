@@ -124,6 +124,9 @@ describe.skipIf(!hasDatabase)('material library CSV', async () => {
 		expect(p.file).toMatchObject({ delimiter: ';', decimal: ',', bom: true });
 		expect(issues(p)).toEqual(['line 2: new', 'line 3: new']);
 		expect(p.rows[0].warnings.map((w) => w.column)).toEqual(['density']); // 1200 kg/m³ insulation: unusual
+		// the preview shows the numbers as read: "0,035" became 0.035 and "1 200" 1200
+		expect(p.rows[0].read).toEqual({ lambda: 0.035, density: 1200 });
+		expect(p.rows[1].read).toEqual({ lambda: 0.04, density: 30 });
 		await expect(commit(t, enc(text), p.token)).rejects.toThrow(/1 row has warnings; confirm/);
 		expect(await commit(t, enc(text), p.token, { confirmWarnings: true })).toMatchObject({ added: 2 });
 		const r = await lib.listMaterials(t.org.id, { q: 'SC-', page: 1, pageSize: 5, sort: 'code' });

@@ -147,7 +147,44 @@ export type PreviewRow = {
 	errors: RowIssue[];
 	warnings: RowIssue[];
 	changes: FieldChange[];
+	/**
+	 * The values the row was read as, for a new or changed row (λ or R, μ or sd, density, specific heat,
+	 * thickness range), so that "0,032" can be seen to have become 0.032.
+	 */
+	read?: ReadValues;
 };
+export type ReadValues = Partial<
+	Pick<
+		MaterialValues,
+		| 'lambda'
+		| 'resistance'
+		| 'muDry'
+		| 'sd'
+		| 'density'
+		| 'specificHeat'
+		| 'thicknessMinMm'
+		| 'thicknessMaxMm'
+	>
+>;
+const READ_FIELDS = [
+	'lambda',
+	'resistance',
+	'muDry',
+	'sd',
+	'density',
+	'specificHeat',
+	'thicknessMinMm',
+	'thicknessMaxMm'
+] as const;
+/** The numbers of a row as read (only those given). */
+function readValues(v: MaterialValues): ReadValues {
+	const out: Record<string, number> = {};
+	for (const f of READ_FIELDS) {
+		const x = (v as Record<string, unknown>)[f];
+		if (typeof x === 'number') out[f] = x;
+	}
+	return out as ReadValues;
+}
 export type ImportCounts = {
 	new: number;
 	changed: number;
@@ -706,7 +743,7 @@ function compareRow(r: ParsedRow, existing: CurrentByCode, c: Comparison): Previ
 		c.counts.new++;
 		if (r.warnings.length) c.counts.warnings++;
 		c.added.push(r.values);
-		return { ...base, status: 'new', changes: NONE };
+		return { ...base, status: 'new', changes: NONE, read: readValues(r.values) };
 	}
 	const changes = diffValues(cur.values, r.values);
 	if (changes.length === 0) {
@@ -722,7 +759,7 @@ function compareRow(r: ParsedRow, existing: CurrentByCode, c: Comparison): Previ
 		revision: cur.revision,
 		values: r.values
 	});
-	return { ...base, warnings, status: 'changed', changes };
+	return { ...base, warnings, status: 'changed', changes, read: readValues(r.values) };
 }
 
 /** The same file, mapping and library state give the same token, in any process. */
