@@ -556,6 +556,68 @@ export async function setMaterialStatus(
 	return (await getCurrentRevision(actor.organisationId, materialId))!;
 }
 
+export type BulkVerifyOutcome = {
+	verified: { revisionId: string; materialId: string; code: string; revision: number }[];
+	/** revisions left as they were, each with the reason */
+	skipped: { revisionId: string; code: string | null; reason: string }[];
+};
+
+/**
+ * Verify several current revisions at once (supervisors and admins; the caller checks the role), in one
+ * transaction. The same rules as one at a time: only an unverified current revision, never by its author;
+ * a revision that breaks a rule is left as it was and listed with its reason, the others are verified.
+ * Each verification is logged as a single one is.
+ */
+export async function verifyMaterials(actor: Actor, revisionIds: string[]): Promise<BulkVerifyOutcome> {
+	return db.transaction(async (trx) => {
+		const rows = await trx('material_revisions as r')
+			.join('materials as m', 'm.id', 'r.material_id')
+			.where('r.organisation_id', actor.organisationId)
+			.whereIn('r.id', revisionIds)
+			.orderBy('m.code')
+			.forUpdate()
+			.select(
+				'r.id',
+				'r.status',
+				'r.created_by',
+				'r.revision',
+				'm.id as material_id',
+				'm.code',
+				'm.current_revision_id'
+			);
+		const byId = new Map(rows.map((r) => [r.id as string, r]));
+		const out: BulkVerifyOutcome = { verified: [], skipped: [] };
+		for (const id of [...new Set(revisionIds)]) {
+			const r = byId.get(id);
+			const skip = (reason: string) => out.skipped.push({ revisionId: id, code: r?.code ?? null, reason });
+			if (!r) skip('no such revision in this library');
+			else if (r.current_revision_id !== r.id)
+				skip(`revision ${r.revision} is no longer current: a newer one was written; check that one`);
+			else if (r.status !== 'unverified') skip(`revision ${r.revision} is already ${r.status}`);
+			else if (r.created_by === actor.userId)
+				skip('you wrote this revision: someone else checks it against its source and verifies it');
+			else {
+				await trx('material_revisions')
+					.where({ id })
+					.update({ status: 'verified', verified_by: actor.userId, verified_at: trx.fn.now() });
+				await logActivity(
+					{
+						organisationId: actor.organisationId,
+						userId: actor.userId,
+						action: 'verify',
+						entity: 'material',
+						entityId: r.material_id,
+						details: { code: r.code, revisionId: id, revision: r.revision, bulk: true }
+					},
+					trx
+				);
+				out.verified.push({ revisionId: id, materialId: r.material_id, code: r.code, revision: r.revision });
+			}
+		}
+		return out;
+	});
+}
+
 export type ElementUse = {
 	id: string;
 	name: string;

@@ -323,6 +323,57 @@ export const paths: Record<string, unknown> = {
 			}
 		}
 	},
+	'/api/v1/materials/verify': {
+		post: {
+			summary:
+				'Verify several current revisions at once; supervisors and admins. A revision that may not be verified (not current, not unverified, written by the caller) is left as it was and listed with the reason',
+			tags: ['Library'],
+			requestBody: jsonBody({
+				type: 'object',
+				properties: {
+					revisionIds: {
+						type: 'array',
+						items: { type: 'string', format: 'uuid' },
+						minItems: 1,
+						maxItems: 200
+					}
+				},
+				required: ['revisionIds']
+			}),
+			responses: {
+				200: ok('What was verified and what was left, with why', {
+					type: 'object',
+					properties: {
+						verified: {
+							type: 'array',
+							items: {
+								type: 'object',
+								properties: {
+									revisionId: { type: 'string', format: 'uuid' },
+									materialId: { type: 'string', format: 'uuid' },
+									code: { type: 'string' },
+									revision: { type: 'integer' }
+								}
+							}
+						},
+						skipped: {
+							type: 'array',
+							items: {
+								type: 'object',
+								properties: {
+									revisionId: { type: 'string', format: 'uuid' },
+									code: text,
+									reason: { type: 'string' }
+								}
+							}
+						}
+					}
+				}),
+				400: fail('Not right'),
+				403: fail('Not allowed')
+			}
+		}
+	},
 	'/api/v1/materials/{materialId}/status': {
 		parameters: [materialId],
 		post: {
