@@ -232,7 +232,8 @@ export function sectionSvg(d: SectionDrawing, opts: SectionSvgOptions = {}): str
 		out.push(...items);
 		height += 22;
 	}
-	return `<svg xmlns="http://www.w3.org/2000/svg" viewBox="0 0 ${width} ${n(height)}" width="${width}" height="${n(height)}" font-family="Source Sans 3, sans-serif" role="img"><defs>${patterns(id)}</defs>${out.join('')}</svg>`;
+	const alt = `Section through the build-up, inside on the left: ${d.bands.map((b) => `${b.index + 1} ${b.name} ${n(b.thicknessMm)} mm`).join(', ')}. ${sectionCaption(d)}`;
+	return `<svg xmlns="http://www.w3.org/2000/svg" viewBox="0 0 ${width} ${n(height)}" width="${width}" height="${n(height)}" font-family="Source Sans 3, sans-serif" role="img" aria-label="${esc(alt)}"><title>${esc(alt)}</title><defs>${patterns(id)}</defs>${out.join('')}</svg>`;
 }
 
 /** The words under the drawing: the month its lines are for, and how it is drawn. */
