@@ -363,6 +363,20 @@ describe.skipIf(!hasDatabase)('audit batches (PostgreSQL)', async () => {
 			expect(it.flags.length).toBeGreaterThan(0);
 		}
 		expect(items.some((i) => i.pickedBecause.startsWith('carries'))).toBe(true);
+		// counted first, without a batch: the same population and sample, and nothing written
+		const before = await tdb()('audit_batches').where({ organisation_id: p.org.id }).count('* as n').first();
+		const preview = await audits.previewBatch(sup, {
+			name: 'preview',
+			source: 'filter',
+			filter: { programme: p.prog },
+			sampling: { rule: 'random', percent: 10, minimumPerAssessor: 1, includeFlagged: true },
+			seed: 'abc'
+		});
+		expect(preview).toMatchObject({ population: 6, sample: 2, includeFlagged: true });
+		expect(preview.assessors.reduce((n, a) => n + a.matching, 0)).toBe(6);
+		expect(preview.assessors.every((a) => a.sampled === 1)).toBe(true);
+		const after = await tdb()('audit_batches').where({ organisation_id: p.org.id }).count('* as n').first();
+		expect(after).toEqual(before);
 		// the same seed again picks the same sample
 		const again = await audits.createBatch(sup, {
 			name: 'Again',

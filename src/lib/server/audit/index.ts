@@ -140,6 +140,84 @@ async function resolveReferences(
 }
 
 /**
+ * The dwellings a new batch is drawn from (its population): by the reference list, every line checked,
+ * or by the filter. A 400 naming the field when none match.
+ */
+async function resolvePopulation(
+	orgId: string,
+	input: NewBatch & { referenceLines?: { line: number; reference: string }[] },
+	trx: Db
+): Promise<Candidate[]> {
+	let population: Candidate[];
+	if (input.source === 'references') {
+		const lines =
+			input.referenceLines ??
+			(input.references ?? []).map((reference, i) => ({ line: i + 1, reference: reference.trim() }));
+		population = await resolveReferences(
+			orgId,
+			lines.filter((l) => l.reference !== ''),
+			trx
+		);
+	} else {
+		if (input.filter.assessorId) {
+			const m = await trx('memberships')
+				.where({ organisation_id: orgId, user_id: input.filter.assessorId })
+				.first('user_id');
+			if (!m)
+				throw new ValidationError(
+					[{ path: 'filter.assessorId', message: 'is not a member of this organisation' }],
+					'The assessor is not a member of this organisation.'
+				);
+		}
+		population = await resolveFilter(orgId, input.filter, trx);
+	}
+	if (population.length === 0) {
+		throw new ValidationError(
+			[{ path: input.source === 'references' ? 'references' : 'filter', message: 'no dwellings match' }],
+			'No dwellings match; nothing was created.'
+		);
+	}
+	return population;
+}
+
+export type BatchPreview = {
+	/** dwellings that match the filter or the list */
+	population: number;
+	/** how many the sample will hold (its members are drawn when the batch is created) */
+	sample: number;
+	/** by assessor: matching and sampled */
+	assessors: { name: string; matching: number; sampled: number }[];
+	includeFlagged: boolean;
+};
+
+/**
+ * What a batch would hold, without creating it: the matching dwellings and the size of the sample by the
+ * rule (with the seed given, the very dwellings; without, a draw of the same size), by assessor.
+ */
+export async function previewBatch(
+	member: Pick<Member, 'organisationId'>,
+	input: NewBatch & { referenceLines?: { line: number; reference: string }[] }
+): Promise<BatchPreview> {
+	const population = await resolvePopulation(member.organisationId, input, db);
+	const sampling = input.sampling as SamplingRule;
+	const picks = new Set(sampleDwellings(population, sampling, input.seed || 'preview').map((p) => p.id));
+	const by = new Map<string, { name: string; matching: number; sampled: number }>();
+	for (const c of population) {
+		const key = c.assessorId ?? '';
+		const row = by.get(key) ?? { name: c.assessorName ?? 'No assessor', matching: 0, sampled: 0 };
+		row.matching++;
+		if (picks.has(c.id)) row.sampled++;
+		by.set(key, row);
+	}
+	return {
+		population: population.length,
+		sample: picks.size,
+		assessors: [...by.values()].sort((a, b) => a.name.localeCompare(b.name)),
+		includeFlagged: Boolean((sampling as { includeFlagged?: boolean }).includeFlagged)
+	};
+}
+
+/**
  * Create a batch: resolve the dwellings (filter or references), draw the sample with a stored seed,
  * write the batch and its items, and log it, in one transaction. The recompute (which also adds
  * flagged dwellings when the rule asks for them) is queued by the caller.
@@ -150,35 +228,7 @@ export async function createBatch(
 ): Promise<{ id: string; items: number; population: number }> {
 	const orgId = member.organisationId;
 	return db.transaction(async (trx) => {
-		let population: Candidate[];
-		if (input.source === 'references') {
-			const lines =
-				input.referenceLines ??
-				(input.references ?? []).map((reference, i) => ({ line: i + 1, reference: reference.trim() }));
-			population = await resolveReferences(
-				orgId,
-				lines.filter((l) => l.reference !== ''),
-				trx
-			);
-		} else {
-			if (input.filter.assessorId) {
-				const m = await trx('memberships')
-					.where({ organisation_id: orgId, user_id: input.filter.assessorId })
-					.first('user_id');
-				if (!m)
-					throw new ValidationError(
-						[{ path: 'filter.assessorId', message: 'is not a member of this organisation' }],
-						'The assessor is not a member of this organisation.'
-					);
-			}
-			population = await resolveFilter(orgId, input.filter, trx);
-		}
-		if (population.length === 0) {
-			throw new ValidationError(
-				[{ path: input.source === 'references' ? 'references' : 'filter', message: 'no dwellings match' }],
-				'No dwellings match; nothing was created.'
-			);
-		}
+		const population = await resolvePopulation(orgId, input, trx);
 		const seed = input.seed && input.seed !== '' ? input.seed : newSeed();
 		const sampling = input.sampling as SamplingRule;
 		const picks = sampleDwellings(population, sampling, seed);

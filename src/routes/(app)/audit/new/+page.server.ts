@@ -1,6 +1,6 @@
 import { fail, redirect } from '@sveltejs/kit';
 import { requireRole } from '$lib/server/guard';
-import { createBatch, listAssessors, listProgrammes } from '$lib/server/audit';
+import { createBatch, listAssessors, listProgrammes, previewBatch } from '$lib/server/audit';
 import { enqueueRecompute } from '$lib/server/audit/worker';
 import { parseReferenceFile, parseReferenceText, type ReferenceLine } from '$lib/server/audit/references';
 import { newBatchSchema } from '$lib/audit/schemas';
@@ -50,79 +50,113 @@ const number = (f: FormData, k: string) => {
 	return v === undefined ? undefined : Number(v.replace(',', '.'));
 };
 
-export const actions = {
-	create: async (event) => {
-		const member = requireRole(event, 'supervisor', 'admin');
-		const f = await event.request.formData();
-		const values = Object.fromEntries([...f.entries()].filter(([, v]) => typeof v === 'string')) as Record<
-			string,
-			string
-		>;
-		const statuses = f.getAll('statuses').filter((s): s is string => typeof s === 'string');
-		const source = text(f, 'source') === 'references' ? 'references' : 'filter';
-		let referenceLines: ReferenceLine[] | undefined;
-		if (source === 'references') {
-			const file = f.get('file');
-			const parsed =
-				file instanceof File && file.size > 0
-					? parseReferenceFile(new Uint8Array(await file.arrayBuffer()))
-					: parseReferenceText(text(f, 'references') ?? '');
-			if (parsed.issues.length) {
-				return fail(400, {
+/** An expected refusal as the form's answer: field messages beside their fields, reference lines listed. */
+function refused(e: AppError, values: Record<string, string>, statuses: string[]) {
+	const errors: Record<string, string> = {};
+	for (const i of e.issues) if (i.line === undefined) errors[i.path] ??= i.message;
+	return fail(e.status, {
+		values,
+		statuses,
+		message: e.message,
+		errors,
+		lines: e.issues.filter((i) => i.line !== undefined).map((i) => i.message)
+	});
+}
+
+/** The form as a new batch's input, or the answer that says what is wrong with it. */
+async function readBatchForm(f: FormData, forPreview: boolean) {
+	const values = Object.fromEntries([...f.entries()].filter(([, v]) => typeof v === 'string')) as Record<
+		string,
+		string
+	>;
+	const statuses = f.getAll('statuses').filter((s): s is string => typeof s === 'string');
+	const source = text(f, 'source') === 'references' ? 'references' : 'filter';
+	let referenceLines: ReferenceLine[] | undefined;
+	if (source === 'references') {
+		const file = f.get('file');
+		const parsed =
+			file instanceof File && file.size > 0
+				? parseReferenceFile(new Uint8Array(await file.arrayBuffer()))
+				: parseReferenceText(text(f, 'references') ?? '');
+		if (parsed.issues.length) {
+			return {
+				failure: fail(400, {
 					values,
 					statuses,
 					message: 'The reference list could not be used; nothing was created.',
 					errors: {},
 					lines: parsed.issues.map((i) => i.message)
-				});
-			}
-			referenceLines = parsed.lines;
+				})
+			} as const;
 		}
-		const rule = text(f, 'rule') === 'random' ? 'random' : 'all';
-		const raw = {
-			name: text(f, 'name') ?? '',
-			source,
-			filter: {
-				assessorId: text(f, 'assessorId'),
-				issuedFrom: text(f, 'issuedFrom'),
-				issuedTo: text(f, 'issuedTo'),
-				statuses: statuses.length ? statuses : undefined,
-				programme: text(f, 'programme')
-			},
-			references: referenceLines?.map((l) => l.reference),
-			sampling:
-				rule === 'random'
-					? {
-							rule,
-							percent: number(f, 'percent'),
-							minimumPerAssessor: number(f, 'minimumPerAssessor') ?? 0,
-							includeFlagged: f.get('includeFlagged') === 'on'
-						}
-					: { rule, includeFlagged: f.get('includeFlagged') === 'on' },
-			seed: text(f, 'seed')
-		};
-		const parsed = newBatchSchema.safeParse(raw);
-		if (!parsed.success) {
-			const errors: Record<string, string> = {};
-			for (const i of parsed.error.issues) errors[i.path.map(String).join('.')] ??= i.message;
-			return fail(400, { values, statuses, message: 'Check the marked fields.', errors, lines: [] });
-		}
-		let id: string;
+		referenceLines = parsed.lines;
+	}
+	const rule = text(f, 'rule') === 'random' ? 'random' : 'all';
+	const raw = {
+		// a count before the batch is named: any name will do
+		name: text(f, 'name') ?? (forPreview ? 'preview' : ''),
+		source,
+		filter: {
+			assessorId: text(f, 'assessorId'),
+			issuedFrom: text(f, 'issuedFrom'),
+			issuedTo: text(f, 'issuedTo'),
+			statuses: statuses.length ? statuses : undefined,
+			programme: text(f, 'programme')
+		},
+		references: referenceLines?.map((l) => l.reference),
+		sampling:
+			rule === 'random'
+				? {
+						rule,
+						percent: number(f, 'percent'),
+						minimumPerAssessor: number(f, 'minimumPerAssessor') ?? 0,
+						includeFlagged: f.get('includeFlagged') === 'on'
+					}
+				: { rule, includeFlagged: f.get('includeFlagged') === 'on' },
+		seed: text(f, 'seed')
+	};
+	const parsed = newBatchSchema.safeParse(raw);
+	if (!parsed.success) {
+		const errors: Record<string, string> = {};
+		for (const i of parsed.error.issues) errors[i.path.map(String).join('.')] ??= i.message;
+		return {
+			failure: fail(400, { values, statuses, message: 'Check the marked fields.', errors, lines: [] })
+		} as const;
+	}
+	return { values, statuses, referenceLines, input: parsed.data } as const;
+}
+
+export const actions = {
+	/** What the batch would hold, before it is created: the matching dwellings and the sample's size. */
+	preview: async (event) => {
+		const member = requireRole(event, 'supervisor', 'admin');
+		const form = await readBatchForm(await event.request.formData(), true);
+		if ('failure' in form) return form.failure;
+		const { values, statuses, referenceLines, input } = form;
 		try {
-			const created = await createBatch(member, { ...parsed.data, referenceLines, references: undefined });
-			id = created.id;
+			const preview = await previewBatch(member, { ...input, referenceLines, references: undefined });
+			return { values, statuses, preview };
 		} catch (e) {
 			if (e instanceof AppError) {
-				const errors: Record<string, string> = {};
-				for (const i of e.issues) if (i.line === undefined) errors[i.path] ??= i.message;
-				return fail(e.status, {
-					values,
-					statuses,
-					message: e.message,
-					errors,
-					lines: e.issues.filter((i) => i.line !== undefined).map((i) => i.message)
-				});
+				// nothing is created by a count, so the refusal need not say so
+				e.message = e.message.replace('; nothing was created.', '.');
+				return refused(e, values, statuses);
 			}
+			throw e;
+		}
+	},
+
+	create: async (event) => {
+		const member = requireRole(event, 'supervisor', 'admin');
+		const form = await readBatchForm(await event.request.formData(), false);
+		if ('failure' in form) return form.failure;
+		const { values, statuses, referenceLines, input: data } = form;
+		let id: string;
+		try {
+			const created = await createBatch(member, { ...data, referenceLines, references: undefined });
+			id = created.id;
+		} catch (e) {
+			if (e instanceof AppError) return refused(e, values, statuses);
 			throw e;
 		}
 		await enqueueRecompute(member.organisationId, id, member.user.id);
