@@ -1,11 +1,16 @@
 import { test, expect, type Page, type TestInfo } from '@playwright/test';
+import { execFileSync } from 'node:child_process';
+import { mkdtempSync, rmSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
 import path from 'node:path';
 import { DEMO, signInAs, waitForApp } from './helpers';
 
 // Junctions built from a dwelling's own elements, computed live in a Web Worker and drawn: an
 // assessor makes a dwelling with a wall and a ground floor (through the API, leaving the demo data
 // alone), adds an external corner and a wall–ground floor junction, sees the picture and ψ, and finds
-// both in the dwelling's transmission heat loss. Expected signs: an external corner of one wall has
+// both in the dwelling's transmission heat loss; the dwelling report, previewed and then issued, has a
+// page for each junction and the heat-loss totals (its text by poppler's pdftotext, Debian
+// poppler-utils; its pages rendered by pdftoppm for a look). Expected signs: an external corner of one wall has
 // ψ < 0 on external dimensions (ISO 13789 dimension systems, as recalled; common practice, no source).
 // Build-ups: generic, indicative values invented for this test.
 
@@ -39,6 +44,19 @@ const FLOOR = {
 	},
 	internal: { temperature: 20, humidityClass: 3 }
 };
+
+const work = mkdtempSync(path.join(tmpdir(), 'envelo-e2e-junctions-'));
+test.afterAll(() => rmSync(work, { recursive: true, force: true }));
+
+/** A PDF's pages as text in the order they were written, whitespace folded. */
+function pdfPages(pdf: Buffer, name: string): string[] {
+	const file = path.join(work, name);
+	writeFileSync(file, pdf);
+	return execFileSync('pdftotext', ['-raw', file, '-'], { encoding: 'utf8' })
+		.split('\f')
+		.filter((p) => p.trim())
+		.map((p) => p.replace(/\s+/g, ' '));
+}
 
 /** Where a screenshot goes: the test's output folder, or JUNCTION_SCREENSHOTS to keep them for a look. */
 const shot = (info: TestInfo, name: string) =>
@@ -80,7 +98,7 @@ test('an assessor adds an external corner and a wall–ground floor junction fro
 	page,
 	context
 }, info) => {
-	test.setTimeout(120_000);
+	test.setTimeout(180_000);
 	const workers: string[] = [];
 	page.on('worker', (w) => workers.push(w.url()));
 	await signInAs(context, DEMO.assessor);
@@ -139,4 +157,58 @@ test('an assessor adds an external corner and a wall–ground floor junction fro
 	const shown = Number((await page.getByTestId('sum-psi-l').textContent())!.trim().split(/\s/)[0]);
 	expect(Math.abs(shown - (corner * 10.4 + edge * 30))).toBeLessThan(0.1); // ψ shown to 3 decimals
 	await page.screenshot({ path: shot(info, 'junction-list.png'), fullPage: true });
+
+	// The dwelling report: previewed, then issued, each with a page per junction and the heat loss.
+	const checkReport = (pages: string[]) => {
+		const summary = pages[0];
+		expect(summary).toContain('Junctions and transmission heat loss');
+		expect(summary).toMatch(/Corners External corner \(walls\) 10\.40 −?\d\.\d{3}/);
+		expect(summary).toMatch(/Ground floor edge Wall – ground floor 30\.00 −?\d\.\d{3}/);
+		expect(summary).toMatch(/Σψ·L \(junctions\) −?\d+\.\d{2} W\/K/);
+		expect(summary).toMatch(/HT = ΣU·A \+ Σψ·L −?\d+\.\d{2} W\/K/);
+		const junctionPages = pages.filter((p) => /JUNCTION \d OF 2 ·/.test(p));
+		expect(junctionPages).toHaveLength(2);
+		expect(junctionPages[0]).toContain('JUNCTION 1 OF 2 · EXTERNAL CORNER (WALLS) Corners');
+		expect(junctionPages[1]).toContain('JUNCTION 2 OF 2 · WALL – GROUND FLOOR Ground floor edge');
+		for (const p of junctionPages) {
+			expect(p).toContain('Cross-section and temperatures');
+			expect(p).toMatch(/coldest -?\d+\.\d °C, fRsi 0\.\d{3}/);
+			expect(p).toMatch(/external dimensions −?\d\.\d{3} \(used\)/);
+			expect(p).toContain('Against 0.75 for dwellings (common practice, no source)');
+			expect(p).toContain('Method, mesh, convergence and cautions');
+			expect(p).toContain('do not replace, professional judgement');
+		}
+		expect(junctionPages[0]).toContain(`${corner < 0 ? '−' : ''}${Math.abs(corner).toFixed(3)}`);
+		expect(pages.some((p) => p.includes('Junctions: method and cautions'))).toBe(true);
+	};
+	const preview = await page.request.get(`/dwellings/${d.id}/reports/preview.pdf`);
+	expect(preview.status()).toBe(200);
+	const draftPdf = await preview.body();
+	checkReport(pdfPages(draftPdf, 'draft.pdf'));
+	const made = await page.request.post('/api/v1/reports', { data: { dwellingId: d.id } });
+	expect(made.status(), await made.text()).toBe(201);
+	const report = await made.json();
+	const issued = await page.request.get(`/api/v1/reports/${report.id}.pdf`);
+	expect(issued.status()).toBe(200);
+	const issuedPdf = await issued.body();
+	const pages = pdfPages(issuedPdf, 'issued.pdf');
+	checkReport(pages);
+	// the rendered pages, for a look: the summary and the first junction page
+	const first = pages.findIndex((p) => /JUNCTION 1 OF 2/.test(p)) + 1;
+	for (const [n, name] of [
+		[1, 'report-summary'],
+		[first, 'report-junction']
+	] as const)
+		execFileSync('pdftoppm', [
+			'-png',
+			'-r',
+			'60',
+			'-f',
+			String(n),
+			'-l',
+			String(n),
+			'-singlefile',
+			path.join(work, 'issued.pdf'),
+			shot(info, name)
+		]);
 });

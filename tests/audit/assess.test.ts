@@ -8,7 +8,17 @@
 import { describe, it, expect } from 'vitest';
 import { auditDwelling, type AnalysisCache, type DwellingBundle } from '../../src/lib/audit/assess';
 import { FLAG_CODES, type FlagCode } from '../../src/lib/audit/flags';
-import { bundleOf, cleanWallLayers, element, glazed, library, linked, rev } from './bundles';
+import {
+	bundleOf,
+	cleanWallLayers,
+	element,
+	enteredJunction,
+	glazed,
+	junction,
+	library,
+	linked,
+	rev
+} from './bundles';
 
 type Scenario = { name: string; raises: FlagCode[]; build: () => DwellingBundle };
 
@@ -420,6 +430,94 @@ const SCENARIOS: Scenario[] = [
 				],
 				{ issued: false, climateId: null }
 			)
+	},
+	{
+		name: 'junctions reproducing as issued, and a ψ entered from a named source',
+		raises: ['psi-entered'],
+		build: () =>
+			bundleOf([element('e1', cleanWallLayers())], {
+				junctions: [junction('j1'), enteredJunction('j2', 0.3, 'Default table value, assumed (test)')]
+			})
+	},
+	{
+		name: 'junctions changed since issue: a thinner insulation moving ψ and fRsi, a length, an entered ψ, one added and one removed',
+		raises: ['junction-changed', 'stale-report'],
+		build: () => {
+			const b = bundleOf([element('e1', cleanWallLayers())], {
+				junctions: [
+					junction('j1'),
+					junction('j2', { name: 'Reveal corners', lengthM: 4 }),
+					enteredJunction('j3', 0.3, 'Default table value (test)'),
+					enteredJunction('j4', 0.1, 'Detail sheet 4 (test)', { name: 'Sills', type: 'window-sill' })
+				]
+			});
+			b.elements[0].buildUp!.layers[2].thicknessMm = 40;
+			const [j1, j2, j3] = b.junctions!;
+			j2.lengthM = 5;
+			j3.psiEntered = 0.25;
+			b.junctions = [j1, j2, j3, junction('j5', { name: 'Inner corner', type: 'internal-corner' })];
+			return b;
+		}
+	},
+	{
+		name: 'a report issued before junctions were reported',
+		raises: ['stale-report'],
+		build: () => {
+			const b = bundleOf([element('e1', cleanWallLayers())]);
+			b.junctions = [junction('j1')];
+			return b;
+		}
+	},
+	{
+		name: 'a junction of an uninsulated wall below the month’s fRsi,min',
+		raises: ['junction-frsi-below-limit'],
+		build: () =>
+			bundleOf([element('e1', [{ name: 'Single brick', thicknessMm: 102, lambda: 0.77, mu: 10 }])], {
+				issued: false,
+				junctions: [
+					junction('j1', {
+						details: {
+							mode: 'builder',
+							elements: { a: 'e1' },
+							internal: { temperature: 20, humidityClass: 4 }
+						}
+					})
+				]
+			})
+	},
+	{
+		name: 'a junction below the figure for dwellings, the dwelling without a climate',
+		raises: ['junction-frsi-below-limit'],
+		build: () =>
+			bundleOf(
+				[
+					element('e1', [{ name: 'Single brick', thicknessMm: 102, lambda: 0.77, mu: 10 }], {
+						climateId: null
+					})
+				],
+				{ issued: false, climateId: null, junctions: [junction('j1')] }
+			)
+	},
+	{
+		name: 'entered ψ-values without a usable source, and junctions that cannot be recomputed',
+		raises: ['psi-without-source', 'psi-entered', 'recompute-failed'],
+		build: () =>
+			bundleOf([element('e1', cleanWallLayers())], {
+				issued: false,
+				junctions: [
+					enteredJunction('j1', 0.1, 'n/a'),
+					enteredJunction('j2', 0.2, null, { name: 'Heads' }),
+					enteredJunction('j3', 0.05, 'Manufacturer’s detail sheet D-12 (test)', { name: 'Sills' }),
+					junction('j4', { name: 'Lost corner', details: { mode: 'builder', elements: { a: 'gone' } } }),
+					junction('j5', {
+						name: 'Sketch',
+						type: 'other',
+						details: { mode: 'free-form', elements: {} },
+						model: { regions: [], boundaries: [], environments: {} }
+					}),
+					junction('j6', { name: 'No choices', details: null })
+				]
+			})
 	}
 ];
 

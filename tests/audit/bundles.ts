@@ -18,6 +18,8 @@ import {
 	type ElementContext,
 	type LayerContext
 } from '../../src/lib/audit/checks/context';
+import type { AuditJunction, SnapshotJunction } from '../../src/lib/audit/types';
+import { runJunction } from '../../src/lib/junctions/run';
 
 /** Twelve invented months (demo values, not a real place). */
 export const MONTHS = [-1, 0, 3, 7, 12, 15, 17, 17, 13, 9, 4, 1].map((t, i) => ({
@@ -147,6 +149,63 @@ export function snapshotOf(
 	};
 }
 
+/** A calculated junction built from the dwelling's elements (an external corner of wall e1 unless told). */
+export function junction(id: string, over: Partial<AuditJunction> = {}): AuditJunction {
+	return {
+		id,
+		name: 'Corners',
+		type: 'external-corner',
+		lengthM: 10,
+		source: 'calculated',
+		dimensionSystem: 'external',
+		psiEntered: null,
+		psiSource: null,
+		details: { mode: 'builder', elements: { a: 'e1' } },
+		model: null,
+		...over
+	};
+}
+
+/** A junction whose ψ is entered from another source. */
+export function enteredJunction(
+	id: string,
+	psi: number,
+	source: string | null,
+	over: Partial<AuditJunction> = {}
+) {
+	return junction(id, {
+		name: 'Lintels',
+		type: 'window-head',
+		lengthM: 6,
+		source: 'entered',
+		psiEntered: psi,
+		psiSource: source,
+		details: null,
+		...over
+	});
+}
+
+/** The report's record of a junction as it is now, computed the way the reports module issues it. */
+export function snapshotJunctionOf(
+	j: AuditJunction,
+	elements: AuditElement[],
+	months: typeof MONTHS | null
+): SnapshotJunction {
+	const base = { ...structuredClone(j), model: j.model ?? undefined };
+	if (j.source === 'entered' || !j.details) return { ...base, psi: j.psiEntered, fRsi: null };
+	const run = runJunction({
+		type: j.type,
+		dimensionSystem: j.dimensionSystem,
+		details: j.details,
+		model: j.model ?? undefined,
+		elements: elements.map((e) => ({ ...e })),
+		months
+	});
+	return run.ok
+		? { ...base, psi: run.result.psi, fRsi: run.result.surface.fRsi }
+		: { ...base, psi: null, fRsi: null };
+}
+
 export const TEST_LIMITS: LimitTableInfo = {
 	name: 'Test limits',
 	edition: '1',
@@ -166,6 +225,8 @@ export function bundleOf(
 		issued?: boolean;
 		limitTable?: LimitTableInfo | null;
 		climateId?: string | null;
+		/** the dwelling's junctions, recorded in the report as they are (absent: a dwelling before junctions) */
+		junctions?: AuditJunction[];
 	} = {}
 ): DwellingBundle {
 	const revisions = opts.revisions ?? Object.values(library());
@@ -184,7 +245,16 @@ export function bundleOf(
 					number: 'R-1',
 					revision: 1,
 					issuedAt: '2024-03-01T10:00:00.000Z',
-					snapshot: { elements: elements.map((e) => snapshotOf(e, climates, climateId)) }
+					snapshot: {
+						elements: elements.map((e) => snapshotOf(e, climates, climateId)),
+						...(opts.junctions
+							? {
+									junctions: opts.junctions.map((j) =>
+										snapshotJunctionOf(j, elements, climateId ? (climates.get(climateId) ?? null) : null)
+									)
+								}
+							: {})
+					}
 				};
 	return {
 		dwellingId: 'd1',
@@ -194,7 +264,8 @@ export function bundleOf(
 		limitTable: opts.limitTable === undefined ? structuredClone(TEST_LIMITS) : opts.limitTable,
 		climates,
 		revisions: new Map([...revisions, ...(opts.current ?? [])].map((r) => [r.id, r])),
-		currentRevisions
+		currentRevisions,
+		...(opts.junctions ? { junctions: opts.junctions } : {})
 	};
 }
 

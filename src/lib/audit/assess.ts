@@ -9,7 +9,13 @@ import { GIVEN_U_KINDS } from '$lib/dwellings/kinds';
 import { toElementInput, type StoredLayer } from '$lib/dwellings/element-input';
 import { plausibleForMaterial } from './plausible';
 import type { Flag } from './flags';
-import type { AuditElement, DwellingAudit, DwellingBundle, ElementRecompute } from './types';
+import type {
+	AuditElement,
+	DwellingAudit,
+	DwellingBundle,
+	ElementRecompute,
+	JunctionRecompute
+} from './types';
 import {
 	givenOutcome,
 	issuedOutcome,
@@ -61,33 +67,59 @@ import {
 	totalThicknessImplausible
 } from './checks/plausibility';
 import { elementFramedWithoutBridging, layerFramedWithoutBridging } from './checks/framing';
+import {
+	junctionAddedAfterIssue,
+	junctionChanged,
+	junctionChangedAfterIssue,
+	junctionContext,
+	junctionFRsiBelowLimit,
+	junctionRecomputeFailed,
+	junctionRemovedAfterIssue,
+	junctionsRemovedSinceIssue,
+	psiEntered,
+	psiWithoutSource
+} from './checks/junctions';
+import { issuedJunction, recomputeJunction, type JunctionCache } from './junction-recompute';
 
 export type {
 	AuditElement,
+	AuditJunction,
 	AuditReport,
 	DwellingAudit,
 	DwellingBundle,
 	ElementRecompute,
+	JunctionOutcome,
+	JunctionRecompute,
 	LimitTableInfo,
 	Outcome,
 	RemovedElement,
+	RemovedJunction,
 	RevisionInfo,
-	SnapshotElement
+	SnapshotElement,
+	SnapshotJunction
 } from './types';
 export type { AnalysisCache } from './element-recompute';
+export type { JunctionCache } from './junction-recompute';
 export { outcomeOf, layerFromRevision } from './element-recompute';
 export { canonical } from './compare';
 
 /**
- * Recompute and flag one dwelling. `cache` may be shared across the dwellings of a batch: the engine is a
- * pure function, so an identical input (a build-up repeated from a template) is calculated once.
+ * Recompute and flag one dwelling. `cache` and `junctionCache` may be shared across the dwellings of a
+ * batch: the engine is a pure function, so an identical input (a build-up repeated from a template, a
+ * junction of the same elements) is calculated once.
  *
  * Flags come in this order: the dwelling's (not issued); per element, in the dwelling's order, its
  * staleness, its recompute, its reproduction of the issued numbers, its result against the limit and
  * the moisture criteria, then its layers; then the library revisions used (unverified, generic λ); then
- * the elements removed since the report.
+ * the elements removed since the report; then per junction, in the dwelling's order, its staleness, its
+ * recompute, its ψ and fRsi against the issued ones, its fRsi against the limit, an entered ψ and its
+ * source; then the junctions removed since the report.
  */
-export function auditDwelling(b: DwellingBundle, cache: AnalysisCache = new Map()): DwellingAudit {
+export function auditDwelling(
+	b: DwellingBundle,
+	cache: AnalysisCache = new Map(),
+	junctionCache: JunctionCache = new Map()
+): DwellingAudit {
 	const report = b.report;
 	const snapshots = new Map((report?.snapshot.elements ?? []).map((e) => [e.id, e]));
 	const flags: Flag[] = [...notIssued(report)];
@@ -101,6 +133,7 @@ export function auditDwelling(b: DwellingBundle, cache: AnalysisCache = new Map(
 	flags.push(...unverifiedRevisions(uses.unverified), ...genericLambdas(uses.generic));
 	const removedElements = removedSinceIssue(snapshots.values(), b.elements);
 	flags.push(...removedAfterIssue(removedElements, report));
+	const junctions = auditJunctions(b, junctionCache, flags);
 	return {
 		engineVersion: ENGINE_VERSION,
 		reportId: report?.id ?? null,
@@ -110,8 +143,67 @@ export function auditDwelling(b: DwellingBundle, cache: AnalysisCache = new Map(
 		limitTable: limitTableName(b.limitTable),
 		elements,
 		removedElements,
+		...junctions,
 		flags
 	};
+}
+
+/**
+ * The dwelling's junctions: each computed again (an entered ψ taken as entered), compared with the
+ * report and judged; then those of the report removed since. Nothing (no `junctions` in the audit) for a
+ * dwelling without junctions in either.
+ */
+function auditJunctions(
+	b: DwellingBundle,
+	cache: JunctionCache,
+	flags: Flag[]
+): Pick<DwellingAudit, 'junctions' | 'removedJunctions'> {
+	const report = b.report;
+	const recorded = report?.snapshot.junctions ?? [];
+	const list = b.junctions ?? [];
+	if (!list.length && !recorded.length) return {};
+	const snaps = new Map(recorded.map((j) => [j.id, j]));
+	const months = b.climateId ? (b.climates.get(b.climateId) ?? null) : null;
+	const out: JunctionRecompute[] = [];
+	for (const j of list) {
+		const ctx = junctionContext(j, snaps.get(j.id), report);
+		flags.push(...junctionAddedAfterIssue(ctx), ...junctionChangedAfterIssue(ctx));
+		const rec: JunctionRecompute = {
+			junctionId: j.id,
+			name: j.name,
+			type: j.type,
+			lengthM: j.lengthM,
+			source: j.source,
+			dimensionSystem: j.dimensionSystem,
+			psiSource: j.psiSource,
+			issued: issuedJunction(ctx.snapshot),
+			current: null,
+			inSnapshot: Boolean(ctx.snapshot)
+		};
+		const computed = recomputeJunction(j, b.elements, months, cache);
+		if (computed && 'error' in computed) rec.error = computed.error;
+		else if (computed) rec.current = computed;
+		else
+			rec.current = {
+				psi: j.psiEntered,
+				fRsi: null,
+				fRsiMin: null,
+				criticalMonth: null,
+				surfacePass: null,
+				ruleOfThumb: null
+			};
+		flags.push(
+			...junctionRecomputeFailed(ctx, rec.error),
+			...junctionChanged(ctx, rec.issued, rec.current),
+			...(j.source === 'calculated' ? junctionFRsiBelowLimit(ctx, rec.current) : []),
+			...psiEntered(ctx),
+			...psiWithoutSource(ctx)
+		);
+		out.push(rec);
+	}
+	const removedJunctions = junctionsRemovedSinceIssue(recorded, list);
+	flags.push(...junctionRemovedAfterIssue(removedJunctions, report));
+	return { junctions: out, removedJunctions };
 }
 
 /** Windows and doors, and any element without a build-up, are judged by their given U. */

@@ -15,7 +15,11 @@ export const FLAG_CODES = [
 	'library-changed',
 	'stale-report',
 	'recompute-failed',
-	'input-implausible'
+	'input-implausible',
+	'junction-changed',
+	'junction-frsi-below-limit',
+	'psi-entered',
+	'psi-without-source'
 ] as const;
 export type FlagCode = (typeof FLAG_CODES)[number];
 
@@ -35,7 +39,11 @@ export const FLAG_LABELS: Record<FlagCode, string> = {
 	'library-changed': 'Current library gives a different result',
 	'stale-report': 'Inputs changed after issue',
 	'recompute-failed': 'Could not be recomputed',
-	'input-implausible': 'Unusual input (plausibility warning)'
+	'input-implausible': 'Unusual input (plausibility warning)',
+	'junction-changed': 'Junction ψ or fRsi changed since issue',
+	'junction-frsi-below-limit': 'Junction fRsi below its limit',
+	'psi-entered': 'ψ entered, not calculated here',
+	'psi-without-source': 'Entered ψ without a source'
 };
 
 export const SEVERITIES = ['high', 'medium', 'low'] as const;
@@ -49,6 +57,8 @@ export type Flag = {
 	reason: string;
 	elementId?: string;
 	layerIndex?: number;
+	/** the junction the flag is about */
+	junctionId?: string;
 };
 
 export const DECISIONS = ['accepted', 'accepted-with-advice', 'returned'] as const;

@@ -7,6 +7,30 @@ import type {
 	StoredInternal
 } from '$lib/dwellings/element-input';
 import type { Flag } from './flags';
+import type { JunctionDetails } from '$lib/junctions/schema';
+import type { DimensionSystem, JunctionType, PsiSource } from '$lib/junctions/kinds';
+
+/** A junction of the dwelling as stored: its fields and choices (the audit computes it again). */
+export type AuditJunction = {
+	id: string;
+	name: string;
+	type: JunctionType;
+	lengthM: number;
+	source: PsiSource;
+	dimensionSystem: DimensionSystem;
+	psiEntered: number | null;
+	psiSource: string | null;
+	details: JunctionDetails | null;
+	/** the free-form model (the builder's is built again from the elements) */
+	model: unknown;
+};
+
+/** A junction as the issued report recorded it: its fields, its ψ and its fRsi. */
+export type SnapshotJunction = Omit<AuditJunction, 'model'> & {
+	model?: unknown;
+	psi: number | null;
+	fRsi?: number | null;
+};
 
 export type RevisionInfo = {
 	id: string;
@@ -61,7 +85,13 @@ export type AuditReport = {
 	number: string;
 	revision: number;
 	issuedAt: string;
-	snapshot: { elements?: SnapshotElement[]; engineVersion?: string; issuedAt?: string };
+	snapshot: {
+		elements?: SnapshotElement[];
+		/** absent (or null) from reports issued before junctions were reported */
+		junctions?: SnapshotJunction[] | null;
+		engineVersion?: string;
+		issuedAt?: string;
+	};
 };
 
 export type LimitTableInfo = { name: string; edition: string; limits: Partial<Record<ElementKind, number>> };
@@ -76,6 +106,8 @@ export type DwellingBundle = {
 	revisions: Map<string, RevisionInfo>;
 	/** material id → its current revision */
 	currentRevisions: Map<string, RevisionInfo>;
+	/** the dwelling's junctions (none when absent) */
+	junctions?: AuditJunction[];
 };
 
 /** The figures of one calculation that an auditor compares. */
@@ -114,7 +146,46 @@ export type DwellingAudit = {
 	elements: ElementRecompute[];
 	/** elements in the report that no longer exist */
 	removedElements: RemovedElement[];
+	/** the junctions recomputed, and those of the report no longer in the dwelling; absent when there are none */
+	junctions?: JunctionRecompute[];
+	removedJunctions?: RemovedJunction[];
 	flags: Flag[];
+};
+
+/** The figures of a junction an auditor compares: ψ (W/(m·K)) and fRsi with its judgement. */
+export type JunctionOutcome = {
+	psi: number | null;
+	fRsi: number | null;
+	/** the critical month's fRsi,min of the dwelling's climate; null without a climate */
+	fRsiMin: number | null;
+	criticalMonth: number | null;
+	/** fRsi ≥ fRsi,min; null without a climate */
+	surfacePass: boolean | null;
+	/** fRsi against the figure commonly used for dwellings (common practice, no source); null for an entered ψ */
+	ruleOfThumb: { value: number; pass: boolean } | null;
+};
+
+export type JunctionRecompute = {
+	junctionId: string;
+	name: string;
+	type: JunctionType;
+	lengthM: number;
+	source: PsiSource;
+	dimensionSystem: DimensionSystem;
+	psiSource: string | null;
+	/** what the report issued: its ψ and fRsi */
+	issued: { psi: number | null; fRsi: number | null } | null;
+	/** computed today from the stored choices and the dwelling's elements (an entered ψ as entered) */
+	current: JunctionOutcome | null;
+	inSnapshot: boolean;
+	error?: string;
+};
+
+export type RemovedJunction = {
+	id: string;
+	name: string;
+	type: JunctionType;
+	issued: { psi: number | null; fRsi: number | null };
 };
 
 export type RemovedElement = { id: string; name: string; kind: ElementKind; issued: Outcome | null };

@@ -7,11 +7,22 @@
  * heat-flow direction, given U and its source, climate (which one and its months), internal conditions,
  * build-up (every layer's name, thickness, λ, given resistance, vapour data, bridging, fasteners, library
  * revision; surface resistances, ground and roof-space inputs) and the U-value compared with the limit;
- * and the dwelling's limit table (which one and its limits) and address. Who made each change and when
- * are added by the server from the activity log.
+ * each junction (matched by id; added and removed ones too) with its name, type, length, dimension
+ * system, where its ψ comes from, its ψ (as printed, to 3 decimals) and the source of an entered one,
+ * and its build (the elements it was built from and every choice of the builder, or the free-form
+ * model); and the dwelling's limit table (which one and its limits) and address. Who made each change
+ * and when are added by the server from the activity log.
  */
-import { trim } from '$lib/format';
+import { fx, trim } from '$lib/format';
 import { ELEMENT_KIND_LABELS, type ElementKind } from './kinds';
+import {
+	DIMENSION_SYSTEM_LABELS,
+	JUNCTION_TYPE_LABELS,
+	type DimensionSystem,
+	type JunctionType,
+	type PsiSource
+} from '$lib/junctions/kinds';
+import type { JunctionDetails } from '$lib/junctions/schema';
 import type { StoredBuildUp, StoredInternal, StoredLayer } from './element-input';
 
 /** One element as both sides describe it (a report's snapshot element has this shape). */
@@ -34,17 +45,39 @@ export type ComparedElement = {
 	materialRevisions: { layerIndex: number; revision: number; code: string | null }[];
 };
 
+/** One junction as both sides describe it (a report's snapshot junction has this shape). */
+export type ComparedJunction = {
+	id: string;
+	name: string;
+	type: JunctionType;
+	lengthM: number;
+	source: PsiSource;
+	dimensionSystem: DimensionSystem;
+	psiEntered: number | null;
+	psiSource: string | null;
+	details: JunctionDetails | null;
+	/** the computed model; compared for a free-form junction, whose build it is */
+	model: unknown;
+	/** ψ of the heat loss, W/(m·K) */
+	psi: number | null;
+};
+
 export type ComparedRecord = {
 	dwelling: { address: string };
 	limitTable: { id: string; name: string; limits: Partial<Record<ElementKind, number>> } | null;
 	elements: ComparedElement[];
+	/** absent from records frozen before junctions were reported: taken as none */
+	junctions?: ComparedJunction[];
 };
 
 /** One difference, in the screen's words: `before` and `after` are printable ("—" for none). */
 export type Change = {
-	/** the element it concerns, null for the dwelling itself */
+	/** the element it concerns, null for the dwelling itself (and for a junction) */
 	elementId: string | null;
+	/** how the change names what it concerns: the element, or "Name (junction)"; null for the dwelling */
 	element: string | null;
+	/** the junction it concerns, when it concerns one */
+	junctionId?: string;
 	field: string;
 	before: string;
 	after: string;
@@ -115,6 +148,108 @@ export function compareRecords(issued: ComparedRecord, current: ComparedRecord):
 			});
 		}
 	}
+	changes.push(...compareJunctionLists(issued, current));
+	return changes;
+}
+
+const junctionLabel = (j: ComparedJunction) => `${j.name} (junction)`;
+
+/** The junctions of the two records: removed, changed, then added ones. */
+function compareJunctionLists(issued: ComparedRecord, current: ComparedRecord): Change[] {
+	const changes: Change[] = [];
+	const was = issued.junctions ?? [];
+	const is = current.junctions ?? [];
+	const now = new Map(is.map((j) => [j.id, j]));
+	const then = new Set(was.map((j) => j.id));
+	const names = new Map(
+		[...issued.elements, ...current.elements].map((e) => [e.id, e.name] as [string, string])
+	);
+	for (const before of was) {
+		const after = now.get(before.id);
+		if (after) changes.push(...compareJunctions(before, after, names));
+		else
+			changes.push({
+				elementId: null,
+				junctionId: before.id,
+				element: junctionLabel(before),
+				field: 'Junction',
+				before: 'present',
+				after: 'removed'
+			});
+	}
+	for (const after of is)
+		if (!then.has(after.id))
+			changes.push({
+				elementId: null,
+				junctionId: after.id,
+				element: junctionLabel(after),
+				field: 'Junction',
+				before: 'absent',
+				after: `added (${JUNCTION_TYPE_LABELS[after.type]})`
+			});
+	return changes;
+}
+
+/** What the builder's choices say, field by field, as the junction page names them. */
+const DETAIL_FIELDS: { key: keyof JunctionDetails; label: string }[] = [
+	{ key: 'insulationLayer', label: 'Main insulation layer' },
+	{ key: 'gap', label: 'Gap in the insulation' },
+	{ key: 'insert', label: 'Insert' },
+	{ key: 'floorSlab', label: 'Floor slab' },
+	{ key: 'window', label: 'Window panel' },
+	{ key: 'ground', label: 'Ground levels' },
+	{ key: 'overWallMm', label: 'Layers over the wall head (mm)' },
+	{ key: 'internal', label: 'Inside conditions of the surface check' }
+];
+
+/**
+ * The differences between two states of one junction (the earlier first); `names` names elements by id.
+ * ψ is compared as printed, to 3 decimals, so that the same calculation repeated never counts.
+ */
+export function compareJunctions(
+	before: ComparedJunction,
+	after: ComparedJunction,
+	names: ReadonlyMap<string, string> = new Map()
+): Change[] {
+	const changes: Change[] = [];
+	const add = (field: string, a: unknown, b: unknown, show: (v: unknown) => string = text) => {
+		if (!same(a, b))
+			changes.push({
+				elementId: null,
+				junctionId: after.id,
+				element: junctionLabel(after),
+				field,
+				before: show(a),
+				after: show(b)
+			});
+	};
+	add('Name', before.name, after.name);
+	add('Type', JUNCTION_TYPE_LABELS[before.type], JUNCTION_TYPE_LABELS[after.type]);
+	add('Length (m)', before.lengthM, after.lengthM);
+	add(
+		'Dimension system',
+		DIMENSION_SYSTEM_LABELS[before.dimensionSystem],
+		DIMENSION_SYSTEM_LABELS[after.dimensionSystem]
+	);
+	add('ψ from', before.source, after.source);
+	add('ψ (W/(m·K))', fx(before.psi, 3), fx(after.psi, 3));
+	add('Source of the entered ψ', before.psiSource, after.psiSource);
+	const a = before.details;
+	const b = after.details;
+	add('Model', a?.mode ?? null, b?.mode ?? null);
+	const element = (id: string | undefined) =>
+		id ? (names.get(id) ?? 'an element no longer in the dwelling') : null;
+	add('First element', element(a?.elements?.a), element(b?.elements?.a));
+	add('Second element', element(a?.elements?.b), element(b?.elements?.b));
+	for (const f of DETAIL_FIELDS) {
+		const x = a?.[f.key];
+		const y = b?.[f.key];
+		add(f.label, x ?? null, y ?? null, (v) =>
+			typeof v === 'number' && f.key === 'insulationLayer' ? `layer ${v + 1}` : describeJson(v)
+		);
+	}
+	if ((a?.mode ?? 'free-form') === 'free-form' && (b?.mode ?? 'free-form') === 'free-form')
+		add('Free-form model', before.model ?? null, after.model ?? null, () => 'changed');
 	return changes;
 }
 

@@ -6,6 +6,7 @@
  * page's worker and the server compute the same result from the same model.
  */
 import { analyseJunction, type JunctionResult } from '$lib/physics/junction';
+import { JUNCTION_CAUTIONS, methodText } from '$lib/physics/junction-text';
 import { analyseJunctionField, type FieldSampling, type JunctionField } from '$lib/physics/junction-field';
 import type { JunctionFlank, JunctionInput } from '$lib/physics/junction-schema';
 import { ENGINE_VERSION, RSI_SURFACE_CHECK } from '$lib/physics';
@@ -65,10 +66,24 @@ function temperatures(model: JunctionInput) {
 	return { inside: Math.max(...t), outside: Math.min(...t) };
 }
 
-const SURFACE_CAUTIONS = [
+/** Cautions of every junction's surface check (the engine's own come first in a result). */
+export const SURFACE_CAUTIONS: readonly string[] = [
 	`fRsi comes from a second run with Rsi = ${RSI_SURFACE_CHECK} m²·K/W on the inside surfaces (ISO 13788, as recalled); ψ from the run with ISO 6946 surface resistances. The monthly fRsi,min use monthly mean conditions: local air movement, furniture against the wall and curtains make surfaces colder.`,
 	'The fRsi figure of 0.75 for dwellings is common practice with no source here; the national requirement, where there is one, decides.'
 ];
+
+/** The cautions every junction result carries, whatever its model (a result may add its own). */
+export const COMMON_JUNCTION_CAUTIONS: readonly string[] = [...JUNCTION_CAUTIONS, ...SURFACE_CAUTIONS];
+
+/**
+ * The method sentences every junction result carries word for word: those of the engine's method text
+ * that depend on neither the solver used nor the mesh's last change (a result's others say those).
+ */
+export const COMMON_JUNCTION_METHOD: readonly string[] = (() => {
+	const a = methodText(0, 'multigrid');
+	const b = methodText(0.5, 'jacobi');
+	return a.filter((line, i) => line === b[i]);
+})();
 
 /**
  * Compute a junction: both runs, ψ in each dimension system, and the surface check. Throws the

@@ -18,7 +18,8 @@ const flag = {
 		severity: { type: 'string', enum: [...SEVERITIES] },
 		reason: { type: 'string' },
 		elementId: uuid,
-		layerIndex: { type: 'integer', minimum: 0 }
+		layerIndex: { type: 'integer', minimum: 0 },
+		junctionId: { ...uuid, description: 'the junction the flag is about' }
 	},
 	required: ['code', 'severity', 'reason']
 };

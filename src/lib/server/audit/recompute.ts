@@ -7,7 +7,9 @@ import type { Knex } from 'knex';
 import {
 	auditDwelling,
 	type AuditElement,
+	type AuditJunction,
 	type AuditReport,
+	type JunctionCache,
 	type AnalysisCache,
 	type DwellingAudit,
 	type LimitTableInfo,
@@ -25,7 +27,9 @@ type Db = Knex | Knex.Transaction;
 
 /**
  * The parts of a report snapshot the audit compares, cut out in the database: per element its inputs
- * and the headline figures of its result (not the per-month Glaser detail or the temperature profile).
+ * and the headline figures of its result (not the per-month Glaser detail or the temperature profile);
+ * per junction its fields, choices and model with its ψ and fRsi (not its result or temperature field),
+ * null when the report was issued before junctions were reported.
  */
 const SNAPSHOT_FIGURES = `jsonb_build_object('elements', coalesce((
 	select jsonb_agg((e - 'result') || jsonb_build_object('result', case when e->'result' is null or e->'result' = 'null'::jsonb then null else jsonb_build_object(
@@ -38,7 +42,10 @@ const SNAPSHOT_FIGURES = `jsonb_build_object('elements', coalesce((
 			'pass', e->'result'->'surface'->'pass',
 			'fRsi', e->'result'->'surface'->'fRsi',
 			'fRsiMin', e->'result'->'surface'->'fRsiMin') end) end))
-	from jsonb_array_elements(snapshot->'elements') e), '[]'::jsonb))`;
+	from jsonb_array_elements(snapshot->'elements') e), '[]'::jsonb),
+	'junctions', case when jsonb_typeof(snapshot->'junctions') = 'array' then coalesce((
+		select jsonb_agg((j - 'result' - 'field') || jsonb_build_object('fRsi', j->'result'->'surface'->'fRsi'))
+		from jsonb_array_elements(snapshot->'junctions') j), '[]'::jsonb) end)`;
 const iso = (d: Date | string | null | undefined) => (d ? new Date(d).toISOString() : null);
 
 export type BatchProgress = {
@@ -126,9 +133,9 @@ async function loadContext(trx: Db, orgId: string): Promise<Context> {
 	};
 }
 
-/** The rows one chunk of dwellings needs, in five queries. Exported for the benchmark's read-only floor. */
+/** The rows one chunk of dwellings needs, in six queries. Exported for the benchmark's read-only floor. */
 export async function loadDwellingRows(trx: Db, orgId: string, ids: string[]) {
-	const [dwellings, elements, reports] = await Promise.all([
+	const [dwellings, elements, reports, junctions] = await Promise.all([
 		trx('dwellings')
 			.where({ organisation_id: orgId })
 			.whereIn('id', ids)
@@ -169,7 +176,24 @@ export async function loadDwellingRows(trx: Db, orgId: string, ids: string[]) {
 					trx.raw(`${SNAPSHOT_FIGURES} as snapshot`)
 				)
 				.as('latest')
-		)
+		),
+		trx('junctions')
+			.where({ organisation_id: orgId })
+			.whereIn('dwelling_id', ids)
+			.orderBy([{ column: 'dwelling_id' }, { column: 'created_at' }, { column: 'id' }])
+			.select(
+				'id',
+				'dwelling_id',
+				'name',
+				'type',
+				'length_m',
+				'source',
+				'dimension_system',
+				'psi_entered',
+				'psi_source',
+				'details',
+				trx.raw(`case when details->>'mode' = 'free-form' then model end as model`)
+			)
 	]);
 	const revisionIds = new Set<string>();
 	const materialIds = new Set<string>();
@@ -220,7 +244,7 @@ export async function loadDwellingRows(trx: Db, orgId: string, ids: string[]) {
 			.select('r.*', 'm.code', 'm.current_revision_id');
 		revisions.push(...more);
 	}
-	return { dwellings, elements, reports, revisions };
+	return { dwellings, elements, reports, revisions, junctions };
 }
 
 function mapRevision(r: Record<string, any>): RevisionInfo {
@@ -279,6 +303,23 @@ function auditRows(rows: DwellingRows, c: Context): Map<string, DwellingAudit> {
 		});
 		elementsBy.set(e.dwelling_id, list);
 	}
+	const junctionsBy = new Map<string, AuditJunction[]>();
+	for (const j of rows.junctions) {
+		const list = junctionsBy.get(j.dwelling_id) ?? [];
+		list.push({
+			id: j.id,
+			name: j.name,
+			type: j.type,
+			lengthM: Number(j.length_m),
+			source: j.source,
+			dimensionSystem: j.dimension_system,
+			psiEntered: j.psi_entered == null ? null : Number(j.psi_entered),
+			psiSource: j.psi_source ?? null,
+			details: j.details ?? null,
+			model: j.model ?? null
+		});
+		junctionsBy.set(j.dwelling_id, list);
+	}
 	const reportBy = new Map<string, AuditReport>(
 		rows.reports.map((r) => [
 			r.dwelling_id,
@@ -293,6 +334,7 @@ function auditRows(rows: DwellingRows, c: Context): Map<string, DwellingAudit> {
 	);
 	const out = new Map<string, DwellingAudit>();
 	const cache: AnalysisCache = new Map();
+	const junctionCache: JunctionCache = new Map();
 	for (const d of rows.dwellings) {
 		const table = limitTableFor(d.limit_table_id, c.limitTables);
 		const limitTable = table && { name: table.name, edition: table.edition, limits: table.limits };
@@ -307,9 +349,11 @@ function auditRows(rows: DwellingRows, c: Context): Map<string, DwellingAudit> {
 					limitTable,
 					climates: c.climates,
 					revisions,
-					currentRevisions
+					currentRevisions,
+					junctions: junctionsBy.get(d.id) ?? []
 				},
-				cache
+				cache,
+				junctionCache
 			)
 		);
 	}

@@ -580,9 +580,17 @@ export async function copyDwelling(member: Member, id: string, raw: unknown): Pr
 		const elements = await t('elements')
 			.where({ organisation_id: member.organisationId, dwelling_id: id })
 			.orderBy('position');
+		// the copies' ids are drawn first, so that the junctions can point at the copied elements
+		const ids: string[] = elements.length
+			? (
+					await t.raw('select gen_random_uuid() as id from generate_series(1, ?::int)', [elements.length])
+				).rows.map((r: { id: string }) => r.id)
+			: [];
+		const copyOf = new Map<string, string>(elements.map((e, i) => [e.id as string, ids[i]]));
 		if (elements.length) {
 			await t('elements').insert(
-				elements.map((e) => ({
+				elements.map((e, i) => ({
+					id: ids[i],
 					organisation_id: member.organisationId,
 					dwelling_id: newId,
 					position: e.position,
@@ -601,6 +609,7 @@ export async function copyDwelling(member: Member, id: string, raw: unknown): Pr
 				}))
 			);
 		}
+		const junctions = await copyJunctions(t, member.organisationId, id, newId, copyOf);
 		await log(
 			member,
 			'copy',
@@ -610,12 +619,82 @@ export async function copyDwelling(member: Member, id: string, raw: unknown): Pr
 				fromReference: source.reference,
 				reference: parsed.data.reference,
 				elements: elements.length,
+				junctions,
 				asBuilt
 			},
 			t
 		);
 		return (await getDwelling(member.organisationId, newId, t)) as Dwelling;
 	});
+}
+
+/**
+ * Copy a dwelling's junctions to its copy, in their order, each pointing at the copies of the elements
+ * it was built from (`copyOf`: element id → its copy's id), its stored result kept and naming the copied
+ * elements at their new versions (the same build-ups give the same model and result). The number copied.
+ */
+async function copyJunctions(
+	t: Db,
+	organisationId: string,
+	fromId: string,
+	toId: string,
+	copyOf: Map<string, string>
+): Promise<number> {
+	const rows = await t('junctions')
+		.where({ organisation_id: organisationId, dwelling_id: fromId })
+		.orderBy([{ column: 'created_at' }, { column: 'id' }]);
+	if (!rows.length) return 0;
+	const copied = await t('elements')
+		.where({ organisation_id: organisationId, dwelling_id: toId })
+		.select('id', 'version');
+	const versionOf = new Map(copied.map((e) => [e.id as string, e.version as number]));
+	const mapId = (v: unknown) => (typeof v === 'string' ? (copyOf.get(v) ?? v) : v);
+	const json = (v: unknown) => (v === null || v === undefined ? null : JSON.stringify(v));
+	await t('junctions').insert(
+		rows.map((j, i) => {
+			const details = j.details
+				? {
+						...j.details,
+						elements: Object.fromEntries(
+							Object.entries(j.details.elements ?? {}).map(([k, v]) => [k, mapId(v)])
+						)
+					}
+				: null;
+			const result = j.last_result
+				? {
+						...j.last_result,
+						...(Array.isArray(j.last_result.elements)
+							? {
+									elements: j.last_result.elements.map((e: { id: string; name: string }) => ({
+										...e,
+										id: mapId(e.id),
+										version: versionOf.get(mapId(e.id) as string) ?? null
+									}))
+								}
+							: {})
+					}
+				: null;
+			return {
+				organisation_id: organisationId,
+				dwelling_id: toId,
+				name: j.name,
+				type: j.type,
+				length_m: j.length_m,
+				source: j.source,
+				dimension_system: j.dimension_system,
+				psi_entered: j.psi_entered,
+				psi_source: j.psi_source,
+				model: json(j.model),
+				details: json(details),
+				last_result: json(result),
+				engine_version: j.engine_version,
+				// one after another, so that the copy lists them in the same order
+				created_at: t.raw('now() + make_interval(secs => ?)', [i / 1e6]),
+				updated_at: t.fn.now()
+			};
+		})
+	);
+	return rows.length;
 }
 
 /* ------------------------------------------------------------ mapping */

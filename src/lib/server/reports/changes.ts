@@ -20,7 +20,10 @@ async function latestIssued(t: Db, organisationId: string, dwellingId: string) {
 		.first('id', 'number', 'revision', 'issued_at', 'snapshot');
 }
 
-/** The dwelling as a report would freeze it now (nothing is stored). */
+/**
+ * The dwelling as a report would freeze it now (nothing is stored), its junctions as last saved: a
+ * junction's figures are computed when it is saved, and counting changes never solves one.
+ */
 async function workingCopy(t: Db, organisationId: string, dwellingId: string): Promise<ReportSnapshot> {
 	const now = new Date().toISOString();
 	const { snapshot } = await buildSnapshot(
@@ -38,12 +41,16 @@ async function workingCopy(t: Db, organisationId: string, dwellingId: string): P
 			issuedBy: { id: '', name: '' }
 		},
 		now,
-		t
+		t,
+		{ junctions: 'stored' }
 	);
 	return snapshot;
 }
 
-/** Who last changed each element (by element id) and the dwelling (key ''), since `since`. */
+/**
+ * Who last changed each element (by element id), each junction (`junction:` and its id) and the
+ * dwelling (key ''), since `since`.
+ */
 async function lastChanges(t: Db, organisationId: string, dwellingId: string, since: Date) {
 	const rows = await t('activity_log as a')
 		.leftJoin('users as u', 'u.id', 'a.user_id')
@@ -53,14 +60,17 @@ async function lastChanges(t: Db, organisationId: string, dwellingId: string, si
 			q
 				.where({ 'a.entity': 'dwelling', 'a.entity_id': dwellingId })
 				.orWhere((w) =>
-					w.where('a.entity', 'element').andWhereRaw(`a.details->>'dwellingId' = ?`, [dwellingId])
+					w
+						.whereIn('a.entity', ['element', 'junction'])
+						.andWhereRaw(`a.details->>'dwellingId' = ?`, [dwellingId])
 				)
 		)
 		.orderBy('a.created_at', 'asc')
 		.select('a.entity', 'a.entity_id', 'a.created_at', 'u.name', 'u.email');
 	const last = new Map<string, { by: string | null; at: string }>();
 	for (const r of rows) {
-		const key = r.entity === 'element' ? String(r.entity_id) : '';
+		const key =
+			r.entity === 'element' ? String(r.entity_id) : r.entity === 'junction' ? `junction:${r.entity_id}` : '';
 		last.set(key, { by: r.name ?? r.email ?? null, at: new Date(r.created_at).toISOString() });
 	}
 	return last;
@@ -87,7 +97,8 @@ export async function changesSinceIssue(
 			issuedAt: new Date(issued.issued_at).toISOString()
 		},
 		changes: changes.map((c) => {
-			const who = last.get(c.elementId ?? '') ?? last.get('') ?? null;
+			const key = c.junctionId ? `junction:${c.junctionId}` : (c.elementId ?? '');
+			const who = last.get(key) ?? last.get('') ?? null;
 			return { ...c, by: who?.by ?? null, at: who?.at ?? null };
 		})
 	};

@@ -8,7 +8,16 @@ import { CAUTIONS, type ElementResult, type LayerResult } from '$lib/physics';
 import { ELEMENT_KIND_LABELS } from '$lib/dwellings/kinds';
 import type { StoredLayer } from '$lib/dwellings/element-input';
 import { FONT } from '$lib/server/pdf';
-import { temperatureChart, vapourChart, CHART_COLOURS } from './charts';
+import {
+	temperatureChart,
+	vapourChart,
+	junctionFrame,
+	junctionMaterialsPicture,
+	junctionTemperaturePicture,
+	CHART_COLOURS,
+	JUNCTION_LEGEND_HEIGHT,
+	type ModelBox
+} from './charts';
 import { fx, trim, pct, monthName, longDate, MONTHS } from '$lib/format';
 import {
 	condensationNotAssessed,
@@ -22,7 +31,14 @@ import {
 	methodParagraphs,
 	roofSpaceOfResult
 } from '$lib/reports/method';
-import type { ReportSnapshot, SnapshotElement } from './snapshot';
+import { DIMENSION_SYSTEMS, DIMENSION_SYSTEM_LABELS, JUNCTION_TYPE_LABELS } from '$lib/junctions/kinds';
+import { describeJunctionModel } from '$lib/junctions/describe';
+import {
+	COMMON_JUNCTION_CAUTIONS,
+	COMMON_JUNCTION_METHOD,
+	type JunctionCalculation
+} from '$lib/junctions/calculate';
+import type { ReportSnapshot, SnapshotElement, SnapshotJunction } from './snapshot';
 
 /** "ABCD-EFGH-JK": the code as the screens show it (the verify page takes it with or without dashes). */
 export function groupCode(code: string): string {
@@ -122,6 +138,11 @@ function h2(num: string, text: string): Content {
 		style: 'h2',
 		headlineLevel: 2
 	} as Content;
+}
+
+/** A smaller numbered heading, for the dense junction pages. */
+function h3(num: string, text: string): Content {
+	return { ...(h2(num, text) as object), style: 'h3' } as Content;
 }
 
 /** A heading and the block after it, kept on one page. */
@@ -810,7 +831,7 @@ export function declarationBlock(s: ReportSnapshot, num: string | null): Content
 		stack: [
 			...(num ? [h2(num, 'Declaration')] : []),
 			{
-				text: `I declare that I carried out the assessment in this report of ${what} myself, on the information described in it: the build-ups and their sources, the areas, the internal conditions, the climate and the limit table stated, with the calculation engine and the methods named. Its results support, and do not replace, professional judgement.`,
+				text: `I declare that I carried out the assessment in this report of ${what} myself, on the information described in it: the build-ups and their sources, the areas, ${s.junctions?.length ? 'the junctions, their lengths and the sources of entered ψ-values, ' : ''}the internal conditions, the climate and the limit table stated, with the calculation engine and the methods named. Its results support, and do not replace, professional judgement.`,
 				margin: [0, 0, 0, 6]
 			},
 			kv([
@@ -1104,7 +1125,11 @@ export function dwellingSummary(s: ReportSnapshot): Content[] {
 		color: SOFT,
 		margin: [0, 0, 0, 4]
 	} as Content);
-	out.push(keep(h2('2', 'Cautions'), cautionsBlock(false)));
+	// Snapshots frozen before junctions were reported have none and print as they were issued.
+	if (s.junctions) {
+		out.push(...junctionsSummary(s.junctions, ua));
+		out.push(keep(h2('3', 'Cautions'), cautionsBlock(false)));
+	} else out.push(keep(h2('2', 'Cautions'), cautionsBlock(false)));
 	return out;
 }
 
@@ -1177,12 +1202,25 @@ export function reportDocument(s: ReportSnapshot): TDocumentDefinitions {
 			content.push({ text: '', pageBreak: 'after' } as Content);
 			content.push(...elementSection(s, el, { index: i, of: s.elements.length }));
 		});
+		// A break of no height: a junction page filled to its foot leaves no empty page after it. Snapshots
+		// frozen before junctions were reported keep the breaks they were issued with.
+		const pageBreak = (): Content =>
+			(s.junctions ? { canvas: [], pageBreak: 'after' } : { text: '', pageBreak: 'after' }) as Content;
+		const calculated = reportedJunctions(s.junctions);
+		if (calculated.length) {
+			content.push(pageBreak());
+			content.push(...junctionsMethodPage(s, calculated));
+		}
+		calculated.forEach((j, i) => {
+			content.push(pageBreak());
+			content.push(...junctionSection(s, j, { index: i, of: calculated.length }));
+		});
 		if (s.evidence?.length) {
-			content.push({ text: '', pageBreak: 'after' } as Content);
+			content.push(pageBreak());
 			content.push(...evidenceBlock(s, h1('Evidence', `Dwelling ${s.dwelling.reference}`)));
 		}
 		// The declaration closes the dwelling report, on a page of its own.
-		content.push({ text: '', pageBreak: 'after' } as Content);
+		content.push(pageBreak());
 		content.push(h1('Declaration', `Dwelling ${s.dwelling.reference}`));
 		content.push(declarationBlock(s, null));
 	} else {
@@ -1287,7 +1325,404 @@ export function reportDocument(s: ReportSnapshot): TDocumentDefinitions {
 		styles: {
 			kicker: { fontSize: 7.5, color: CHART_COLOURS.heat, bold: true, characterSpacing: 0.6 },
 			h1: { fontSize: 17, bold: true, margin: [0, 1, 0, 8] },
-			h2: { fontSize: 10.5, bold: true, margin: [0, 12, 0, 4] }
+			h2: { fontSize: 10.5, bold: true, margin: [0, 12, 0, 4] },
+			h3: { fontSize: 9.8, bold: true, margin: [0, 7, 0, 2.5] }
 		}
 	};
+}
+
+/* ---------------------------------------------------------------- junctions */
+
+/** The junctions that have a page: calculated ones with a result. */
+export function reportedJunctions(list: readonly SnapshotJunction[] | undefined): SnapshotJunction[] {
+	return (list ?? []).filter((j) => j.source === 'calculated' && j.result !== null);
+}
+
+/** Where a junction's ψ comes from, as the summary prints it. */
+function psiFrom(j: SnapshotJunction): TableCell {
+	if (j.source === 'entered')
+		return {
+			stack: [
+				{ text: 'entered, not calculated here', bold: true, color: CAUTION },
+				{ text: `source: ${j.psiSource?.trim() || 'not recorded'}`, fontSize: 7, color: SOFT }
+			]
+		} as TableCell;
+	if (!j.result) return { text: 'could not be calculated', color: FAIL } as TableCell;
+	return { text: `calculated here, ${DIMENSION_SYSTEM_LABELS[j.dimensionSystem]}` } as TableCell;
+}
+
+/** The fRsi of a calculated junction against the climate's month (else the figure for dwellings), short. */
+function junctionSurfaceWord(r: JunctionCalculation): { text: string; color: string } {
+	const sf = r.surface;
+	if (sf.critical)
+		return sf.critical.pass
+			? { text: `fRsi ${fx(sf.fRsi, 3)} ≥ ${fx(sf.critical.fRsiMin, 3)}`, color: PASS }
+			: { text: `fRsi ${fx(sf.fRsi, 3)} < ${fx(sf.critical.fRsiMin, 3)}`, color: FAIL };
+	return sf.ruleOfThumb.pass
+		? { text: `fRsi ${fx(sf.fRsi, 3)} ≥ ${fx(sf.ruleOfThumb.value, 2)}`, color: PASS }
+		: { text: `fRsi ${fx(sf.fRsi, 3)} < ${fx(sf.ruleOfThumb.value, 2)}`, color: CAUTION };
+}
+
+/**
+ * The dwelling summary's junctions: each with its length, ψ and ψ·L and where its ψ comes from (an
+ * entered one with its source, marked as not calculated here), then the transmission heat-loss
+ * coefficient H_T = ΣU·A + Σψ·L (ISO 13789; point thermal bridges left out).
+ */
+function junctionsSummary(junctions: readonly SnapshotJunction[], ua: number): Content[] {
+	const out: Content[] = [];
+	let sumPsiL = 0;
+	const without: string[] = [];
+	const systems = new Set<string>();
+	const body: TableCell[][] = [
+		[
+			th('#'),
+			th('Junction'),
+			th('Type'),
+			th('Length m', true),
+			th('ψ W/(m·K)', true),
+			th('ψ·L W/K', true),
+			th('ψ from'),
+			th('Surface')
+		]
+	];
+	junctions.forEach((j, i) => {
+		if (j.psi === null || !Number.isFinite(j.psi)) without.push(j.name);
+		else {
+			sumPsiL += j.psi * j.lengthM;
+			systems.add(j.dimensionSystem);
+		}
+		const surface = j.result ? junctionSurfaceWord(j.result) : { text: '—', color: SOFT };
+		body.push([
+			String(i + 1),
+			j.name,
+			{ text: JUNCTION_TYPE_LABELS[j.type] ?? j.type, fontSize: 7.5 } as TableCell,
+			num(fx(j.lengthM, 2)),
+			num(fx(j.psi, 3)),
+			num(j.psi === null ? '—' : fx(j.psi * j.lengthM, 2)),
+			{ ...(psiFrom(j) as object), fontSize: 7.5 } as TableCell,
+			{ text: surface.text, color: surface.color, fontSize: 7.5 } as TableCell
+		]);
+	});
+	if (junctions.length)
+		body.push([
+			'',
+			{ text: 'Total', bold: true } as TableCell,
+			'',
+			'',
+			'',
+			{ text: fx(sumPsiL, 2), alignment: 'right', bold: true } as TableCell,
+			'',
+			''
+		]);
+	const table: Content = junctions.length
+		? ({
+				table: { headerRows: 1, dontBreakRows: true, widths: [12, '*', 86, 38, 40, 38, 98, 66], body },
+				layout: rules,
+				fontSize: 8
+			} as Content)
+		: ({
+				text: 'No junctions (linear thermal bridges) are recorded for this dwelling: Σψ·L is 0 and the transmission heat-loss coefficient is ΣU·A alone, which leaves out the extra heat loss where elements meet.',
+				color: SOFT
+			} as Content);
+	out.push(keep(h2('2', 'Junctions and transmission heat loss'), table));
+	const cell = (label: string | Content[], value: string) => ({
+		stack: [
+			{ text: label, fontSize: 7.5, color: SOFT },
+			{ text: value, fontSize: 14, bold: true }
+		]
+	});
+	out.push({
+		table: {
+			widths: ['*', '*', '*'],
+			body: [
+				[
+					cell('ΣU·A (elements)', `${fx(ua, 2)} W/K`),
+					cell('Σψ·L (junctions)', `${fx(sumPsiL, 2)} W/K`),
+					cell([{ text: 'H' }, { text: 'T', sub: true }, ' = ΣU·A + Σψ·L'], `${fx(ua + sumPsiL, 2)} W/K`)
+				]
+			] as TableCell[][]
+		},
+		layout: panel,
+		margin: [0, 8, 0, 4]
+	} as Content);
+	const remarks: Content[] = [];
+	const add = (text: string, color = SOFT) => remarks.push({ text, color } as Content);
+	const below = junctions.filter((j) => j.result?.surface.critical && !j.result.surface.critical.pass);
+	if (below.length)
+		add(
+			`The surface temperature factor is below the month’s fRsi,min at ${names(below.map((j) => j.name))}: risk of mould growth at the junction. `,
+			FAIL
+		);
+	if (without.length) add(`Left out of Σψ·L for want of a ψ: ${names(without)}. `, CAUTION);
+	if (systems.size > 1)
+		add(
+			`The ψ-values refer to different dimension systems (${[...systems].map((x) => DIMENSION_SYSTEM_LABELS[x as keyof typeof DIMENSION_SYSTEM_LABELS]).join(', ')}): each holds only with areas and lengths measured the same way, so this sum mixes conventions. `,
+			CAUTION
+		);
+	if (junctions.some((j) => j.source === 'entered'))
+		add(
+			'An entered ψ is taken from the source named beside it; Envelo did not calculate it and it rests on that source. '
+		);
+	add(
+		`The transmission heat-loss coefficient (ISO 13789) leaves out point thermal bridges. ψ-values refer to the dimension system named, and the lengths are the assessor's, measured the same way.${reportedJunctions(junctions).length ? ' Each calculated junction follows on a page of its own after the elements, with its model, picture, figures, mesh and cautions; the method and cautions that hold for every junction calculation are set out once, before them.' : ''}`
+	);
+	out.push({ text: remarks, fontSize: 7.8, margin: [0, 0, 0, 4] } as Content);
+	return out;
+}
+
+/** What every junction calculation is subject to, said once before the junction pages. */
+const COMMON_CAUTIONS = new Set(COMMON_JUNCTION_CAUTIONS);
+const COMMON_METHOD = new Set(COMMON_JUNCTION_METHOD);
+
+/**
+ * The page before the junction pages: the method and the cautions that every junction calculation of
+ * the report shares, in full (each junction page says what is its own).
+ */
+export function junctionsMethodPage(s: ReportSnapshot, calculated: readonly SnapshotJunction[]): Content[] {
+	const method = COMMON_JUNCTION_METHOD.filter((m) => calculated.some((j) => j.result!.method.includes(m)));
+	const cautions = COMMON_JUNCTION_CAUTIONS.filter((c) =>
+		calculated.some((j) => j.result!.cautions.includes(c))
+	);
+	return [
+		h1('Junctions: method and cautions', `Dwelling ${s.dwelling.reference}`),
+		{
+			text: `${calculated.length === 1 ? 'The junction on the next page was' : `The ${calculated.length} junctions on the next pages were`} calculated as two-dimensional models of ISO 10211, each twice: once with the surface resistances of ISO 6946 for L2D and ψ, once with Rsi = 0.25 m²·K/W on the inside surfaces for the temperature factor fRsi (ISO 13788). What follows holds for every one of them; each page adds its solver, its mesh and convergence, its notes and any caution of its own.`,
+			margin: [0, 0, 0, 4]
+		} as Content,
+		keep(h2('1', 'Method'), { ul: method, fontSize: 8.2 } as Content),
+		keep(h2('2', 'Cautions'), { ul: cautions, fontSize: 8.2, color: SOFT } as Content)
+	];
+}
+
+/**
+ * A junction page's cautions: the result's own (a mesh that did not converge, a model the engine warns
+ * of), then the common ones in short, pointing to the summary that lists them in full.
+ */
+function ownCautions(r: JunctionCalculation): string[] {
+	const own = r.cautions.filter((c) => !COMMON_CAUTIONS.has(c));
+	const shared = r.cautions.length - own.length;
+	return [
+		...own,
+		...(shared
+			? [
+					'Cautions: steady-state results for the model as described; they support, and do not replace, professional judgement, and local codes and licensed practice decide. The method and cautions of every junction calculation are set out in full before the first junction.'
+				]
+			: [])
+	];
+}
+
+/** " every 2 K" when the picture has two isotherms or more. */
+function isothermStep(t: { levels: number[] } | null): string {
+	return t && t.levels.length > 1 ? ` every ${trim(t.levels[1] - t.levels[0], 3)} K` : '';
+}
+
+/** The picture window: the sampled field's extent, else the builder's view with a margin, else the material's. */
+function pictureWindow(j: SnapshotJunction): ModelBox {
+	const f = j.field;
+	if (f && f.xs.length > 1 && f.ys.length > 1)
+		return { x0: f.xs[0], x1: f.xs[f.xs.length - 1], y0: f.ys[0], y1: f.ys[f.ys.length - 1] };
+	const v = j.result?.view;
+	if (v) {
+		const m = 0.06 * Math.max(v.x1 - v.x0, v.y1 - v.y0);
+		return { x0: v.x0 - m, y0: v.y0 - m, x1: v.x1 + m, y1: v.y1 + m };
+	}
+	const rs = j.model?.regions ?? [];
+	return {
+		x0: Math.min(...rs.map((r) => r.x0)),
+		y0: Math.min(...rs.map((r) => r.y0)),
+		x1: Math.max(...rs.map((r) => r.x1)),
+		y1: Math.max(...rs.map((r) => r.y1))
+	};
+}
+
+/** The headline figures of a junction: ψ, L2D, fRsi against the month, and against the figure for dwellings. */
+function junctionPanel(j: SnapshotJunction, r: JunctionCalculation): Content {
+	const big = (label: string, value: string, sub: Content) =>
+		({
+			stack: [
+				{ text: label, fontSize: 7.5, color: SOFT },
+				{ text: value, fontSize: 15, bold: true, margin: [0, 1, 0, 1] },
+				sub
+			]
+		}) as Content;
+	const sf = r.surface;
+	const cells: Content[] = [
+		big('ψ, W/(m·K)', fx(r.psi, 3), {
+			text: `on ${DIMENSION_SYSTEM_LABELS[r.dimensionSystem]}`,
+			fontSize: 7.5,
+			color: SOFT
+		} as Content),
+		big('ψ·L, W/K', r.psi === null ? '—' : fx(r.psi * j.lengthM, 2), {
+			text: `over ${fx(j.lengthM, 2)} m in the dwelling`,
+			fontSize: 7.5,
+			color: SOFT
+		} as Content),
+		big('Temperature factor fRsi', fx(sf.fRsi, 3), {
+			text: sf.critical
+				? [
+						verdict(sf.critical.pass, 'Meets', 'Below the limit'),
+						{
+							text: ` · fRsi,min ${fx(sf.critical.fRsiMin, 3)} (${monthName(sf.critical.month)})`,
+							color: SOFT
+						}
+					]
+				: { text: 'no climate: no monthly fRsi,min', color: SOFT },
+			fontSize: 7.5
+		} as Content),
+		big(
+			`Against ${fx(sf.ruleOfThumb.value, 2)} for dwellings`,
+			sf.ruleOfThumb.pass ? 'At or above' : 'Below',
+			{
+				text: sf.ruleOfThumb.source,
+				fontSize: 7.5,
+				color: SOFT
+			} as Content
+		)
+	];
+	return {
+		table: { widths: ['*', '*', '*', '*'], body: [cells as TableCell[]] },
+		layout: panel,
+		margin: [0, 6, 0, 4]
+	} as Content;
+}
+
+/** ψ in every dimension system the flanks are known in, L2D and the flanks subtracted, as a paragraph. */
+function psiFigures(r: JunctionCalculation): Content {
+	const systems = DIMENSION_SYSTEMS.filter((d) => r.psiBySystem[d] !== undefined).map((d) =>
+		d === r.dimensionSystem
+			? { text: `${DIMENSION_SYSTEM_LABELS[d]} ${fx(r.psiBySystem[d], 3)} (used)`, bold: true }
+			: { text: `${DIMENSION_SYSTEM_LABELS[d]} ${fx(r.psiBySystem[d], 3)}` }
+	);
+	const flanks = r.flanks.map(
+		(f, i) => `${f.name ?? `flank ${i + 1}`} U ${fx(f.uValue, 4)} W/(m²·K) × ${fx(f.lengthMm / 1000, 3)} m`
+	);
+	return {
+		text: [
+			{ text: 'ψ = L2D − Σ U·l', bold: true },
+			', W/(m·K), on ',
+			...systems.flatMap((x, i) => (i ? [i === systems.length - 1 ? ' and ' : ', ', x] : [x])),
+			`. L2D ${fx(r.couplingCoefficient, 4)} W/(m·K); flanks subtracted: ${flanks.length ? names(flanks) : 'none, so ψ is not defined'}.`
+		]
+	} as Content;
+}
+
+/** fRsi, the coldest point, and the verdicts against the month's fRsi,min and the figure for dwellings, as a paragraph. */
+function surfaceFigures(r: JunctionCalculation): Content {
+	const sf = r.surface;
+	const parts: Content[] = [
+		{ text: 'fRsi', bold: true } as Content,
+		` ${fx(sf.fRsi, 3)} with Rsi ${trim(sf.rsi, 3)} m²·K/W on ${names(sf.checked)}; the coldest inside point ${fx(sf.coldest.temperature, 1)} °C at θi ${fx(sf.temperatures.inside, 1)} °C and θe ${fx(sf.temperatures.outside, 1)} °C. `
+	];
+	if (sf.critical)
+		parts.push(
+			`fRsi,min ${fx(sf.critical.fRsiMin, 3)} in ${monthName(sf.critical.month)}, the critical month of the dwelling’s climate (80 % surface humidity, ISO 13788:2012 clause 5): `,
+			sf.critical.pass
+				? ({ text: 'meets the limit, fRsi ≥ fRsi,min', bold: true, color: PASS } as Content)
+				: ({
+						text: 'below the limit, fRsi < fRsi,min: risk of mould growth at the junction',
+						bold: true,
+						color: FAIL
+					} as Content),
+			'. '
+		);
+	else parts.push({ text: 'No monthly fRsi,min: the dwelling has no climate. ', color: CAUTION } as Content);
+	parts.push(
+		`Against ${fx(sf.ruleOfThumb.value, 2)} for dwellings (${sf.ruleOfThumb.source}): `,
+		{
+			text: sf.ruleOfThumb.pass ? 'at or above' : 'below',
+			bold: true,
+			color: sf.ruleOfThumb.pass ? PASS : CAUTION
+		} as Content,
+		'.'
+	);
+	if (!sf.converged) parts.push(' The surface run did not meet the mesh criterion: fRsi is approximate.');
+	return { text: parts } as Content;
+}
+
+/**
+ * The junction's own method sentences (its solver, the mesh's last change against the criterion, the
+ * dimension system) and its notes (cut-off planes, the meshes and the solver's figures), then its cautions.
+ */
+function junctionMethod(r: JunctionCalculation): Content[] {
+	return [
+		{
+			ul: [...r.method.filter((m) => !COMMON_METHOD.has(m)), ...r.notes],
+			fontSize: 6.7,
+			lineHeight: 1.06,
+			margin: [0, 0, 0, 2.5]
+		},
+		{ ul: ownCautions(r), fontSize: 6.7, lineHeight: 1.06, color: SOFT }
+	] as Content[];
+}
+
+/**
+ * One calculated junction of the dwelling, on a page of its own: the model in words, its pictures
+ * (materials; temperatures with isotherms and the coldest point), ψ with its dimension system, fRsi
+ * against the month's limit and the figure for dwellings, the method with the mesh and its
+ * convergence, and the notes and cautions of the result.
+ */
+export function junctionSection(
+	s: ReportSnapshot,
+	j: SnapshotJunction,
+	position: { index: number; of: number }
+): Content[] {
+	const r = j.result!;
+	const out: Content[] = [
+		h1(j.name, `Junction ${position.index + 1} of ${position.of} · ${JUNCTION_TYPE_LABELS[j.type] ?? j.type}`)
+	];
+	out.push(junctionPanel(j, r));
+	const words = describeJunctionModel(j, s.elements);
+	out.push(
+		keep(h3('1', 'Model'), {
+			stack: words.map((w) => ({ text: w, margin: [0, 0, 0, 1.5] })),
+			fontSize: 7.6
+		} as Content)
+	);
+	if (j.model) {
+		const gap = 12;
+		const width = (CONTENT_WIDTH - gap) / 2;
+		const frame = junctionFrame(pictureWindow(j), width, 116);
+		const temperatures = junctionTemperaturePicture(
+			j.model,
+			j.field,
+			frame,
+			r.surface.coldest,
+			r.surface.fRsi
+		);
+		const picture = (svg: string) =>
+			({ svg, width, font: FONT, height: frame.h + JUNCTION_LEGEND_HEIGHT }) as unknown as Content;
+		out.push({
+			stack: [
+				h3('2', 'Cross-section and temperatures'),
+				{
+					columns: [
+						picture(junctionMaterialsPicture(j.model, frame)),
+						temperatures ? picture(temperatures.svg) : { text: 'No temperature field was kept.', color: SOFT }
+					],
+					columnGap: gap,
+					margin: [0, 2, 0, 0]
+				},
+				{
+					text: `To scale, ${fx((frame.window.x1 - frame.window.x0) / 1000, 2)} × ${fx((frame.window.y1 - frame.window.y0) / 1000, 2)} m around the junction (the model runs on to its cut-off planes). Left: materials, darker where λ is higher. Right: temperatures of the surface-check run (Rsi ${trim(r.surface.rsi, 3)} m²·K/W inside) at θi ${fx(r.surface.temperatures.inside, 1)} °C and θe ${fx(r.surface.temperatures.outside, 1)} °C, banded between isotherms${isothermStep(temperatures)}; the ring marks the coldest inside point.`,
+					fontSize: 7.2,
+					color: SOFT,
+					margin: [0, 3, 0, 2]
+				}
+			],
+			unbreakable: true
+		} as Content);
+	}
+	out.push(
+		keep(h3('3', 'ψ and the surface temperature factor'), {
+			columns: [
+				{ width: '*', stack: [psiFigures(r)] },
+				{ width: '*', stack: [surfaceFigures(r)] }
+			],
+			columnGap: 14,
+			fontSize: 7.6
+		} as Content)
+	);
+	const [head, ...rest] = junctionMethod(r);
+	out.push(keep(h3('4', 'Method, mesh, convergence and cautions'), head), ...rest);
+	return out;
 }

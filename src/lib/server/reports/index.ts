@@ -34,6 +34,7 @@ import type {
 	SnapshotMaterialRevision
 } from './snapshot';
 import { evidenceForReport } from '$lib/server/evidence';
+import { snapshotJunctions, type JunctionMode } from './junctions';
 
 export type { ReportSnapshot, ReportScope } from './snapshot';
 
@@ -110,7 +111,11 @@ type DocumentMeta = ReportSnapshot['document'];
  * Everything the report needs, read in one go under the caller's organisation and recomputed with
  * today's engine from the stored build-ups. `problems` names each element that cannot be reported.
  * The issuer (`document.issuedBy.id`) is read here too: their name and registration number as they are
- * now are frozen into the snapshot, and the declaration prints them.
+ * now are frozen into the snapshot, and the declaration prints them. A dwelling report also freezes the
+ * dwelling's junctions, computed again from their stored choices (`junctions: 'calculate'`, the
+ * default) or taken as last saved (`'stored'`, for comparisons, which never solve a junction), or, for
+ * a page listing what stops an issue, computed only where the saved result may be out of date
+ * (`'check'`).
  */
 export async function buildSnapshot(
 	organisationId: string,
@@ -118,7 +123,8 @@ export async function buildSnapshot(
 	elementId: string | null,
 	document: DocumentMeta,
 	issuedAt: string,
-	trx: Db = db
+	trx: Db = db,
+	options: { junctions?: JunctionMode } = {}
 ): Promise<{ snapshot: ReportSnapshot; problems: string[] }> {
 	const d = await getDwellingRow(organisationId, dwellingId, trx);
 	const org = await trx('organisations').where({ id: organisationId }).first('id', 'name');
@@ -140,13 +146,28 @@ export async function buildSnapshot(
 		climates: await readClimates(trx, organisationId, elements, d.climate_id),
 		revisions: await readLayerRevisions(trx, organisationId, elements)
 	};
+	const snapshotElements = elements.map((e) => snapshotElement(e, context, problems));
+	// junctions are the dwelling's: computed with its climate, from all its elements (a dwelling report has them all)
+	const junctions =
+		elementId === null
+			? await snapshotJunctions(
+					trx,
+					organisationId,
+					dwellingId,
+					elements,
+					d.climate_id ? (context.climates.get(d.climate_id)?.months ?? null) : null,
+					options.junctions ?? 'calculate',
+					problems
+				)
+			: undefined;
 	const snapshot: ReportSnapshot = {
 		dwelling: snapshotDwelling(d, assessor),
 		organisation: { id: organisationId, name: org?.name ?? '' },
 		limitTable,
-		elements: elements.map((e) => snapshotElement(e, context, problems)),
+		elements: snapshotElements,
 		// every report of the dwelling lists all its evidence (and issuing it keeps them: a trigger)
 		evidence: await evidenceForReport(trx, organisationId, dwellingId),
+		...(junctions ? { junctions } : {}),
 		engineVersion: ENGINE_VERSION,
 		issuedAt,
 		document: {
@@ -190,7 +211,10 @@ async function readElementRows(
 	return rows;
 }
 
-/** The climates the elements use (their own, else the dwelling's), months in calendar order. */
+/**
+ * The climates the elements use (their own, else the dwelling's) and the dwelling's own (its junctions
+ * use it), months in calendar order.
+ */
 async function readClimates(
 	trx: Db,
 	organisationId: string,
@@ -198,7 +222,7 @@ async function readClimates(
 	dwellingClimateId: string | null
 ) {
 	const ids = [
-		...new Set(elements.map((e) => e.climate_id ?? dwellingClimateId).filter(Boolean))
+		...new Set([...elements.map((e) => e.climate_id ?? dwellingClimateId), dwellingClimateId].filter(Boolean))
 	] as string[];
 	const climates = new Map<string, SnapshotClimate>();
 	if (!ids.length) return climates;

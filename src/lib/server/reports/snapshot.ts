@@ -7,6 +7,11 @@ import type { ElementInput, ElementResult, HeatFlow } from '$lib/physics';
 import { type ElementKind } from '$lib/dwellings/kinds';
 import type { StoredBuildUp, StoredInternal } from '$lib/dwellings/element-input';
 import type { EvidenceForReport } from '$lib/server/evidence';
+import type { JunctionInput } from '$lib/physics/junction-schema';
+import type { JunctionField } from '$lib/physics/junction-field';
+import type { JunctionCalculation } from '$lib/junctions/calculate';
+import type { JunctionDetails } from '$lib/junctions/schema';
+import type { DimensionSystem, JunctionType, PsiSource } from '$lib/junctions/kinds';
 
 export type ReportScope = 'element' | 'dwelling';
 
@@ -61,6 +66,30 @@ export type SnapshotElement = {
 
 export type SnapshotEvidence = EvidenceForReport;
 
+/**
+ * A junction as the dwelling report freezes it: its stored fields, and for a calculated one the model
+ * and result computed at issue from the dwelling's elements as they were then, with the temperature
+ * field sampled for the picture (temperatures rounded to 0.01 K).
+ */
+export type SnapshotJunction = {
+	id: string;
+	name: string;
+	type: JunctionType;
+	lengthM: number;
+	source: PsiSource;
+	dimensionSystem: DimensionSystem;
+	psiEntered: number | null;
+	psiSource: string | null;
+	/** the builder's choices (null for an entered ψ) */
+	details: JunctionDetails | null;
+	/** the model computed: built from the elements, or free-form (null for an entered ψ) */
+	model: JunctionInput | null;
+	/** ψ in the heat loss, W/(m·K): the calculated one in the junction's dimension system, or the entered one */
+	psi: number | null;
+	result: JunctionCalculation | null;
+	field: JunctionField | null;
+};
+
 export type ReportSnapshot = {
 	dwelling: {
 		id: string;
@@ -80,6 +109,11 @@ export type ReportSnapshot = {
 	 * Absent from snapshots frozen before evidence was listed.
 	 */
 	evidence?: SnapshotEvidence[];
+	/**
+	 * The dwelling's junctions (dwelling reports only). Absent from snapshots frozen before junctions
+	 * were reported; those render as they were issued, without the heat loss of junctions.
+	 */
+	junctions?: SnapshotJunction[];
 	engineVersion: string;
 	issuedAt: string;
 	/** identity of the document itself, frozen with the data */

@@ -51,7 +51,10 @@ export const load = async (event) => {
 			supersedes: null,
 			issuedBy: { id: member.user.id, name: member.user.name ?? member.user.email }
 		},
-		new Date().toISOString()
+		new Date().toISOString(),
+		undefined,
+		// the page lists problems only: a junction is solved again only when its elements or the engine changed
+		{ junctions: 'check' }
 	);
 	const [reports, mail, changes] = await Promise.all([
 		listReportsForDwelling(member.organisationId, d.id),
