@@ -99,6 +99,8 @@ export type SectionSvgOptions = {
 	id?: string;
 	/** write the key (fills used, lines) below the drawing */
 	legend?: boolean;
+	/** the font family the text is set in (the PDF names its embedded font) */
+	fontFamily?: string;
 };
 
 /** The SVG document of a section drawing. */
@@ -233,7 +235,7 @@ export function sectionSvg(d: SectionDrawing, opts: SectionSvgOptions = {}): str
 		height += 22;
 	}
 	const alt = `Section through the build-up, inside on the left: ${d.bands.map((b) => `${b.index + 1} ${b.name} ${n(b.thicknessMm)} mm`).join(', ')}. ${sectionCaption(d)}`;
-	return `<svg xmlns="http://www.w3.org/2000/svg" viewBox="0 0 ${width} ${n(height)}" width="${width}" height="${n(height)}" font-family="Source Sans 3, sans-serif" role="img" aria-label="${esc(alt)}"><title>${esc(alt)}</title><defs>${patterns(id)}</defs>${out.join('')}</svg>`;
+	return `<svg xmlns="http://www.w3.org/2000/svg" viewBox="0 0 ${width} ${n(height)}" width="${width}" height="${n(height)}" font-family="${esc(opts.fontFamily ?? 'Source Sans 3, sans-serif')}" role="img" aria-label="${esc(alt)}"><title>${esc(alt)}</title><defs>${patterns(id)}</defs>${out.join('')}</svg>`;
 }
 
 /** The words under the drawing: the month its lines are for, and how it is drawn. */

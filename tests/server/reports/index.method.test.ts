@@ -132,7 +132,9 @@ describe.skipIf(!hasDatabase)('reports: method, reasons and the heat flux', asyn
 			)
 		).toBe(true);
 		// The summary's table says the same, never "no climate".
-		expect(moistureWord(full.snapshot.elements[0])).toBe('not assessed: floor on the ground; fRsi passes');
+		expect(moistureWord(full.snapshot.elements[0])).toBe(
+			'not assessed: floor on the ground; surface: no mould risk (fRsi passes)'
+		);
 
 		// Method: build-up RT = 0.17 + 0.150/1.5 + 0.04 = 0.310 m²·K/W (Rf = 0.100); B′ = 100/(0.5·40) =
 		// 5.00 m; dt = 0.3 + 2.0·(0.17 + 0.100 + 0.04) = 0.920 m < B′;

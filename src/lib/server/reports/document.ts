@@ -18,6 +18,9 @@ import {
 	JUNCTION_LEGEND_HEIGHT,
 	type ModelBox
 } from './charts';
+import { sectionDrawing } from '$lib/dwellings/section';
+import { elementDynamics } from '$lib/dwellings/dynamic';
+import { sectionCaption, sectionSvg } from '$lib/dwellings/section-svg';
 import { fx, trim, pct, monthName, longDate, MONTHS } from '$lib/format';
 import {
 	condensationNotAssessed,
@@ -81,9 +84,16 @@ export function moistureWord(el: SnapshotElement): string {
 	const s = r.surface;
 	if (!c && !s && !r.ground) return 'no climate';
 	const parts: string[] = [];
-	if (c) parts.push(c.outcome === 'none' ? 'none' : c.outcome === 'dries' ? 'dries out' : 'accumulates');
+	if (c)
+		parts.push(
+			c.outcome === 'none'
+				? 'no interstitial condensation'
+				: c.outcome === 'dries'
+					? 'condenses, dries out within the year'
+					: 'condensate accumulates year on year'
+		);
 	else parts.push(condensationNotAssessed(r)!.short);
-	if (s) parts.push(s.pass ? 'fRsi passes' : 'fRsi fails');
+	if (s) parts.push(s.pass ? 'surface: no mould risk (fRsi passes)' : 'surface: mould risk (fRsi fails)');
 	else if (r.ground) parts.push(`fRsi ${surfaceNotAssessed(r)!.short}`);
 	return parts.join('; ');
 }
@@ -761,8 +771,11 @@ function surfacePart(r: ElementResult): Content {
 
 function assumptions(el: SnapshotElement, r: ElementResult | null): Content {
 	const items: string[] = [];
+	const bridged = (el.input?.layers ?? []).some((l) => l.bridge);
 	items.push(
-		'Every layer is taken as continuous over the element area, with the thickness and material values listed; values from the library are copied from the revision named beside each layer.'
+		bridged
+			? 'Each layer is taken as continuous over the element area except the bridged layers, where the bridging members (studs, joists, rafters) take the fraction of the area stated and the combined method applies; thicknesses and material values as listed, values from the library copied from the revision named beside each layer.'
+			: 'Every layer is taken as continuous over the element area, with the thickness and material values listed; values from the library are copied from the revision named beside each layer.'
 	);
 	items.push(
 		'Internal conditions are constant through the year; external conditions are the monthly means of the climate stated.'
@@ -861,6 +874,38 @@ function chart(svg: string | null, caption: string): Content[] {
 	];
 }
 
+/**
+ * The element's heat storage (ISO 13786, 24-hour period) when its layers carry density and specific
+ * heat, as the element page shows it; nothing when they do not (the page says what is missing).
+ */
+function heatStorageBlock(el: SnapshotElement, r: ElementResult): Content | null {
+	if (!el.buildUp) return null;
+	const d = elementDynamics(el.buildUp, r);
+	if (!d.ok) return null;
+	const v = d.value;
+	return {
+		stack: [
+			{ text: 'Heat storage (ISO 13786:2017, 24-hour period)', bold: true, margin: [0, 6, 0, 2] },
+			kv([
+				['Areal heat capacity κ1 (inside)', `${fx(v.kappa1, 1)} kJ/(m²·K)`],
+				['Areal heat capacity κ2 (outside)', `${fx(v.kappa2, 1)} kJ/(m²·K)`],
+				['Decrement factor f', fx(v.decrementFactor, 3)],
+				[
+					'Periodic transmittance |Y12|',
+					`${fx(v.y12.modulus, 3)} W/(m²·K), time shift ${fx(v.y12.timeLagH, 1)} h`
+				]
+			]),
+			{
+				text: `${v.method[0]} ${v.cautions[0]}`,
+				fontSize: 7.2,
+				color: SOFT,
+				margin: [0, 2, 0, 0]
+			}
+		],
+		unbreakable: true
+	} as Content;
+}
+
 /** The full element report for one element of the snapshot. */
 export function elementSection(
 	s: ReportSnapshot,
@@ -901,8 +946,21 @@ export function elementSection(
 	}
 	out.push(keep(h2('1', 'Construction'), { text: constructionInWords(el), margin: [0, 0, 0, 4] } as Content));
 	out.push(layerTable(el, r));
+	if (el.input) {
+		// the build-up drawn to scale, as the element page shows it
+		const drawing = sectionDrawing(el.input, r);
+		out.push({
+			stack: chart(
+				sectionSvg(drawing, { id: `s${el.id}`, width: 640, fontFamily: FONT }),
+				sectionCaption(drawing)
+			),
+			unbreakable: true
+		} as Content);
+	}
 	out.push(keep(h2('2', 'Method'), methodStatement(r)));
 	out.push(keep(h2('3', 'Thermal resistance, U-value and limit'), thermalTable(el, r, s)));
+	const storage = heatStorageBlock(el, r);
+	if (storage) out.push(storage);
 	out.push({
 		stack: [
 			h2('4', 'Temperature through the build-up'),
