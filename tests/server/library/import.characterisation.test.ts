@@ -296,7 +296,9 @@ describe.skipIf(!hasDatabase)('material CSV import: the same results as recorded
 				if (p.kind === 'preview') {
 					expect(p.token).toMatch(TOKEN);
 					token = p.token;
-					record.preview = { ...p, token: '<token>' };
+					// each row's numbers as read were added after the recording (checked in import.test.ts)
+					const rows = p.rows.map(({ read: _read, ...row }) => row);
+					record.preview = { ...p, rows, token: '<token>' };
 				} else record.preview = p;
 			} catch (e) {
 				record.preview = refusal(e);

@@ -201,8 +201,21 @@ describe.skipIf(!hasDatabase)('templates', async () => {
 		const buildUp = {
 			rsi: 0.1,
 			rse: 0.04,
-			ground: { perimeterM: 32, areaM2: 60, groundLambda: 1.5, wallThicknessM: 0.3 },
+			ground: {
+				perimeterM: 32,
+				areaM2: 60,
+				groundLambda: 1.5,
+				wallThicknessM: 0.3,
+				suspended: {
+					heightM: 0.3,
+					underfloorWallU: 1.7,
+					openingsPerPerimeter: 0.003,
+					windSpeed: 5,
+					windShielding: 'average'
+				}
+			},
 			roofSpace: 'tiles-with-felt-or-boards',
+			inclinationDeg: 35,
 			layers: [
 				{
 					name: 'Mineral wool between joists',
@@ -214,7 +227,9 @@ describe.skipIf(!hasDatabase)('templates', async () => {
 					bridgeGeometry: { widthMm: 47, centresMm: 600 },
 					materialId: '00000000-0000-4000-8000-000000000001',
 					materialRevisionId: '00000000-0000-4000-8000-000000000002',
-					materialCode: 'IN-MW-035'
+					materialCode: 'IN-MW-035',
+					density: 30,
+					specificHeat: 1030
 				},
 				{
 					name: 'Board on fixings',
