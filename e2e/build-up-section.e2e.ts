@@ -16,6 +16,7 @@ test('the section drawing follows the build-up as it is typed', async ({ page, c
 	await expect(page.getByRole('heading', { name: reference })).toBeVisible();
 	await page.getByRole('button', { name: 'Add element' }).click();
 	await expect(page.getByRole('heading', { name: 'New element' })).toBeVisible();
+	await expect(page.getByRole('heading', { name: 'New element' })).toBeVisible();
 	await waitForApp(page);
 	await page.getByLabel('Area m²').fill('20');
 
@@ -67,6 +68,7 @@ test('a masonry wall shows its κ1 and decrement factor from the library values'
 	await page.getByRole('button', { name: 'Create dwelling' }).click();
 	await expect(page.getByRole('heading', { name: reference })).toBeVisible();
 	await page.getByRole('button', { name: 'Add element' }).click();
+	await expect(page.getByRole('heading', { name: 'New element' })).toBeVisible();
 	await waitForApp(page);
 	await page.getByLabel('Area m²').fill('20');
 	await page.getByRole('button', { name: 'Choose layer 1 from the library' }).click();

@@ -20,8 +20,11 @@ test('an assessor works out a window U from its glazing and frame, and saves it 
 	await expect(page.getByRole('heading', { name: reference })).toBeVisible();
 	await page.getByRole('button', { name: 'Add element' }).click();
 	await waitForApp(page);
+	// the new element's page has replaced the dwelling's (a client-side navigation keeps the ready mark)
+	await expect(page.getByRole('heading', { name: 'New element' })).toBeVisible();
 	await page.getByLabel('Kind').selectOption('window');
-	await page.getByLabel('Name').fill('Kitchen window');
+	await expect(page.getByLabel('Given U W/(m²·K)')).toBeVisible();
+	await page.getByLabel('Name', { exact: true }).fill('Kitchen window');
 	await page.getByLabel('Area m²').fill('1.6');
 
 	await page.getByRole('button', { name: 'Work out U from its parts (ISO 10077-1)' }).click();
