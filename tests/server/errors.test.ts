@@ -47,6 +47,26 @@ describe.skipIf(!hasDatabase)('refusalOf', () => {
 		expect(r?.status).toBe(503);
 	});
 
+	it('a transaction whose connection the server ended is a 503, not a 500', async () => {
+		// What a PostgreSQL restart does to a write in flight (found by `./docker-free-start.sh faults`):
+		// the backend is terminated, the transaction's next query fails and knex reports the failed
+		// ROLLBACK ("Client has encountered a connection error and is not queryable").
+		const own = knex({ client: 'pg', connection: process.env.TEST_DATABASE_URL, pool: { min: 0, max: 2 } });
+		const e = await own
+			.transaction(async (trx) => {
+				const [{ pid }] = (await trx.raw('select pg_backend_pid() as pid')).rows;
+				await own.raw('select pg_terminate_backend(?)', [pid]);
+				await new Promise((r) => setTimeout(r, 100));
+				await trx.raw('select 1');
+			})
+			.catch((x) => x);
+		await own.destroy();
+		expect(String(e?.message)).toMatch(/connection|terminat/i);
+		const r = refusalOf(e);
+		expect(r).toBeInstanceOf(UnavailableError);
+		expect(r?.status).toBe(503);
+	});
+
 	it('anything else stays a fault of Envelo (null: 500 with a reference)', () => {
 		expect(refusalOf(new TypeError('x is undefined'))).toBeNull();
 	});

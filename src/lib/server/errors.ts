@@ -131,8 +131,10 @@ const UNREACHABLE_CODES = new Set([
 	'08003',
 	'08006'
 ]);
+// A transaction whose connection PostgreSQL ended (a restart, a crash) fails on its ROLLBACK with the
+// driver's "Client has encountered a connection error and is not queryable".
 const UNREACHABLE_TEXT =
-	/Connection terminated|Timeout acquiring a connection|connect ECONNREFUSED|the database system is (starting up|shutting down)/i;
+	/Connection terminated|Connection ended unexpectedly|connection error and is not queryable|Timeout acquiring a connection|connect ECONNREFUSED|the database system is (starting up|shutting down|in recovery mode)/i;
 
 /**
  * The refusal an error stands for: an AppError as it is; bad input that only the database noticed (a
