@@ -36,7 +36,8 @@ export function decisionRefusal(userId: string, involvement: Involvement): strin
 }
 
 /** A running batch whose heartbeat is older than this is stalled: its worker stopped, another takes over. */
-export const STALL_AFTER_MS = 60_000;
+// Six missed heartbeats (HEARTBEAT_EVERY_MS is 5 s): a batch resumes well within a minute of a crash.
+export const STALL_AFTER_MS = 30_000;
 
 /**
  * True when a batch is running but its recompute has written no heartbeat for STALL_AFTER_MS: the worker

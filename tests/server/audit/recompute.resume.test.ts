@@ -4,7 +4,7 @@ import { hasDatabase, makeTeam, fakeEvent, tdb, asMember, callHandler } from '..
 import { isStalled } from '../../../src/lib/audit/rules';
 
 // A batch recompute whose worker stops half-way (the process is killed) is taken over and finished:
-// the rule "running, but no heartbeat for 60 s = stalled", the continuation at the batch's `done` and
+// the rule "running, but no heartbeat for 30 s = stalled", the continuation at the batch's `done` and
 // the counts are the product's own rules (common practice, no source: a lease renewed by a heartbeat).
 
 const sleep = (ms: number) => new Promise((r) => setTimeout(r, ms));

@@ -3,6 +3,7 @@
  * benchmark can run it outside SvelteKit. src/lib/server/audits.ts binds it to the app's database.
  */
 import { randomUUID } from 'node:crypto';
+import { hostname } from 'node:os';
 import type { Knex } from 'knex';
 import {
 	auditDwelling,
@@ -61,6 +62,8 @@ export type BatchProgress = {
 	error?: string;
 	/** the run that holds the batch while it is running */
 	runId?: string | null;
+	/** the process whose worker holds (or last held) the run: host name and process id */
+	runner?: string | null;
 	/** when a stalled run was taken over and continued at its `done` */
 	resumedAt?: string | null;
 	/** the run covers only some dwellings: its `done` is no place to continue at */
@@ -360,11 +363,14 @@ function auditRows(rows: DwellingRows, c: Context): Map<string, DwellingAudit> {
 	return out;
 }
 
+/** Which process runs a recompute, for the operator (several Envelo processes share the queue). */
+const RUNNER = `${hostname()}:${process.pid}`;
+
 /** A running recompute writes its heartbeat this often (between chunks too: a chunk takes a few seconds). */
 export const HEARTBEAT_EVERY_MS = 5_000;
 /**
  * A run that has finished no chunk for this long stops writing its heartbeat (a query that hangs would
- * otherwise keep a batch "running" for ever), so the batch is taken over as stalled a minute later.
+ * otherwise keep a batch "running" for ever), so the batch is taken over as stalled half a minute later.
  */
 const STUCK_AFTER_MS = 10 * 60_000;
 
@@ -476,6 +482,7 @@ export async function recomputeBatchWith(
 				progress: progressWith(trx, {
 					state: 'running',
 					runId,
+					runner: RUNNER,
 					startedAt: start > 0 && p.startedAt ? p.startedAt : now,
 					resumedAt: start > 0 ? now : null,
 					heartbeat: now,

@@ -4,7 +4,7 @@
  * policy, keyed by batch).
  *
  * A job only starts a run; whether a run is alive is told by the heartbeat it writes on the batch
- * (`recompute.ts`). A batch still running whose heartbeat is older than a minute has lost its worker:
+ * (`recompute.ts`). A batch still running whose heartbeat is older than half a minute has lost its worker:
  * "Recompute again" takes it over, and every worker looks for such batches at start-up and every few
  * seconds and queues them again; the new run continues where the stalled one stopped. So the job's
  * expiry is only a backstop far beyond any real run, not the way a dead run is noticed.
@@ -18,8 +18,8 @@ import { recomputeBatchWith, requestRecomputeWith, stalledBatchesWith } from './
 export const AUDIT_QUEUE = 'audit-recompute';
 const SCHEMA = 'pgboss';
 
-/** How often a worker looks for stalled batches (a batch is stalled a minute after its last heartbeat). */
-export const RECOVER_EVERY_MS = 10_000;
+/** How often a worker looks for stalled batches (a batch is stalled half a minute after its last heartbeat). */
+export const RECOVER_EVERY_MS = 5_000;
 
 const QUEUE: PgBoss.Queue = {
 	name: AUDIT_QUEUE,
@@ -161,7 +161,7 @@ export async function startAuditWorker() {
 /**
  * On shutdown: stop looking for stalled batches, stop this process's runs between chunks (each leaves
  * its batch with no heartbeat, so the next worker continues it at once), then stop polling and close
- * the queue's pool. A batch whose run could not leave it cleanly is taken over a minute later.
+ * the queue's pool. A batch whose run could not leave it cleanly is taken over half a minute later.
  */
 export async function stopAuditWorker() {
 	stopped = true;
