@@ -238,9 +238,47 @@ run_bench() {
 	node scripts/bench.js "$@"
 }
 
+# Faults: throwaway services as for the benchmarks (PostgreSQL with fsync on, as in production), then
+# scripts/faults.js starts Envelo itself (one process, then two), breaks things on purpose (PostgreSQL
+# restarted and killed, Envelo killed mid-import, mid-recompute and mid-issue, the SMTP server down) and
+# prints a table of what held; it exits non-zero when a row failed. FAULTS_ONLY="smtp two" runs some rows.
+run_faults() {
+	ensure_system_packages
+	ensure_node_modules
+	TEST_TMP=$(mktemp -d /tmp/envelo-faults.XXXXXX)
+	chmod 755 "$TEST_TMP"
+	local port; port=$(free_port)
+	pg_prepare_dir "$TEST_TMP/postgres" || die "cannot prepare $TEST_TMP/postgres"
+	log "starting a throwaway PostgreSQL on 127.0.0.1:$port (fsync on)"
+	PG_FSYNC=on pg_start "$TEST_TMP/postgres" "$port"
+	PG_DATA_RUNNING="$TEST_TMP/postgres"
+	pg_roles "$TEST_TMP"
+	pg_createdb envelo_faults
+	pg_migrate envelo_faults seed
+	pgboss_prepare envelo_faults
+	export FAULTS_DATABASE_URL; FAULTS_DATABASE_URL=$(pg_url envelo_faults "$PG_APP_ROLE")
+	unset DATABASE_OWNER_URL
+	local smtp_port inbox_port; smtp_port=$(free_port); inbox_port=$(free_port)
+	start_mail "$smtp_port" "$inbox_port" "$TEST_TMP/mail"
+	# faults.js stops and starts the mail server itself (the SMTP row): it is told which process it is.
+	export FAULTS_MAIL_PID="${PIDS[-1]}" FAULTS_MAIL_DIR="$TEST_TMP/mail" FAULTS_INBOX_PORT="$inbox_port"
+	start_s3 "$(free_port)" "$TEST_TMP/s3"
+	export SMTP_HOST=127.0.0.1 SMTP_PORT="$smtp_port" INBOX_URL="http://127.0.0.1:$inbox_port"
+	export MAIL_FROM="Envelo <no-reply@envelo.example.test>"
+	export AUTH_SECRET="faults-secret-$RANDOM$RANDOM$RANDOM"
+	# PostgreSQL's own controls, for restarting and killing it (as the postgres user when we are root).
+	export FAULTS_PG_BIN="$PG_BIN" FAULTS_PG_DATA="$TEST_TMP/postgres" FAULTS_PG_PORT="$port" FAULTS_TMP="$TEST_TMP"
+	TEST_BUILD="$ROOT/.test-builds/$(basename "$TEST_TMP")"
+	export BUILD_DIR="$TEST_BUILD/build" KIT_OUT_DIR="$TEST_BUILD/kit" FAULTS_BUILD_DIR="$TEST_BUILD/build"
+	log "building Envelo for the fault scenarios"
+	build_app "$TEST_TMP/build.log" || { tail -40 "$TEST_TMP/build.log"; die "build failed"; }
+	node scripts/faults.js
+}
+
 case "${1:-start}" in
 	start) run_start ;;
 	test) run_test ;;
 	bench) shift; run_bench "$@" ;;
-	*) die "usage: $0 [start|test|bench]" ;;
+	faults) run_faults ;;
+	*) die "usage: $0 [start|test|bench|faults]" ;;
 esac
