@@ -31,6 +31,16 @@ test('a supervisor audits the demo programme; the assessor answers a return; the
 	// the audit state and the dwelling's own status are two separate columns
 	await expect(page.getByTestId('dwelling-status').first()).toHaveText('Draft');
 	await page.screenshot({ path: '/tmp/audit-batch.png', fullPage: true });
+	// the flags by kind: choosing one flag leaves the dwellings that have it, and back
+	const [{ n: notIssued }] = await db()('audit_items')
+		.where({ batch_id: batchId })
+		.whereRaw(`exists (select 1 from jsonb_array_elements(flags) f where f->>'code' = 'not-issued')`)
+		.count<{ n: string }[]>('* as n');
+	const allRows = await page.getByTestId('items').locator('tbody tr').count();
+	await page.getByTestId('flag-kind-filter').selectOption('code:not-issued');
+	await expect(page.getByTestId('items').locator('tbody tr')).toHaveCount(Number(notIssued));
+	await page.getByTestId('flag-kind-filter').selectOption('');
+	await expect(page.getByTestId('items').locator('tbody tr')).toHaveCount(allRows);
 
 	// a flagged dwelling of Ben Okafor that can be issued
 	const ben = await db()('users').where({ email: DEMO.assessor }).first('id');
@@ -59,6 +69,12 @@ test('a supervisor audits the demo programme; the assessor answers a return; the
 	await page.goto(`/audit/${batchId}/items/${chosen!.id}`);
 	await expect(page.getByTestId('flags')).toBeVisible();
 	await page.screenshot({ path: '/tmp/audit-review.png', fullPage: true });
+	// one kind of flag at a time: only its heading is left, then every kind again
+	const kind = page.getByTestId('flag-filter').getByLabel('Kind');
+	await kind.selectOption('record');
+	await expect(page.getByTestId('flags').getByRole('heading')).toHaveText(['Issued record and recompute']);
+	await expect(page.getByTestId('flags')).toContainText('No issued report');
+	await kind.selectOption('');
 	// keyboard: 3 chooses "Returned for correction"; c focuses the comment without typing a "c"; once in the
 	// comment every key types (digits and shortcut letters too) and Ctrl+Enter records
 	await page.locator('body').press('3');
