@@ -96,7 +96,8 @@ async function psiShown(page: Page): Promise<number> {
 
 test('an assessor adds an external corner and a wall–ground floor junction from their own elements', async ({
 	page,
-	context
+	context,
+	browser
 }, info) => {
 	test.setTimeout(180_000);
 	const workers: string[] = [];
@@ -211,4 +212,37 @@ test('an assessor adds an external corner and a wall–ground floor junction fro
 			path.join(work, 'issued.pdf'),
 			shot(info, name)
 		]);
+
+	// A supervisor's audit of the dwelling shows each junction issued beside its recompute.
+	const sup = await browser.newContext();
+	await signInAs(sup, DEMO.supervisor);
+	const spage = await sup.newPage();
+	const batch = await spage.request.post('/api/v1/audit/batches', {
+		data: {
+			name: `Check ${d.reference}`,
+			source: 'references',
+			references: [d.reference],
+			sampling: { rule: 'all' }
+		}
+	});
+	expect(batch.status(), await batch.text()).toBe(201);
+	const { id: batchId } = await batch.json();
+	await expect
+		.poll(
+			async () =>
+				(await (await spage.request.get(`/api/v1/audit/batches/${batchId}`)).json()).progress?.state,
+			{
+				timeout: 60_000
+			}
+		)
+		.toBe('done');
+	const items = await (await spage.request.get(`/api/v1/audit/batches/${batchId}/items`)).json();
+	const itemId = (items.items ?? items)[0].id;
+	await spage.goto(`/audit/${batchId}/items/${itemId}`);
+	await waitForApp(spage);
+	const table = spage.getByTestId('junction-recompute');
+	await expect(table.locator('tbody tr')).toHaveCount(2);
+	await expect(table).toContainText('Corners');
+	await spage.screenshot({ path: shot(info, 'audit-junctions.png'), fullPage: true });
+	await sup.close();
 });
