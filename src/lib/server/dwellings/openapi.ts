@@ -141,7 +141,7 @@ export const paths: Record<string, unknown> = {
 		get: {
 			tags: ['dwellings'],
 			summary:
-				'What differs between the dwelling now and its latest issued dwelling report: { report, changes: [{ elementId, element, field, before, after, by, at }, with junctionId instead of elementId, and the junction's name as element, for a junction] } (report null before the first issue)',
+				'What differs between the dwelling now and its latest issued dwelling report: { report, changes: [{ elementId, element, field, before, after, by, at }, with junctionId instead of elementId, and the junction name as element, for a junction] } (report null before the first issue)',
 			responses: { '200': ok('{ report, changes }'), ...errors }
 		}
 	},
