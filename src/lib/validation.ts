@@ -45,3 +45,22 @@ export const optionalText = (label: string, max: number) =>
 		.max(max, `${label} must be at most ${max} characters`)
 		.nullish()
 		.transform((v) => (v ? v : null));
+
+/** A calendar date written YYYY-MM-DD between 1900 and 2200; one message, for the first thing wrong. */
+export const isoDate = z
+	.string({ error: 'must be a date' })
+	.regex(/^\d{4}-\d{2}-\d{2}$/, {
+		message: 'must be a date written YYYY-MM-DD, e.g. 2024-03-01',
+		abort: true
+	})
+	.refine(
+		(s) => {
+			const d = new Date(`${s}T00:00:00Z`);
+			return !Number.isNaN(d.getTime()) && d.toISOString().slice(0, 10) === s;
+		},
+		{ message: 'is not a real calendar date', abort: true }
+	)
+	.refine((s) => {
+		const year = Number(s.slice(0, 4));
+		return year >= 1900 && year <= 2200;
+	}, 'must be a date between the years 1900 and 2200');

@@ -1,17 +1,13 @@
 import { z } from 'zod';
 import { DECISIONS } from './flags';
 import { DWELLING_STATUSES } from '$lib/dwellings/kinds';
-
-const dateText = z
-	.string()
-	.regex(/^\d{4}-\d{2}-\d{2}$/, 'must be a date as YYYY-MM-DD')
-	.refine((s) => !Number.isNaN(Date.parse(s)), 'is not a real date');
+import { isoDate } from '$lib/validation';
 
 export const batchFilterSchema = z
 	.object({
 		assessorId: z.uuid('must be a member of the organisation').optional(),
-		issuedFrom: dateText.optional(),
-		issuedTo: dateText.optional(),
+		issuedFrom: isoDate.optional(),
+		issuedTo: isoDate.optional(),
 		statuses: z.array(z.enum(DWELLING_STATUSES, { error: 'is not a dwelling status' })).optional(),
 		programme: z.string().trim().max(200, 'must be at most 200 characters').optional()
 	})

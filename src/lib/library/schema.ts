@@ -8,7 +8,7 @@ import {
 	MATERIAL_CATEGORY_LABELS,
 	type MaterialCategory
 } from '$lib/library/categories';
-import { fieldIssues, type FieldIssue } from '$lib/validation';
+import { fieldIssues, isoDate, type FieldIssue } from '$lib/validation';
 
 /** How a λ value was arrived at (the distinction ISO 10456 draws between declared and design values). */
 export const LAMBDA_KINDS = ['declared', 'design', 'table'] as const;
@@ -54,25 +54,6 @@ const safeText = (max: number) =>
 		.refine((s) => !CONTROL_CHARACTER.test(s), {
 			message: 'holds an invisible control character (such as a zero byte); remove it'
 		});
-
-/** A calendar date written YYYY-MM-DD between 1900 and 2200; one message, for the first thing wrong. */
-const isoDate = z
-	.string({ error: 'must be a date' })
-	.regex(/^\d{4}-\d{2}-\d{2}$/, {
-		message: 'must be a date written YYYY-MM-DD, e.g. 2024-03-01',
-		abort: true
-	})
-	.refine(
-		(s) => {
-			const d = new Date(`${s}T00:00:00Z`);
-			return !Number.isNaN(d.getTime()) && d.toISOString().slice(0, 10) === s;
-		},
-		{ message: 'is not a real calendar date', abort: true }
-	)
-	.refine((s) => {
-		const year = Number(s.slice(0, 4));
-		return year >= 1900 && year <= 2200;
-	}, 'must be a date between the years 1900 and 2200');
 
 const optionalNumber = (schema: z.ZodNumber) => schema.nullable().optional();
 
