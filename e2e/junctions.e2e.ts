@@ -161,7 +161,8 @@ test('an assessor adds an external corner and a wall–ground floor junction fro
 
 	// The dwelling report: previewed, then issued, each with a page per junction and the heat loss.
 	const checkReport = (pages: string[]) => {
-		const summary = pages[0];
+		// the technical summary, after the client's summary in plain words
+		const summary = pages.find((p) => p.includes('DWELLING REPORT'))!;
 		expect(summary).toContain('Junctions and transmission heat loss');
 		expect(summary).toMatch(/Corners External corner \(walls\) 10\.40 −?\d\.\d{3}/);
 		expect(summary).toMatch(/Ground floor edge Wall – ground floor 30\.00 −?\d\.\d{3}/);

@@ -40,6 +40,14 @@ test('an assessor previews, issues, re-issues, downloads and e-mails a report; t
 	await page.goto(`/dwellings/${d.id}/reports`);
 	await expect(page.getByRole('heading', { name: /Reports and e-mail/ })).toBeVisible();
 	await expect(page.getByTestId('draft-elements')).toBeVisible();
+	// The summary for the client, as the report prints it first and the e-mail carries it, folded away.
+	const summaryPreview = page.getByTestId('client-summary');
+	await summaryPreview.locator('summary').click();
+	await expect(summaryPreview).toContainText('In short');
+	await expect(summaryPreview.getByRole('heading', { name: 'What to do next' })).toBeVisible();
+	await expect(summaryPreview).toContainText(
+		'support, and do not replace, the judgement of a qualified professional'
+	);
 
 	// Draft preview: a PDF, marked as such.
 	const cookie = await sessionCookie(DEMO.assessor);
@@ -131,6 +139,33 @@ test('an assessor previews, issues, re-issues, downloads and e-mails a report; t
 	expect(mail.attachments).toHaveLength(1);
 	expect(mail.attachments[0].filename).toMatch(/\.pdf$/);
 	expect(mail.text).toContain(`/verify/${latest.verification_code}`);
+	// Sent as HTML with a plain-text alternative, both with the summary for the client and its cautions.
+	const html = (mail as typeof mail & { html: string }).html;
+	expect(mail.text).toContain('SUMMARY FOR THE CLIENT');
+	expect(mail.text).toMatch(/In short: /);
+	expect(mail.text).toContain('support, and do not replace, the judgement of a qualified professional');
+	expect(html).toContain('Your home in plain words');
+	expect(html).toContain(`/verify/${latest.verification_code}`);
+	expect(html).toContain('local building codes');
+	expect(html).not.toMatch(/<script|<img|<link/i);
+	// As a mail program shows it: the headings and the table read, and nothing is fetched from elsewhere.
+	const view = await browser.newPage();
+	const fetched: string[] = [];
+	view.on('request', (r) => fetched.push(r.url()));
+	await view.setContent(html);
+	await expect(view.getByRole('heading', { name: 'Your home in plain words' })).toBeVisible();
+	for (const h of [
+		'What was assessed',
+		'Heat loss',
+		'Damp and mould',
+		'What to do next',
+		'Please keep in mind'
+	])
+		await expect(view.getByRole('heading', { name: h })).toBeVisible();
+	await expect(view.getByRole('table')).toContainText('Heat loss figure (U-value)');
+	expect(fetched).toEqual([]);
+	await view.screenshot({ path: '/tmp/reports-mail.png', fullPage: true });
+	await view.close();
 	await expect(page.locator('[data-testid=mail-row]').filter({ hasText: to })).toContainText('Sent', {
 		timeout: 15_000
 	});

@@ -34,6 +34,18 @@ export type OutgoingMail = {
 	attachments?: { filename: string; content: Buffer; contentType?: string }[];
 };
 
+/**
+ * Text made safe inside HTML, for element content and quoted attribute values alike: every character
+ * that could open a tag, an entity or end an attribute is written as an entity. Whatever a dwelling,
+ * a person or a message is called, it comes out in an HTML e-mail as text.
+ */
+export function escapeHtml(text: string): string {
+	return text.replace(
+		/[&<>"']/g,
+		(c) => ({ '&': '&amp;', '<': '&lt;', '>': '&gt;', '"': '&quot;', "'": '&#39;' })[c]!
+	);
+}
+
 /** Send now. Callers that must never lose a message go through the outbox instead. */
 export async function sendMail(message: OutgoingMail): Promise<void> {
 	const transport = createTransport();

@@ -37,7 +37,9 @@ describe('the dwelling report with junctions', async () => {
 	const text = pages(await renderPdf(reportDocument(snapshot)));
 
 	it('sums the heat loss on the summary: ΣU·A, Σψ·L and H_T, each junction with its ψ and where it comes from', () => {
-		const summary = text[0];
+		// the technical summary, after the client's summary in plain words
+		const summary = text.find((p) => p.includes('DWELLING REPORT'))!;
+		expect(text.indexOf(summary)).toBeGreaterThan(0);
 		const ua = snapshot.elements.reduce((t, e) => t + e.result!.uValue * e.area, 0);
 		const psiL = corner.psi! * 10.4 + edge.psi! * 30 + 0.3 * 6;
 		expect(summary).toContain('Junctions and transmission heat loss');
@@ -94,7 +96,9 @@ describe('the dwelling report with junctions', async () => {
 		const old = pages(await renderPdf(reportDocument(snapshotWith(undefined))));
 		expect(old.join(' ')).not.toMatch(/Junctions|Σψ·L/);
 		const none = pages(await renderPdf(reportDocument(snapshotWith([]))));
-		expect(none[0]).toContain('No junctions (linear thermal bridges) are recorded for this dwelling');
+		expect(none.find((p) => p.includes('DWELLING REPORT'))).toContain(
+			'No junctions (linear thermal bridges) are recorded for this dwelling'
+		);
 		expect(none.join(' ')).not.toContain('Junctions: method and cautions');
 	});
 

@@ -218,9 +218,16 @@ describe.skipIf(!hasDatabase)('reports', async () => {
 		const outcome = timber.result!.condensation!.outcome;
 		expect(outcome).not.toBe('none');
 		const text = pdfText((await reports.getReportPdf(s.team.org.id, issued.id))!.pdf);
-		const page1 = text.split('\f')[0].replace(/\s+/g, ' ');
-		// Page 1 never claims that nothing condenses when an element condenses.
+		const pages = text.split('\f').map((p) => p.replace(/\s+/g, ' '));
+		// The client's summary comes first; the technical summary follows it, on the first page that
+		// carries the report's own heading.
+		const clientPage = pages[0];
+		const page1 = pages.find((p) => p.includes('DWELLING REPORT'))!;
+		expect(pages.indexOf(page1)).toBeGreaterThan(0);
+		// Neither summary claims that nothing condenses when an element condenses.
 		expect(page1).not.toContain('no element accumulates');
+		expect(clientPage).toContain('SUMMARY FOR THE CLIENT');
+		expect(pages.slice(0, pages.indexOf(page1)).join(' ')).not.toContain('No water is expected to form');
 		const line = moistureSummary(full.snapshot) as { text: { text: string; color?: string }[] };
 		const parts = line.text.slice(1);
 		if (outcome === 'dries') {

@@ -110,6 +110,143 @@ function legend(x: number, y: number, items: { label: string; colour: string; da
 	return parts.join('');
 }
 
+/* ---------------------------------------------------------------- point labels */
+
+/** An axis-aligned box in chart units (pt), y downwards. */
+export type LabelBox = { x0: number; y0: number; x1: number; y1: number };
+
+/** A label wanted beside a point: the point, the text and its size (pt). */
+export type PointLabel = { x: number; y: number; text: string; size: number };
+
+/** Where a label went: its baseline start, anchor, box and, when it sits away from its point, a leader line. */
+export type PlacedLabel = {
+	x: number;
+	y: number;
+	anchor: 'start' | 'end';
+	box: LabelBox;
+	leader: { x1: number; y1: number; x2: number; y2: number } | null;
+};
+
+/**
+ * Width of a label in Source Sans 3, pt: advance widths of its figures and signs as fractions of the
+ * em (figures about 0.5 em, "." and "," about 0.25 em; measured from the font, rounded up), so that a box
+ * is never narrower than the text drawn.
+ */
+export function labelWidth(text: string, size: number): number {
+	let em = 0;
+	for (const ch of text) em += /[0-9]/.test(ch) ? 0.52 : /[.,:;]/.test(ch) ? 0.26 : ch === ' ' ? 0.22 : 0.58;
+	return em * size + 0.5;
+}
+
+/** The box of a text with its baseline at (x, y): from the ascender to the descender. */
+export function textBox(
+	x: number,
+	y: number,
+	text: string,
+	size: number,
+	anchor: 'start' | 'end' = 'start'
+): LabelBox {
+	const w = labelWidth(text, size);
+	const x0 = anchor === 'start' ? x : x - w;
+	return { x0, y0: y - 0.78 * size, x1: x0 + w, y1: y + 0.24 * size };
+}
+
+const overlaps = (a: LabelBox, b: LabelBox, gap = 0.6) =>
+	a.x0 < b.x1 + gap && b.x0 < a.x1 + gap && a.y0 < b.y1 + gap && b.y0 < a.y1 + gap;
+
+const inside = (a: LabelBox, b: LabelBox) => a.x0 >= b.x0 && a.x1 <= b.x1 && a.y0 >= b.y0 && a.y1 <= b.y1;
+
+/** Whether the segment from p to q crosses the box (Liang–Barsky clipping). */
+function crosses(p: [number, number], q: [number, number], b: LabelBox): boolean {
+	let t0 = 0;
+	let t1 = 1;
+	const dx = q[0] - p[0];
+	const dy = q[1] - p[1];
+	for (const [pe, qe] of [
+		[-dx, p[0] - b.x0],
+		[dx, b.x1 - p[0]],
+		[-dy, p[1] - b.y0],
+		[dy, b.y1 - p[1]]
+	]) {
+		if (pe === 0) {
+			if (qe < 0) return false;
+		} else {
+			const t = qe / pe;
+			if (pe < 0) t0 = Math.max(t0, t);
+			else t1 = Math.min(t1, t);
+			if (t0 > t1) return false;
+		}
+	}
+	return true;
+}
+
+/**
+ * Lays out the labels of points so that no two overlap, none covers another point or a fixed text
+ * (`obstacles`), and all stay within `bounds`. Each label first tries the four places beside its point
+ * (above or below, to the right or the left), preferring those clear of the plotted line (`line`); a
+ * label with the same text as a placed one right next to it (two interfaces a hair apart) is dropped, the
+ * one label standing for both; a label with no room beside its point is moved away from it, up or down in
+ * steps of one line, with a leader line back to it. A label that finds no place at all is dropped (null) rather than
+ * drawn over another. Pure; the order of `labels` is the order of preference.
+ */
+export function layoutPointLabels(
+	labels: PointLabel[],
+	bounds: LabelBox,
+	obstacles: LabelBox[] = [],
+	line: [number, number][] = []
+): (PlacedLabel | null)[] {
+	const placed: (PlacedLabel | null)[] = [];
+	const taken: LabelBox[] = [...obstacles];
+	const dots = labels.map((l) => ({ x0: l.x - 1.8, y0: l.y - 1.8, x1: l.x + 1.8, y1: l.y + 1.8 }));
+	const clearOfLine = (b: LabelBox) => !line.some((p, i) => i > 0 && crosses(line[i - 1], p, b));
+	labels.forEach((l, i) => {
+		const free = (b: LabelBox) =>
+			inside(b, bounds) &&
+			!taken.some((t) => overlaps(b, t)) &&
+			!dots.some((d, k) => k !== i && overlaps(b, d, 0.3));
+		const lineH = 1.02 * l.size + 1;
+		const near: { x: number; y: number; anchor: 'start' | 'end' }[] = [
+			{ x: l.x + 2, y: l.y - 4, anchor: 'start' },
+			{ x: l.x - 2, y: l.y + 0.78 * l.size + 3, anchor: 'end' },
+			{ x: l.x + 2, y: l.y + 0.78 * l.size + 3, anchor: 'start' },
+			{ x: l.x - 2, y: l.y - 4, anchor: 'end' }
+		];
+		const at = (c: { x: number; y: number; anchor: 'start' | 'end' }) =>
+			textBox(c.x, c.y, l.text, l.size, c.anchor);
+		// the same figure already stands beside a point this close (two interfaces a hair apart): it labels both
+		const twin = placed.some(
+			(p, k) =>
+				p && labels[k].text === l.text && Math.abs(labels[k].x - l.x) < 8 && Math.abs(labels[k].y - l.y) < 4
+		);
+		if (twin) {
+			placed.push(null);
+			return;
+		}
+		let choice = near.find((c) => free(at(c)) && clearOfLine(at(c))) ?? near.find((c) => free(at(c))) ?? null;
+		let leader: PlacedLabel['leader'] = null;
+		if (!choice) {
+			for (let step = 1; step <= 12 && !choice; step++) {
+				const shifted = near.map((c) => ({ ...c, y: c.y + (c.y < l.y ? -1 : 1) * step * lineH }));
+				choice =
+					shifted.find((c) => free(at(c)) && clearOfLine(at(c))) ?? shifted.find((c) => free(at(c))) ?? null;
+			}
+			if (choice) {
+				const b = at(choice);
+				const yEnd = choice.y < l.y ? b.y1 : b.y0;
+				leader = { x1: l.x, y1: l.y, x2: choice.anchor === 'start' ? b.x0 : b.x1, y2: yEnd };
+			}
+		}
+		if (!choice) {
+			placed.push(null);
+			return;
+		}
+		const box = at(choice);
+		taken.push(box);
+		placed.push({ x: choice.x, y: choice.y, anchor: choice.anchor, box, leader });
+	});
+	return placed;
+}
+
 /**
  * Temperature through the build-up at the design temperatures: layers shaded (bridged layers darker),
  * the internal and external air to either side, the temperature at each interface.
@@ -132,6 +269,12 @@ export function temperatureChart(result: ElementResult, width = 500, height = 19
 	const parts: string[] = [];
 	const yTop = box.top;
 	const yBottom = height - box.bottom;
+	/** the layer numbers and the words "inside" and "outside": labels keep clear of them */
+	const layerNumberBoxes: LabelBox[] = [];
+	const middle = (cx: number, cy: number, s: string, size: number) => {
+		const w = labelWidth(s, size);
+		return { x0: cx - w / 2, y0: cy - 0.78 * size, x1: cx + w / 2, y1: cy + 0.24 * size };
+	};
 	layers.forEach((l, i) => {
 		const fill = l.disregarded
 			? CHART_COLOURS.disregarded
@@ -140,13 +283,20 @@ export function temperatureChart(result: ElementResult, width = 500, height = 19
 				: i % 2
 					? CHART_COLOURS.bandB
 					: CHART_COLOURS.bandA;
-		parts.push(layerBand(x(l.positionStartMm), x(l.positionEndMm), yTop, yBottom, fill, i + 1));
+		const xa = x(l.positionStartMm);
+		const xb = x(l.positionEndMm);
+		parts.push(layerBand(xa, xb, yTop, yBottom, fill, i + 1));
+		if (xb - xa >= 7) layerNumberBoxes.push(middle((xa + xb) / 2, yTop + 9, String(i + 1), 6.5));
 	});
 	parts.push(
 		text(x(-stub / 2), yBottom - 4, 'inside', { anchor: 'middle', size: 6.5, fill: CHART_COLOURS.faint })
 	);
 	parts.push(
 		text(x(total + stub / 2), yTop + 9, 'outside', { anchor: 'middle', size: 6.5, fill: CHART_COLOURS.faint })
+	);
+	layerNumberBoxes.push(
+		middle(x(-stub / 2), yBottom - 4, 'inside', 6.5),
+		middle(x(total + stub / 2), yTop + 9, 'outside', 6.5)
 	);
 	const xTicks = x
 		.copy()
@@ -176,29 +326,41 @@ export function temperatureChart(result: ElementResult, width = 500, height = 19
 	pts.push([x(total), y(te)], [x(total + stub), y(te)]);
 	// The air to either side: a step at the surface film, as the surface resistances imply.
 	parts.push(polyline(pts, CHART_COLOURS.heat, 1.4));
-	const labelled = result.interfaces.length <= 10;
-	result.interfaces.forEach((p, i) => {
+	for (const p of result.interfaces)
 		parts.push(
 			`<circle cx="${x(p.positionMm).toFixed(2)}" cy="${y(p.temperature).toFixed(2)}" r="1.6" fill="${CHART_COLOURS.heat}"/>`
 		);
-		if (labelled) {
-			const above = i % 2 === 0;
+	// The air temperatures first, in fixed places; then the interfaces' labels around them, none overlapping.
+	const LABEL = 6.5;
+	const thetaI = `θi ${fx(ti, 1)}`;
+	const thetaE = `θe ${fx(te, 1)}`;
+	const teY = y(te) + (y(te) > yBottom - 12 ? -4 : 9);
+	parts.push(text(x(-stub) + 2, y(ti) + 9, thetaI, { size: LABEL, fill: CHART_COLOURS.ink }));
+	parts.push(text(x(total + stub) - 2, teY, thetaE, { size: LABEL, anchor: 'end', fill: CHART_COLOURS.ink }));
+	const fixed = [
+		textBox(x(-stub) + 2, y(ti) + 9, thetaI, LABEL),
+		textBox(x(total + stub) - 2, teY, thetaE, LABEL, 'end'),
+		...layerNumberBoxes
+	];
+	if (result.interfaces.length <= 10) {
+		const bounds = { x0: box.left, y0: yTop, x1: width - box.right, y1: yBottom };
+		const wanted = result.interfaces.map((p) => ({
+			x: x(p.positionMm),
+			y: y(p.temperature),
+			text: fx(p.temperature, 1),
+			size: LABEL
+		}));
+		layoutPointLabels(wanted, bounds, fixed, pts).forEach((pl, i) => {
+			if (!pl) return;
+			if (pl.leader)
+				parts.push(
+					`<line x1="${pl.leader.x1.toFixed(2)}" y1="${pl.leader.y1.toFixed(2)}" x2="${pl.leader.x2.toFixed(2)}" y2="${pl.leader.y2.toFixed(2)}" stroke="${CHART_COLOURS.faint}" stroke-width="0.4"/>`
+				);
 			parts.push(
-				text(x(p.positionMm) + 2, y(p.temperature) + (above ? -4 : 9), fx(p.temperature, 1), {
-					size: 6.5,
-					fill: CHART_COLOURS.ink
-				})
+				text(pl.x, pl.y, wanted[i].text, { size: LABEL, anchor: pl.anchor, fill: CHART_COLOURS.ink })
 			);
-		}
-	});
-	parts.push(text(x(-stub) + 2, y(ti) + 9, `θi ${fx(ti, 1)}`, { size: 6.5, fill: CHART_COLOURS.ink }));
-	parts.push(
-		text(x(total + stub) - 2, y(te) + (y(te) > yBottom - 12 ? -4 : 9), `θe ${fx(te, 1)}`, {
-			size: 6.5,
-			anchor: 'end',
-			fill: CHART_COLOURS.ink
-		})
-	);
+		});
+	}
 	return svg(width, height, parts);
 }
 

@@ -41,6 +41,7 @@ import {
 	COMMON_JUNCTION_METHOD,
 	type JunctionCalculation
 } from '$lib/junctions/calculate';
+import { clientSummary, TONE_WORDS, type Finding, type Tone } from '$lib/reports/client-summary';
 import type { ReportSnapshot, SnapshotElement, SnapshotJunction } from './snapshot';
 
 /** "ABCD-EFGH-JK": the code as the screens show it (the verify page takes it with or without dashes). */
@@ -56,6 +57,8 @@ const SUNK = '#efeae0';
 const PASS = '#25612f';
 const CAUTION = '#7a5400';
 const FAIL = '#8e1e18';
+/** The colour of each tone of a finding (always beside its word), for the PDF and the e-mail. */
+export const TONE_COLOURS: Record<Tone, string> = { pass: PASS, caution: CAUTION, fail: FAIL, none: INK };
 
 /** Page size and margins, pt (A4). */
 const PAGE_MARGINS: [number, number, number, number] = [50, 64, 50, 60];
@@ -173,8 +176,28 @@ function kv(rows: [string, string | Content][], widths: (string | number)[] = [1
 	} as Content;
 }
 
+/** Units (and "U-value") that a table heading never splits across lines. */
+const UNBROKEN = /(W\/\(m²·K\)|W\/\(m·K\)|m²·K\/W|W\/K|W\/m²|g\/m²|°C|m²|mm|Pa|U-value)/;
+
+/**
+ * The pieces of a heading, each unit kept whole (pdfmake's `noWrap` on its piece): a narrow column
+ * wraps between words, never inside "m²·K/W". A heading that must wrap at a set place says so with "\n".
+ */
+export function headingPieces(text: string): { text: string; noWrap?: true }[] {
+	return text
+		.split(UNBROKEN)
+		.filter(Boolean)
+		.map((p) => (UNBROKEN.test(p) ? { text: p, noWrap: true as const } : { text: p }));
+}
+
 function th(text: string, right = false): TableCell {
-	return { text, bold: true, color: SOFT, fontSize: 7.5, alignment: right ? 'right' : 'left' } as TableCell;
+	return {
+		text: headingPieces(text),
+		bold: true,
+		color: SOFT,
+		fontSize: 7.5,
+		alignment: right ? 'right' : 'left'
+	} as TableCell;
 }
 
 function num(text: string): TableCell {
@@ -261,7 +284,7 @@ function layerTable(el: SnapshotElement, r: ElementResult): Content {
 			th('#'),
 			th('Layer and source of values'),
 			th('d, mm', true),
-			th('λ W/(m·K) or R m²·K/W', true),
+			th('λ W/(m·K)\nor R m²·K/W', true),
 			th('μ or sd', true),
 			th('R, m²·K/W', true),
 			th('Bridging')
@@ -1191,6 +1214,112 @@ export function dwellingSummary(s: ReportSnapshot): Content[] {
 	return out;
 }
 
+/* ---------------------------------------------------------------- the client's summary */
+
+/** A finding as a paragraph: its tone's word in its colour, then the text. */
+function finding(f: Finding, margin: [number, number, number, number] = [0, 0, 0, 4]): Content {
+	const lead = TONE_WORDS[f.tone];
+	return {
+		text: [
+			...(lead ? [{ text: `${lead}: `, bold: true, color: TONE_COLOURS[f.tone] }] : []),
+			...(f.label ? [{ text: `${f.label}. `, bold: true }] : []),
+			{ text: f.text }
+		],
+		margin
+	} as Content;
+}
+
+/** An unnumbered heading of the client's pages, kept with what follows it. */
+function plainHeading(text: string): Content {
+	return { text, style: 'h2', headlineLevel: 2 } as Content;
+}
+
+/**
+ * The first page(s) of a dwelling report: the summary for the client in plain words (client-summary.ts,
+ * the same words as the e-mail), kept apart from the technical pages that follow it.
+ */
+export function clientSummaryPages(s: ReportSnapshot): Content[] {
+	const c = clientSummary(s);
+	const out: Content[] = [h1(c.title, c.kicker)];
+	out.push({
+		table: {
+			widths: ['*'],
+			body: [
+				[
+					{
+						text: [
+							{ text: 'In short: ', bold: true, color: TONE_COLOURS[c.headline.tone] },
+							{ text: c.headline.text, bold: true, color: TONE_COLOURS[c.headline.tone] }
+						],
+						fontSize: 11
+					}
+				]
+			] as TableCell[][]
+		},
+		layout: panel,
+		margin: [0, 0, 0, 8]
+	} as Content);
+	out.push({
+		stack: [
+			...(c.preparedFor ? [{ text: c.preparedFor, bold: true, margin: [0, 0, 0, 4] }] : []),
+			...c.intro.map((p) => ({ text: p, margin: [0, 0, 0, 4] }))
+		]
+	} as Content);
+	out.push(
+		keep(plainHeading(c.assessed.heading), {
+			stack: c.assessed.paragraphs.map((p) => ({ text: p, margin: [0, 0, 0, 4] }))
+		} as Content)
+	);
+	out.push(
+		keep(plainHeading(c.heatLoss.heading), { stack: c.heatLoss.paragraphs.map((p) => finding(p)) } as Content)
+	);
+	const t = c.table;
+	const body: TableCell[][] = [
+		[
+			th(t.columns.name),
+			th(t.columns.kind),
+			th(`${t.columns.u}\n${t.columns.unit}`, true),
+			th(`${t.columns.limit}\n${t.columns.unit}`, true),
+			th(t.columns.verdict),
+			th(t.columns.moisture)
+		],
+		...t.rows.map(
+			(r) =>
+				[
+					{ text: r.name, bold: true },
+					r.kind,
+					num(r.u),
+					num(r.limit),
+					{
+						text: r.verdict.text,
+						bold: r.verdict.tone !== 'none',
+						color: r.verdict.tone === 'none' ? SOFT : TONE_COLOURS[r.verdict.tone]
+					},
+					{ text: r.moisture.text, color: r.moisture.tone === 'none' ? SOFT : TONE_COLOURS[r.moisture.tone] }
+				] as TableCell[]
+		)
+	];
+	out.push({
+		table: { headerRows: 1, dontBreakRows: true, widths: ['*', 86, 62, 44, 66, 132], body },
+		layout: rules,
+		fontSize: 8.4,
+		margin: [0, 2, 0, 4]
+	} as Content);
+	out.push(
+		keep(plainHeading(c.moisture.heading), { stack: c.moisture.paragraphs.map((p) => finding(p)) } as Content)
+	);
+	out.push(
+		keep(plainHeading(c.nextSteps.heading), {
+			ul: c.nextSteps.items.map((f) => finding(f, [0, 0, 0, 2]))
+		} as Content)
+	);
+	// The cautions may run on to the next page (a heading never ends a page: pageBreakBefore).
+	out.push(plainHeading(c.cautions.heading));
+	out.push({ ul: c.cautions.items.map((x) => ({ text: x, margin: [0, 0, 0, 2] })) } as Content);
+	out.push({ text: c.closing, color: SOFT, margin: [0, 6, 0, 0] } as Content);
+	return [{ stack: out, fontSize: 9.3, lineHeight: 1.18 } as Content];
+}
+
 /** The complete pdfmake document for a snapshot (element or dwelling scope). */
 const EVIDENCE_TYPE_LABELS: Record<string, string> = {
 	'image/jpeg': 'JPEG photo',
@@ -1255,6 +1384,9 @@ export function reportDocument(s: ReportSnapshot): TDocumentDefinitions {
 	const d = s.document;
 	const content: Content[] = [];
 	if (d.scope === 'dwelling') {
+		// The client's summary in plain words comes first, on its own page(s), before the technical pages.
+		content.push(...clientSummaryPages(s));
+		content.push({ canvas: [], pageBreak: 'after' } as Content);
 		content.push(...dwellingSummary(s));
 		s.elements.forEach((el, i) => {
 			content.push({ text: '', pageBreak: 'after' } as Content);

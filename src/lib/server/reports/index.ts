@@ -8,6 +8,7 @@ import { db, type Db } from '$lib/server/db';
 import { logActivity } from '$lib/server/activity';
 import { ConflictError, ForbiddenError, NotFoundError, ValidationError } from '$lib/server/errors';
 import { enqueueMail, kickOutbox } from '$lib/server/outbox';
+import { escapeHtml } from '$lib/server/mail';
 import {
 	analyseElement,
 	parseElementInput,
@@ -17,7 +18,8 @@ import {
 } from '$lib/physics';
 import { toElementInput, type StoredBuildUp, type StoredInternal } from '$lib/dwellings/element-input';
 import { GIVEN_U_KINDS, ELEMENT_KIND_LABELS, type ElementKind } from '$lib/dwellings/kinds';
-import { reportDocument, passWord, moistureWord } from './document';
+import { reportDocument, passWord, moistureWord, TONE_COLOURS } from './document';
+import { clientSummary, TONE_WORDS, type Finding } from '$lib/reports/client-summary';
 import { renderPdf } from '$lib/server/pdf';
 import { groupCode, longDate } from '$lib/format';
 import { supersededMailRefusal } from '$lib/reports/rules';
@@ -789,25 +791,15 @@ export async function emailReport(
 		if (refusal) throw new ConflictError(refusal);
 		const snap = report.snapshot as ReportSnapshot;
 		const sender = await callerName(t, caller.userId);
-		const what =
-			report.scope === 'dwelling'
-				? `the report for dwelling ${snap.dwelling.reference}`
-				: `the report for the element "${snap.elements[0]?.name ?? ''}" of dwelling ${snap.dwelling.reference}`;
-		const subject = `Report ${report.number} revision ${report.revision} — ${snap.dwelling.reference}`;
-		const greeting = snap.dwelling.clientName ? `Dear ${snap.dwelling.clientName},` : 'Hello,';
-		const lines = [
-			greeting,
-			'',
-			`Please find attached ${what}, report ${report.number} revision ${report.revision}, issued on ${longDate(new Date(report.issued_at).toISOString())}.`,
-			...(input.message?.trim() ? ['', input.message.trim()] : []),
-			'',
-			`You can check that the PDF is genuine at ${snap.document.verifyUrl} (verification code ${groupCode(report.verification_code)}).`,
-			'',
-			'The results are steady-state calculations that support, and do not replace, professional judgement; check them against the local building codes and licensed practice.',
-			'',
-			sender ? `${sender}` : '',
-			snap.organisation.name
-		];
+		const mail = reportMail({
+			snapshot: snap,
+			number: report.number,
+			revision: Number(report.revision),
+			issuedAt: new Date(report.issued_at).toISOString(),
+			verificationCode: report.verification_code,
+			sender,
+			message: input.message ?? null
+		});
 		const outboxId = await enqueueMail(
 			{
 				organisationId: caller.organisationId,
@@ -815,8 +807,9 @@ export async function emailReport(
 				reportId: report.id,
 				purpose: 'report',
 				to: input.to,
-				subject,
-				text: lines.join('\n').trim() + '\n',
+				subject: mail.subject,
+				text: mail.text,
+				html: mail.html,
 				attachments: [{ filename: reportFilename(report.number, report.revision), reportId: report.id }],
 				createdBy: caller.userId
 			},
@@ -838,6 +831,152 @@ export async function emailReport(
 	kickOutbox();
 	const mail = await getMail(caller.organisationId, id);
 	return mail!;
+}
+
+/**
+ * The client's e-mail of an issued report: the covering note, the summary for the client in plain words
+ * with its cautions (client-summary.ts, the words of the PDF's first pages), how to check the PDF is
+ * genuine, and the sender. As plain text and as HTML, the same content: the HTML is styled inline (mail
+ * programs drop style sheets), loads nothing from elsewhere, and every piece of text in it is escaped,
+ * so a name or a message comes out as text whatever characters it holds. Pure.
+ */
+export function reportMail(m: {
+	snapshot: ReportSnapshot;
+	number: string;
+	revision: number;
+	issuedAt: string;
+	verificationCode: string;
+	sender: string;
+	message: string | null;
+}): { subject: string; text: string; html: string } {
+	const snap = m.snapshot;
+	const ref = snap.dwelling.reference;
+	const what =
+		snap.document.scope === 'dwelling'
+			? `the report for dwelling ${ref}`
+			: `the report for the element "${snap.elements[0]?.name ?? ''}" of dwelling ${ref}`;
+	const subject = `Report ${m.number} revision ${m.revision} — ${ref}`;
+	const greeting = snap.dwelling.clientName ? `Dear ${snap.dwelling.clientName},` : 'Hello,';
+	const opening = `Please find attached ${what}, report ${m.number} revision ${m.revision}, issued on ${longDate(m.issuedAt)}.`;
+	const message = m.message?.trim() || null;
+	const verify = `You can check that the PDF is genuine at ${snap.document.verifyUrl} (verification code ${groupCode(m.verificationCode)}).`;
+	const technical =
+		'The results are steady-state calculations that support, and do not replace, professional judgement; check them against the local building codes and licensed practice.';
+	// The summary's own line on checking the report is said once, below it, with the link.
+	const c = clientSummary(snap);
+	const next = c.nextSteps.items.filter(
+		(f) => !f.text.startsWith('You can check that the report is genuine')
+	);
+	const lead = (f: Finding) => (TONE_WORDS[f.tone] ? `${TONE_WORDS[f.tone]}: ` : '');
+	const para = (f: Finding) => `${lead(f)}${f.label ? `${f.label}. ` : ''}${f.text}`;
+	const signature = [m.sender, snap.organisation.name].filter(Boolean);
+
+	const rule = '-'.repeat(60);
+	/** paragraphs with a blank line after each */
+	const paras = (list: string[]) => list.flatMap((x) => [x, '']);
+	const text = [
+		greeting,
+		'',
+		opening,
+		'',
+		...(message ? [message, ''] : []),
+		rule,
+		c.kicker.toUpperCase(),
+		rule,
+		'',
+		`In short: ${c.headline.text}`,
+		'',
+		...paras(c.intro),
+		c.assessed.heading.toUpperCase(),
+		...paras(c.assessed.paragraphs),
+		c.heatLoss.heading.toUpperCase(),
+		...paras(c.heatLoss.paragraphs.map(para)),
+		...c.table.rows.map(
+			(r) =>
+				`- ${r.name} (${r.kind.toLowerCase()}): U-value ${r.u === '—' ? 'not worked out' : `${r.u} ${c.table.columns.unit}`}, limit ${r.limit === 'none set' ? 'none set' : `${r.limit} ${c.table.columns.unit}`}, ${r.verdict.text}; damp and mould: ${r.moisture.text.charAt(0).toLowerCase()}${r.moisture.text.slice(1)}.`
+		),
+		'',
+		c.moisture.heading.toUpperCase(),
+		...paras(c.moisture.paragraphs.map(para)),
+		c.nextSteps.heading.toUpperCase(),
+		...next.map((f) => `- ${para(f)}`),
+		'',
+		c.cautions.heading.toUpperCase(),
+		...c.cautions.items.map((x) => `- ${x}`),
+		'',
+		c.closing,
+		'',
+		rule,
+		'',
+		verify,
+		'',
+		technical,
+		'',
+		...signature
+	];
+
+	const e = escapeHtml;
+	const ink = TONE_COLOURS.none;
+	const soft = '#4a463e';
+	const line = '#ddd5c6';
+	const h = (s: string) =>
+		`<h2 style="font-size:17px;line-height:1.3;margin:22px 0 6px;color:${ink};font-weight:600">${e(s)}</h2>`;
+	const p = (inner: string, style = '') => `<p style="margin:0 0 10px;${style}">${inner}</p>`;
+	const findingHtml = (f: Finding) =>
+		`${TONE_WORDS[f.tone] ? `<strong style="color:${TONE_COLOURS[f.tone]}">${e(TONE_WORDS[f.tone])}:</strong> ` : ''}${f.label ? `<strong>${e(f.label)}.</strong> ` : ''}${e(f.text)}`;
+	const cell = (inner: string, extra = '') =>
+		`<td style="padding:6px 8px;border-bottom:1px solid ${line};vertical-align:top;${extra}">${inner}</td>`;
+	/** a column heading; its unit on a line of its own, never split */
+	const head = (s: string, right = false, unit?: string) =>
+		`<th style="padding:6px 8px;border-bottom:2px solid ${soft};text-align:${right ? 'right' : 'left'};font-size:13px;color:${soft};font-weight:600;vertical-align:bottom">${e(s).replace('(U-value)', '<span style="white-space:nowrap">(U-value)</span>')}${unit ? `<br><span style="white-space:nowrap">${e(unit)}</span>` : ''}</th>`;
+	const toneText = (f: Finding, bold: boolean) =>
+		`<span style="color:${f.tone === 'none' ? soft : TONE_COLOURS[f.tone]};${f.tone !== 'none' && bold ? 'font-weight:600' : ''}">${e(f.text)}</span>`;
+	const cols = c.table.columns;
+	const table = `<table cellspacing="0" cellpadding="0" style="border-collapse:collapse;width:100%;font-size:14px;margin:4px 0 10px">
+<thead><tr>${head(cols.name)}${head(cols.kind)}${head(cols.u, true, cols.unit)}${head(cols.limit, true, cols.unit)}${head(cols.verdict)}${head(cols.moisture)}</tr></thead>
+<tbody>${c.table.rows
+		.map(
+			(r) =>
+				`<tr>${cell(`<strong>${e(r.name)}</strong>`)}${cell(e(r.kind))}${cell(e(r.u), 'text-align:right;white-space:nowrap')}${cell(e(r.limit), 'text-align:right;white-space:nowrap')}${cell(toneText(r.verdict, true))}${cell(toneText(r.moisture, false))}</tr>`
+		)
+		.join('\n')}</tbody></table>`;
+	const list = (items: string[]) =>
+		`<ul style="margin:0 0 10px;padding-left:22px">${items.map((i) => `<li style="margin:0 0 6px">${i}</li>`).join('')}</ul>`;
+	const verifyUrl = snap.document.verifyUrl ?? '';
+	const html = `<!doctype html>
+<html lang="en"><head><meta charset="utf-8"><meta name="viewport" content="width=device-width, initial-scale=1"><title>${e(subject)}</title></head>
+<body style="margin:0;padding:0;background:#f6f3ec">
+<div style="max-width:680px;margin:0 auto;padding:24px 20px;background:#fffdf8;color:${ink};font-family:'Source Sans 3','Source Sans Pro',Arial,Helvetica,sans-serif;font-size:15px;line-height:1.5">
+${p(e(greeting))}
+${p(e(opening))}
+${message ? p(e(message).replace(/\r?\n/g, '<br>')) : ''}
+<div style="border-top:1px solid ${line};margin:20px 0 0;padding-top:14px">
+<div style="font-size:12px;letter-spacing:0.06em;text-transform:uppercase;color:#c2571a;font-weight:600">${e(c.kicker)}</div>
+<h1 style="font-size:22px;line-height:1.25;margin:4px 0 12px;font-weight:600">${e(c.title)}</h1>
+<div style="background:#efeae0;padding:10px 12px;margin:0 0 12px;font-weight:600;color:${TONE_COLOURS[c.headline.tone]}">In short: ${e(c.headline.text)}</div>
+${c.intro.map((x) => p(e(x))).join('\n')}
+${h(c.assessed.heading)}
+${c.assessed.paragraphs.map((x) => p(e(x))).join('\n')}
+${h(c.heatLoss.heading)}
+${c.heatLoss.paragraphs.map((f) => p(findingHtml(f))).join('\n')}
+${table}
+${h(c.moisture.heading)}
+${c.moisture.paragraphs.map((f) => p(findingHtml(f))).join('\n')}
+${h(c.nextSteps.heading)}
+${list(next.map(findingHtml))}
+${h(c.cautions.heading)}
+${list(c.cautions.items.map(e))}
+${p(e(c.closing), `color:${soft}`)}
+</div>
+<div style="border-top:1px solid ${line};margin:20px 0 0;padding-top:14px">
+${p(`You can check that the PDF is genuine at <a href="${e(verifyUrl)}" style="color:#7a3b12">${e(verifyUrl)}</a> (verification code <strong>${e(groupCode(m.verificationCode))}</strong>).`)}
+${p(e(technical), `color:${soft}`)}
+${p(signature.map(e).join('<br>'))}
+</div>
+</div>
+</body></html>
+`;
+	return { subject, text: text.join('\n').trim() + '\n', html };
 }
 
 function mailQuery(organisationId: string) {

@@ -17,6 +17,7 @@ import { readIssueChanges } from '$lib/server/reports/changes';
 import { moistureWord, passWord } from '$lib/server/reports/document';
 import { emailSchema } from '$lib/reports/schema';
 import { ISSUE_ROLES } from '$lib/reports/rules';
+import { clientSummary } from '$lib/reports/client-summary';
 import { issueRefusal } from '$lib/dwellings/rules';
 import { checkReportMailLimit } from '$lib/server/rate-limit';
 
@@ -84,6 +85,8 @@ export const load = async (event) => {
 			calculable: e.result !== null || e.u !== null
 		})),
 		limitTable: snapshot.limitTable ? `${snapshot.limitTable.name}, ${snapshot.limitTable.edition}` : null,
+		// what the client reads first in the dwelling report and in the e-mail
+		clientSummary: snapshot.elements.length ? clientSummary(snapshot) : null,
 		assessor: snapshot.dwelling.assessor,
 		problems,
 		reports,
