@@ -64,3 +64,17 @@ export const isoDate = z
 		const year = Number(s.slice(0, 4));
 		return year >= 1900 && year <= 2200;
 	}, 'must be a date between the years 1900 and 2200');
+
+/** The largest value of a PostgreSQL integer column: versions, positions and counts stay within it. */
+export const PG_INT_MAX = 2_147_483_647;
+/** The deepest page a list is asked for; beyond it the offset means nothing to a person. */
+export const PAGE_MAX = 100_000;
+/** The most elements a dwelling holds, and so the largest position one can take. */
+export const ELEMENTS_MAX = 10_000;
+
+/** The version a person loaded, sent back with a change so that a stale save is refused. */
+export const versionSchema = z
+	.number({ error: 'is required: the version you loaded, for the check that nobody changed it since' })
+	.int('must be a whole number')
+	.min(1, 'must be ≥ 1')
+	.max(PG_INT_MAX, 'is not a version Envelo gave out');

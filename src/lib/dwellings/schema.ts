@@ -20,6 +20,9 @@ import {
 	DYNAMIC_SPECIFIC_HEAT_MIN
 } from '$lib/physics/dynamic';
 import { toElementInput, type ClimateMonthValues, type StoredBuildUp } from '$lib/dwellings/element-input';
+import { ELEMENTS_MAX, PAGE_MAX, versionSchema } from '$lib/validation';
+
+export { versionSchema };
 
 const text = (max: number, what = 'text') =>
 	z
@@ -48,10 +51,6 @@ export const elementKindSchema = z.enum(ELEMENT_KINDS, {
 export const heatFlowSchema = z.enum(HEAT_FLOWS, {
 	error: 'must be upward, horizontal or downward'
 });
-export const versionSchema = z
-	.number({ error: 'is required: the version you loaded, for the check that nobody changed it since' })
-	.int('must be a whole number')
-	.min(1, 'must be ≥ 1');
 
 /* ------------------------------------------------------------ dwellings */
 
@@ -121,6 +120,7 @@ export const dwellingListQuerySchema = z.object({
 		.number({ error: 'must be a number' })
 		.int('must be a whole number')
 		.min(1, 'must be ≥ 1')
+		.max(PAGE_MAX, `must be at most ${PAGE_MAX}`)
 		.default(1),
 	pageSize: z.coerce
 		.number({ error: 'must be a number' })
@@ -215,7 +215,12 @@ export const elementFieldsSchema = z.object({
 		.gt(0, 'must be > 0 m²')
 		.lte(100000, 'must be ≤ 100 000 m²'),
 	heatFlow: heatFlowSchema.optional(),
-	position: z.number().int().min(0).optional(),
+	position: z
+		.number({ error: 'must be a whole number' })
+		.int('must be a whole number')
+		.min(0, 'must be ≥ 0')
+		.max(ELEMENTS_MAX, `must be at most ${ELEMENTS_MAX}`)
+		.optional(),
 	buildUp: storedBuildUpSchema.nullish(),
 	givenU: z
 		.number({ error: 'must be a number in W/(m²·K)' })
@@ -334,7 +339,8 @@ export const thicknessRequestSchema = z.object({
 	layerIndex: z
 		.number({ error: 'must be a layer index' })
 		.int('must be a whole number')
-		.min(0, 'must be ≥ 0'),
+		.min(0, 'must be ≥ 0')
+		.max(999, 'must be at most 999'),
 	targetU: z.number({ error: 'must be a number in W/(m²·K)' }).gt(0, 'must be > 0'),
 	productThicknessesMm: z.array(z.number().gt(0, 'must be > 0')).max(200).optional(),
 	/** meet: the current thickness if it already meets the target, else the least that does; thinnest: always the least */

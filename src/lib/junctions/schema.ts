@@ -7,6 +7,9 @@
  */
 import { z } from 'zod';
 import { DIMENSION_SYSTEMS, JUNCTION_TYPES, PSI_SOURCES } from './kinds';
+import { versionSchema } from '$lib/validation';
+
+export { versionSchema };
 
 const number = (what: string) =>
 	z.number({
@@ -28,10 +31,6 @@ export const junctionTypeSchema = z.enum(JUNCTION_TYPES, {
 export const dimensionSystemSchema = z.enum(DIMENSION_SYSTEMS, {
 	error: 'must be internal, overall-internal or external'
 });
-export const versionSchema = z
-	.number({ error: 'is required: the version you loaded, for the check that nobody changed it since' })
-	.int('must be a whole number')
-	.min(1, 'must be ≥ 1');
 
 /** Inside conditions for the surface check: temperature, and a humidity class or a relative humidity. */
 export const junctionInternalSchema = z

@@ -8,7 +8,7 @@ import {
 	MATERIAL_CATEGORY_LABELS,
 	type MaterialCategory
 } from '$lib/library/categories';
-import { fieldIssues, isoDate, type FieldIssue } from '$lib/validation';
+import { fieldIssues, isoDate, PAGE_MAX, type FieldIssue } from '$lib/validation';
 
 /** How a λ value was arrived at (the distinction ISO 10456 draws between declared and design values). */
 export const LAMBDA_KINDS = ['declared', 'design', 'table'] as const;
@@ -324,6 +324,7 @@ export const listQuerySchema = z.object({
 		.number({ error: 'must be a whole number' })
 		.int('must be a whole number')
 		.min(1, 'must be 1 or more')
+		.max(PAGE_MAX, `must be at most ${PAGE_MAX}`)
 		.optional()
 		.default(1),
 	pageSize: z.coerce

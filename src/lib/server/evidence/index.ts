@@ -85,6 +85,7 @@ export const uploadFieldsSchema = z
 					.number({ error: 'layerIndex must be a number' })
 					.int('layerIndex must be a whole number')
 					.min(0, 'layerIndex counts from 0 (the first layer)')
+					.max(999, 'layerIndex must be at most 999')
 			])
 			.optional()
 	})

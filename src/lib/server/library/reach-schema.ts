@@ -1,5 +1,6 @@
 /** The requests of the reach of a library correction, validated with zod (the API and the OpenAPI document). */
 import { z } from 'zod';
+import { PAGE_MAX } from '$lib/validation';
 
 /** The most elements one move may name. */
 export const MOVE_MAX = 20_000;
@@ -10,6 +11,7 @@ export const reachQuerySchema = z.object({
 		.number({ error: 'must be a number' })
 		.int('must be a whole number')
 		.min(1, 'must be ≥ 1')
+		.max(PAGE_MAX, `must be at most ${PAGE_MAX}`)
 		.default(1),
 	pageSize: z.coerce
 		.number({ error: 'must be a number' })
