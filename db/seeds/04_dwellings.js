@@ -167,6 +167,15 @@ const doorEl = () => ({
 });
 
 const STREETS = ['Alder Row', 'Brambling Lane', 'Curlew Terrace', 'Dunnock Street'];
+/**
+ * An invented total floor area: two storeys over the ground floor's area, or none without a ground
+ * floor among the elements.
+ */
+const floorArea = (els) => {
+	const ground = els.find((e) => Array.isArray(e) && /^(ground|suspended)/i.test(e[0]));
+	return ground ? ground[1] * 2 : null;
+};
+
 const NF_DWELLINGS = [
 	{
 		n: 1,
@@ -285,7 +294,17 @@ export async function seed(knex) {
 			const materials = await trx('materials as m')
 				.join('material_revisions as r', 'r.id', 'm.current_revision_id')
 				.where('m.organisation_id', org)
-				.select('m.id', 'm.code', 'r.id as revision_id', 'r.lambda', 'r.resistance', 'r.mu_dry', 'r.sd');
+				.select(
+					'm.id',
+					'm.code',
+					'r.id as revision_id',
+					'r.lambda',
+					'r.resistance',
+					'r.mu_dry',
+					'r.sd',
+					'r.density',
+					'r.specific_heat'
+				);
 			const byCode = new Map(materials.map((m) => [m.code, m]));
 
 			/** A stored layer: the library's values copied in when the code is there, else the generic ones. */
@@ -298,6 +317,11 @@ export async function seed(knex) {
 				if (m.resistance !== null && rest.resistance !== undefined) out.resistance = m.resistance;
 				if (m.mu_dry !== null && rest.mu !== undefined) out.mu = m.mu_dry;
 				if (m.sd !== null && rest.sd !== undefined) out.sd = m.sd;
+				// density and specific heat, as the editor copies them, for the heat storage (ISO 13786)
+				if (m.density !== null && m.specific_heat !== null && rest.lambda !== undefined) {
+					out.density = m.density;
+					out.specificHeat = m.specific_heat;
+				}
 				return out;
 			};
 
@@ -341,7 +365,8 @@ export async function seed(knex) {
 						assessor_id: d.assessor,
 						stage: d.stage,
 						status: d.status,
-						climate_id: climate?.id ?? null
+						climate_id: climate?.id ?? null,
+						floor_area: floorArea(d.els)
 					})
 					.returning('id');
 				let position = 0;

@@ -18,9 +18,32 @@ export const dwellingFormSchema = z.object({
 	stage: z.enum(STAGES, { message: 'Choose design or as built.' }).default('design'),
 	limitTableId: z.string().default(''),
 	climateId: z.string().default(''),
+	floorArea: z
+		.string()
+		.trim()
+		.default('')
+		.refine(
+			(s) => s === '' || /^\d+([.,]\d+)?$/.test(s),
+			'Enter the floor area in m², e.g. 86.5, or leave it empty.'
+		)
+		.refine(
+			(s) => s === '' || (areaOf(s) > 0 && areaOf(s) <= 100000),
+			'Enter a floor area above 0 and at most 100 000 m².'
+		),
 	version: z.number().int().default(0)
 });
 export type DwellingForm = z.infer<typeof dwellingFormSchema>;
+
+/** A floor area as typed (a decimal comma allowed) as a number of m². */
+const areaOf = (s: string) => Number(s.replace(',', '.'));
+
+/** The form's fields as the dwelling service takes them: the floor area as a number, or null when empty. */
+export function dwellingFieldsFromForm({ floorArea, ...rest }: Omit<DwellingForm, 'version'>) {
+	return { ...rest, floorArea: floorArea === '' ? null : areaOf(floorArea) };
+}
+
+/** A stored floor area as the form shows it. */
+export const floorAreaText = (v: number | null) => (v === null ? '' : String(v));
 
 export const copyFormSchema = z.object({
 	reference: z.string().trim().min(1, 'Give the copy its own reference.').max(60, 'At most 60 characters.'),

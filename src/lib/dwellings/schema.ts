@@ -66,7 +66,14 @@ export const dwellingFieldsSchema = z.object({
 	assessorId: uuidOrNull,
 	stage: z.enum(STAGES, { error: 'must be design or as-built' }).default('design'),
 	limitTableId: uuidOrNull,
-	climateId: uuidOrNull
+	climateId: uuidOrNull,
+	/** total floor area, m², for the figures per floor area (the heat-capacity parameter); null until given */
+	floorArea: z
+		.number({ error: 'must be a number in m²' })
+		.gt(0, 'must be > 0 m²')
+		.lte(100000, 'must be ≤ 100 000 m²')
+		.nullish()
+		.transform((v) => v ?? null)
 });
 
 /** Reopening an accepted dwelling, or one awaiting review, for changes: the reason, in a supervisor's words. */

@@ -327,7 +327,8 @@ export async function createDwelling(member: Member, raw: unknown, trx?: Db): Pr
 					assessor_id: assessorId,
 					stage: data.stage,
 					limit_table_id: data.limitTableId,
-					climate_id: data.climateId
+					climate_id: data.climateId,
+					floor_area: data.floorArea
 				})
 				.returning('id');
 			await log(member, 'create', row.id, { reference: data.reference, assessorId }, t);
@@ -348,7 +349,8 @@ const COLUMN: Record<string, string> = {
 	assessorId: 'assessor_id',
 	stage: 'stage',
 	limitTableId: 'limit_table_id',
-	climateId: 'climate_id'
+	climateId: 'climate_id',
+	floorArea: 'floor_area'
 };
 
 /**
@@ -570,7 +572,8 @@ export async function copyDwelling(member: Member, id: string, raw: unknown): Pr
 					stage: asBuilt ? 'as-built' : source.stage,
 					design_id: asBuilt ? source.id : null,
 					limit_table_id: source.limit_table_id,
-					climate_id: source.climate_id
+					climate_id: source.climate_id,
+					floor_area: source.floor_area
 				})
 				.returning('id');
 			newId = row.id;
@@ -713,6 +716,7 @@ function toDwelling(r: Record<string, unknown>): Dwelling {
 		status: r.status as DwellingStatus,
 		limitTableId: (r.limit_table_id as string | null) ?? null,
 		climateId: (r.climate_id as string | null) ?? null,
+		floorArea: r.floor_area === null || r.floor_area === undefined ? null : Number(r.floor_area),
 		designId: (r.design_id as string | null) ?? null,
 		issueChanges: r.issue_changes === null || r.issue_changes === undefined ? null : Number(r.issue_changes),
 		reopened: Boolean(r.reopened_at),
@@ -735,6 +739,8 @@ export type Dwelling = {
 	status: DwellingStatus;
 	limitTableId: string | null;
 	climateId: string | null;
+	/** total floor area, m², or null until given */
+	floorArea: number | null;
 	/** the design-stage dwelling this as-built one was copied from */
 	designId: string | null;
 	/** differences from the latest issued dwelling report: null before the first issue, 0 when it matches */

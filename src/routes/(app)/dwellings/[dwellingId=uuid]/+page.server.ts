@@ -17,9 +17,15 @@ import {
 	listElementSummaries,
 	reorderElements
 } from '$lib/server/dwellings/elements';
-import { copyFormSchema, dwellingFormSchema } from '$lib/dwellings/forms';
+import {
+	copyFormSchema,
+	dwellingFieldsFromForm,
+	dwellingFormSchema,
+	floorAreaText
+} from '$lib/dwellings/forms';
 import { readIssueChanges } from '$lib/server/reports/changes';
 import { listJunctions } from '$lib/server/junctions';
+import { readDwellingHeatCapacity } from '$lib/server/dwellings/heat-capacity';
 import { evidencePanel } from '$lib/server/evidence';
 import { AppError, ConflictError, ForbiddenError, NotFoundError, ValidationError } from '$lib/server/errors';
 import { reopenRefusalText } from '$lib/dwellings/rules';
@@ -48,11 +54,14 @@ export const load = async (event) => {
 				stage: d.stage,
 				limitTableId: d.limitTableId ?? '',
 				climateId: d.climateId ?? '',
+				floorArea: floorAreaText(d.floorArea),
 				version: d.version
 			}
 		})
 	]);
-	return { ...overview, options, returned, changes, junctions, evidence, form };
+	// Streamed after the page: it reads every element's build-up, which the overview leaves out.
+	const heatCapacity = readDwellingHeatCapacity(member.organisationId, d.id, d.floorArea);
+	return { ...overview, options, returned, changes, junctions, evidence, form, heatCapacity };
 };
 
 async function expected<T>(fn: () => Promise<T>) {
@@ -94,7 +103,7 @@ export const actions = {
 		if (!form.valid) return fail(400, { form });
 		const { version, ...fields } = form.data;
 		try {
-			await updateDwelling(member, event.params.dwellingId, { ...fields, version });
+			await updateDwelling(member, event.params.dwellingId, { ...dwellingFieldsFromForm(fields), version });
 		} catch (e) {
 			if (e instanceof ValidationError) {
 				for (const i of e.issues) setError(form, i.path as 'reference', i.message);

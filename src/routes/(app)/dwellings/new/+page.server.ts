@@ -3,7 +3,7 @@ import { superValidate, setError } from 'sveltekit-superforms';
 import { zod4 } from 'sveltekit-superforms/adapters';
 import { requireRole } from '$lib/server/guard';
 import { createDwelling, listDwellingOptions, WRITE_ROLES } from '$lib/server/dwellings';
-import { dwellingFormSchema } from '$lib/dwellings/forms';
+import { dwellingFieldsFromForm, dwellingFormSchema } from '$lib/dwellings/forms';
 import { ValidationError } from '$lib/server/errors';
 
 export const load = async (event) => {
@@ -20,6 +20,7 @@ export const load = async (event) => {
 			stage: 'design' as const,
 			limitTableId: '',
 			climateId: options.climates[0]?.id ?? '',
+			floorArea: '',
 			version: 0
 		}
 	});
@@ -33,7 +34,8 @@ export const actions = {
 		if (!form.valid) return fail(400, { form });
 		let id: string;
 		try {
-			id = (await createDwelling(member, form.data)).id;
+			const { version: _version, ...fields } = form.data;
+			id = (await createDwelling(member, dwellingFieldsFromForm(fields))).id;
 		} catch (e) {
 			if (e instanceof ValidationError) {
 				for (const i of e.issues) setError(form, i.path as 'reference', i.message);
