@@ -7,20 +7,11 @@ import type {
 	StoredInternal
 } from '$lib/dwellings/element-input';
 import type { Flag } from './flags';
-import type { JunctionDetails } from '$lib/junctions/schema';
-import type { DimensionSystem, JunctionType, PsiSource } from '$lib/junctions/kinds';
+import type { JunctionType } from '$lib/junctions/kinds';
+import type { JunctionFields } from '$lib/junctions/record';
 
 /** A junction of the dwelling as stored: its fields and choices (the audit computes it again). */
-export type AuditJunction = {
-	id: string;
-	name: string;
-	type: JunctionType;
-	lengthM: number;
-	source: PsiSource;
-	dimensionSystem: DimensionSystem;
-	psiEntered: number | null;
-	psiSource: string | null;
-	details: JunctionDetails | null;
+export type AuditJunction = JunctionFields & {
 	/** the free-form model (the builder's is built again from the elements) */
 	model: unknown;
 };
@@ -165,14 +156,11 @@ export type JunctionOutcome = {
 	ruleOfThumb: { value: number; pass: boolean } | null;
 };
 
-export type JunctionRecompute = {
+export type JunctionRecompute = Pick<
+	JunctionFields,
+	'name' | 'type' | 'lengthM' | 'source' | 'dimensionSystem' | 'psiSource'
+> & {
 	junctionId: string;
-	name: string;
-	type: JunctionType;
-	lengthM: number;
-	source: PsiSource;
-	dimensionSystem: DimensionSystem;
-	psiSource: string | null;
 	/** what the report issued: its ψ and fRsi */
 	issued: { psi: number | null; fRsi: number | null } | null;
 	/** computed today from the stored choices and the dwelling's elements (an entered ψ as entered) */

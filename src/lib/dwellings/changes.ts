@@ -15,14 +15,9 @@
  */
 import { fx, trim } from '$lib/format';
 import { ELEMENT_KIND_LABELS, type ElementKind } from './kinds';
-import {
-	DIMENSION_SYSTEM_LABELS,
-	JUNCTION_TYPE_LABELS,
-	type DimensionSystem,
-	type JunctionType,
-	type PsiSource
-} from '$lib/junctions/kinds';
+import { DIMENSION_SYSTEM_LABELS, JUNCTION_TYPE_LABELS } from '$lib/junctions/kinds';
 import type { JunctionDetails } from '$lib/junctions/schema';
+import type { JunctionFields } from '$lib/junctions/record';
 import type { StoredBuildUp, StoredInternal, StoredLayer } from './element-input';
 
 /** One element as both sides describe it (a report's snapshot element has this shape). */
@@ -46,16 +41,7 @@ export type ComparedElement = {
 };
 
 /** One junction as both sides describe it (a report's snapshot junction has this shape). */
-export type ComparedJunction = {
-	id: string;
-	name: string;
-	type: JunctionType;
-	lengthM: number;
-	source: PsiSource;
-	dimensionSystem: DimensionSystem;
-	psiEntered: number | null;
-	psiSource: string | null;
-	details: JunctionDetails | null;
+export type ComparedJunction = JunctionFields & {
 	/** the computed model; compared for a free-form junction, whose build it is */
 	model: unknown;
 	/** ψ of the heat loss, W/(m·K) */

@@ -6,6 +6,7 @@ import type { JunctionInput } from '$lib/physics/junction-schema';
 import type { ClimateMonthValues } from '$lib/dwellings/element-input';
 import type { DimensionSystem, JunctionType, PsiSource } from '$lib/junctions/kinds';
 import { junctionDetailsSchema, type JunctionDetails } from '$lib/junctions/schema';
+import type { JunctionFields } from '$lib/junctions/record';
 import { fieldIssues, type FieldIssue } from '$lib/validation';
 import type { ElementLike, RunRequest } from '$lib/junctions/run';
 import { DEFAULT_JUNCTION_INTERNAL } from '$lib/junctions/surface';
@@ -14,17 +15,8 @@ import { FLOOR_SLAB_DEFAULT, GROUND_DEFAULT, WINDOW_PANEL_MM_DEFAULT } from '$li
 export type EnvRow = { name: string; temperature: number | null; rs: number | null };
 
 /** A stored junction as the editor starts from it. */
-export type SavedJunction = {
-	id: string;
-	name: string;
-	type: JunctionType;
-	lengthM: number;
-	source: PsiSource;
-	dimensionSystem: DimensionSystem;
-	psiEntered: number | null;
-	psiSource: string | null;
+export type SavedJunction = JunctionFields & {
 	model: JunctionInput | null;
-	details: JunctionDetails | null;
 	version: number;
 };
 

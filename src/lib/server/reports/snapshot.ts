@@ -10,8 +10,7 @@ import type { EvidenceForReport } from '$lib/server/evidence';
 import type { JunctionInput } from '$lib/physics/junction-schema';
 import type { JunctionField } from '$lib/physics/junction-field';
 import type { JunctionCalculation } from '$lib/junctions/calculate';
-import type { JunctionDetails } from '$lib/junctions/schema';
-import type { DimensionSystem, JunctionType, PsiSource } from '$lib/junctions/kinds';
+import type { JunctionFields } from '$lib/junctions/record';
 
 export type ReportScope = 'element' | 'dwelling';
 
@@ -71,17 +70,7 @@ export type SnapshotEvidence = EvidenceForReport;
  * and result computed at issue from the dwelling's elements as they were then, with the temperature
  * field sampled for the picture (temperatures rounded to 0.01 K).
  */
-export type SnapshotJunction = {
-	id: string;
-	name: string;
-	type: JunctionType;
-	lengthM: number;
-	source: PsiSource;
-	dimensionSystem: DimensionSystem;
-	psiEntered: number | null;
-	psiSource: string | null;
-	/** the builder's choices (null for an entered ψ) */
-	details: JunctionDetails | null;
+export type SnapshotJunction = JunctionFields & {
 	/** the model computed: built from the elements, or free-form (null for an entered ψ) */
 	model: JunctionInput | null;
 	/** ψ in the heat loss, W/(m·K): the calculated one in the junction's dimension system, or the entered one */
