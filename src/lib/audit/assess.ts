@@ -43,6 +43,7 @@ import {
 import {
 	condensationAccumulates,
 	givenUOverLimit,
+	windowPartsDisagree,
 	nothingToCompute,
 	recomputeFailed,
 	surfaceMouldRisk,
@@ -233,7 +234,12 @@ function auditGivenU(ctx: ElementContext, flags: Flag[]): ElementRecompute {
 	const u = ctx.element.givenU;
 	if (u !== null) rec.used = rec.current = givenOutcome(u);
 	else rec.error = 'no build-up and no given U-value';
-	flags.push(...givenUOverLimit(ctx), ...givenUImplausible(ctx), ...nothingToCompute(ctx));
+	flags.push(
+		...givenUOverLimit(ctx),
+		...givenUImplausible(ctx),
+		...nothingToCompute(ctx),
+		...windowPartsDisagree(ctx)
+	);
 	return rec;
 }
 

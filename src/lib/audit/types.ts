@@ -49,6 +49,8 @@ export type AuditElement = {
 	buildUp: StoredBuildUp | null;
 	givenU: number | null;
 	givenUSource: string | null;
+	/** a window's or door's ISO 10077-1 parts, when its U was worked out from them */
+	windowParts?: unknown;
 	internal: Partial<StoredInternal> | null;
 	climateId: string | null;
 };

@@ -21,6 +21,7 @@ import {
 } from '$lib/physics/dynamic';
 import { toElementInput, type ClimateMonthValues, type StoredBuildUp } from '$lib/dwellings/element-input';
 import { ELEMENTS_MAX, PAGE_MAX, versionSchema } from '$lib/validation';
+import { checkWindowParts } from '$lib/dwellings/window-parts';
 
 export { versionSchema };
 
@@ -235,6 +236,10 @@ export const elementFieldsSchema = z.object({
 		.lte(10, 'must be ≤ 10 W/(m²·K)')
 		.nullish(),
 	givenUSource: optionalText(300),
+	/** a window's or door's parts by ISO 10077-1 (glazing, frame, panel); checked by the window calculation */
+	windowParts: z
+		.record(z.string(), z.unknown(), { error: 'must be the window’s parts as an object' })
+		.nullish(),
 	climateId: uuidOrNull,
 	internal: internalSchema.nullish()
 });
@@ -288,13 +293,23 @@ export function validateElement(
 	}
 	const data = parsed.data;
 	const issues: FieldIssue[] = [];
+	if (data.windowParts != null && !isGivenU(data.kind))
+		return { ok: false, issues: [{ path: 'windowParts', message: 'are kept for a window or door only' }] };
+	if (isGivenU(data.kind) && data.windowParts != null) {
+		// the parts give the U (and, when none is written, its source); a different given U is refused
+		const checked = checkWindowParts(data.windowParts, data.kind as 'window' | 'door', data.givenU ?? null);
+		if (!checked.ok) return { ok: false, issues: checked.issues };
+		data.windowParts = checked.parts;
+		data.givenU = checked.u;
+		data.givenUSource ||= checked.source;
+	}
 	if (isGivenU(data.kind)) {
 		if (data.givenU == null)
 			issues.push({ path: 'givenU', message: 'is required for a window or door (W/(m²·K))' });
 		if (!data.givenUSource)
 			issues.push({ path: 'givenUSource', message: 'is required: where the given U-value comes from' });
 		if (issues.length) return { ok: false, issues };
-		return { ok: true, data: { ...data, buildUp: null } };
+		return { ok: true, data: { ...data, buildUp: null, windowParts: data.windowParts ?? null } };
 	}
 	if (!data.buildUp)
 		return { ok: false, issues: [{ path: 'buildUp', message: 'is required: at least one layer' }] };

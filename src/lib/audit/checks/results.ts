@@ -3,6 +3,7 @@ import { exceedsLimit } from '$lib/limit-tables/rules';
 import type { Flag } from '$lib/audit/flags';
 import type { Outcome } from '$lib/audit/types';
 import { elementFlag, type ElementContext } from './context';
+import { checkWindowParts } from '$lib/dwellings/window-parts';
 
 /**
  * `recompute-failed`: an element judged by its given U (a window or door, or any element without a
@@ -22,6 +23,27 @@ export function nothingToCompute(ctx: ElementContext): Flag[] {
 export function recomputeFailed(ctx: ElementContext, error: string | undefined): Flag[] {
 	if (error === undefined) return [];
 	return [elementFlag(ctx, 'recompute-failed', 'high', `${ctx.at} could not be recomputed: ${error}`)];
+}
+
+/**
+ * `not-reproducing`: a window's or door's given U kept with its ISO 10077-1 parts, which today's
+ * calculation of those parts does not give (to two decimals), or parts it cannot calculate. The rule is
+ * `checkWindowParts` in `$lib/dwellings/window-parts`, the one the element's save applies.
+ */
+export function windowPartsDisagree(ctx: ElementContext): Flag[] {
+	const el = ctx.element;
+	if (!el.windowParts || (el.kind !== 'window' && el.kind !== 'door')) return [];
+	const checked = checkWindowParts(el.windowParts, el.kind, el.givenU);
+	if (checked.ok) return [];
+	const why = checked.issues.map((i) => `${i.path}: ${i.message}`).join('; ');
+	return [
+		elementFlag(
+			ctx,
+			'not-reproducing',
+			'high',
+			`${ctx.at}: the given U does not follow from the parts kept with it (ISO 10077-1): ${why}.`
+		)
+	];
 }
 
 const inTable = (ctx: ElementContext) => (ctx.tableName ? ` (${ctx.tableName})` : '');

@@ -157,6 +157,7 @@ export async function loadDwellingRows(trx: Db, orgId: string, ids: string[]) {
 				'build_up',
 				'given_u',
 				'given_u_source',
+				'window_parts',
 				'internal',
 				'climate_id'
 			),
@@ -301,6 +302,7 @@ function auditRows(rows: DwellingRows, c: Context): Map<string, DwellingAudit> {
 			buildUp: e.build_up,
 			givenU: e.given_u,
 			givenUSource: e.given_u_source,
+			windowParts: e.window_parts ?? null,
 			internal: e.internal,
 			climateId: e.climate_id
 		});

@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import type { WindowInput } from '$lib/physics/window';
 import { db, type Db } from '$lib/server/db';
 import { activityLog } from '$lib/server/activity';
 import type { Member } from '$lib/server/guard';
@@ -225,6 +226,7 @@ function columns(data: ElementFields, result: ElementResult | null) {
 		build_up: data.buildUp ? JSON.stringify(data.buildUp) : null,
 		given_u: isGivenU(data.kind) ? data.givenU : null,
 		given_u_source: isGivenU(data.kind) ? data.givenUSource : null,
+		window_parts: isGivenU(data.kind) && data.windowParts ? JSON.stringify(data.windowParts) : null,
 		climate_id: data.climateId,
 		internal: data.internal ? JSON.stringify(data.internal) : null,
 		last_result: result ? JSON.stringify(result) : null,
@@ -421,6 +423,7 @@ export async function duplicateElement(member: Member, id: string): Promise<Elem
 		buildUp: el.buildUp,
 		givenU: el.givenU,
 		givenUSource: el.givenUSource,
+		windowParts: el.windowParts,
 		climateId: el.climateId,
 		internal: el.internal
 	});
@@ -508,6 +511,7 @@ function toElement(r: Record<string, unknown>): Element {
 		buildUp: (r.build_up ?? null) as StoredBuildUp | null,
 		givenU: (r.given_u ?? null) as number | null,
 		givenUSource: (r.given_u_source ?? null) as string | null,
+		windowParts: (r.window_parts ?? null) as WindowInput | null,
 		climateId: (r.climate_id ?? null) as string | null,
 		internal: (r.internal ?? null) as StoredInternal | null,
 		lastResult: (r.last_result ?? null) as ElementResult | null,
@@ -529,6 +533,8 @@ export type Element = {
 	buildUp: StoredBuildUp | null;
 	givenU: number | null;
 	givenUSource: string | null;
+	/** a window's or door's parts by ISO 10077-1, when its U was worked out from them */
+	windowParts: WindowInput | null;
 	climateId: string | null;
 	internal: StoredInternal | null;
 	lastResult: ElementResult | null;

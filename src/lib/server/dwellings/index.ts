@@ -604,6 +604,7 @@ export async function copyDwelling(member: Member, id: string, raw: unknown): Pr
 					build_up: e.build_up === null ? null : JSON.stringify(e.build_up),
 					given_u: e.given_u,
 					given_u_source: e.given_u_source,
+					window_parts: e.window_parts === null ? null : JSON.stringify(e.window_parts),
 					climate_id: e.climate_id,
 					internal: e.internal === null ? null : JSON.stringify(e.internal),
 					last_result: e.last_result === null ? null : JSON.stringify(e.last_result),

@@ -3,6 +3,7 @@
  * a summary and one element report per element. Built from a frozen snapshot only: no clock, no
  * database, so the same snapshot gives the same document.
  */
+import type { WindowResult } from '$lib/physics/window';
 import type { Content, TDocumentDefinitions, CustomTableLayout, TableCell } from 'pdfmake/interfaces';
 import { CAUTIONS, type ElementResult, type LayerResult } from '$lib/physics';
 import { ELEMENT_KIND_LABELS } from '$lib/dwellings/kinds';
@@ -161,6 +162,60 @@ function h3(num: string, text: string): Content {
 /** A heading and the block after it, kept on one page. */
 function keep(head: Content, next: Content): Content {
 	return { stack: [head, next], unbreakable: true } as Content;
+}
+
+/**
+ * How a window's or door's U was worked out from its parts (ISO 10077-1): each part with its area, U
+ * and, for an edge, its perimeter and ψ, where each value comes from, the total and the method.
+ */
+function windowPartsSection(r: WindowResult): Content[] {
+	const n = (v: number, d: number): TableCell => ({ text: fx(v, d), alignment: 'right' }) as TableCell;
+	const body: TableCell[][] = [
+		[
+			th('Part'),
+			th('Area m²', true),
+			th('U W/(m²·K)', true),
+			th('Edge m', true),
+			th('ψ W/(m·K)', true),
+			th('Source')
+		]
+	];
+	for (const g of r.glazings)
+		body.push([
+			g.name,
+			n(g.areaM2, 3),
+			n(g.uValue, 2),
+			n(g.perimeterM, 2),
+			n(g.psi, 3),
+			`U ${g.uSource}; ψ ${g.psiSource}`
+		]);
+	for (const f of r.frames) body.push([f.name, n(f.areaM2, 3), n(f.uValue, 2), '', '', `U ${f.uSource}`]);
+	for (const p of r.panels)
+		body.push([
+			p.name,
+			n(p.areaM2, 3),
+			n(p.uValue, 2),
+			n(p.perimeterM, 2),
+			n(p.psi, 3),
+			`U ${p.uSource}; ψ ${p.psiSource}`
+		]);
+	body.push([
+		{ text: `${r.symbol}, whole ${r.symbol === 'UD' ? 'door' : 'window'}`, bold: true },
+		{ text: fx(r.areaM2, 3), bold: true, alignment: 'right' },
+		{ text: fx(r.uValue, 3), bold: true, alignment: 'right' },
+		'',
+		'',
+		'unrounded; the given U is this figure to two decimals'
+	] as TableCell[]);
+	return [
+		keep(h2('1a', 'Worked out from its parts (ISO 10077-1)'), {
+			table: { headerRows: 1, dontBreakRows: true, widths: ['*', 44, 48, 40, 48, 150], body },
+			layout: rules,
+			fontSize: 7.5,
+			margin: [0, 0, 0, 4]
+		} as Content),
+		{ ul: [...r.method, ...r.notes, ...r.cautions], fontSize: 8, color: INK, margin: [0, 0, 0, 4] } as Content
+	];
 }
 
 function kv(rows: [string, string | Content][], widths: (string | number)[] = [118, '*']): Content {
@@ -962,6 +1017,7 @@ export function elementSection(
 			color: SOFT,
 			margin: [0, 4, 0, 0]
 		} as Content);
+		if (el.windowParts) out.push(...windowPartsSection(el.windowParts.result));
 		out.push(keep(h2('2', 'Assumptions, validity and cautions'), assumptions(el, null)));
 		out.push(cautionsBlock(s.document.scope !== 'element'));
 		if (s.document.scope === 'element') out.push(declarationBlock(s, '3'));

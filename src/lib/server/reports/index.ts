@@ -3,6 +3,7 @@
  * the immutable `reports` table), revisions that supersede earlier ones, e-mail to the client through
  * the outbox, and the public verification of a code or a PDF.
  */
+import { checkWindowParts } from '$lib/dwellings/window-parts';
 import { createHash, randomInt } from 'node:crypto';
 import { db, type Db } from '$lib/server/db';
 import { logActivity } from '$lib/server/activity';
@@ -361,7 +362,17 @@ function snapshotElement(e: Row, ctx: ElementContext, problems: string[]): Snaps
 			problems.push(`${label} (${ELEMENT_KIND_LABELS[kind] ?? kind}): no given U-value is recorded.`);
 		}
 		const u = e.given_u == null ? null : Number(e.given_u);
-		return { ...base, input: null, result: null, u, limit: limitValue, pass: meetsLimit(u, limitValue) };
+		// a U worked out from its parts: the parts and their calculation go into the record
+		const windowParts = e.window_parts ? frozenWindowParts(e.window_parts, kind, u, label, problems) : null;
+		return {
+			...base,
+			...(windowParts ? { windowParts } : {}),
+			input: null,
+			result: null,
+			u,
+			limit: limitValue,
+			pass: meetsLimit(u, limitValue)
+		};
 	}
 	if (!buildUp?.layers?.length) {
 		problems.push(`${label}: no build-up is recorded.`);
@@ -370,6 +381,26 @@ function snapshotElement(e: Row, ctx: ElementContext, problems: string[]): Snaps
 	const { input, result } = recompute(e, buildUp, internal, climate, label, problems);
 	const u = result ? result.uValueRounded : null;
 	return { ...base, input, result, u, limit: limitValue, pass: meetsLimit(u, limitValue) };
+}
+
+/**
+ * A window's or door's stored parts with their ISO 10077-1 result, as the report freezes them; parts
+ * that no longer give the stored U go to `problems` (the same rule as the element's save).
+ */
+function frozenWindowParts(
+	raw: unknown,
+	kind: ElementKind,
+	givenU: number | null,
+	label: string,
+	problems: string[]
+): SnapshotElement['windowParts'] {
+	if (kind !== 'window' && kind !== 'door') return undefined;
+	const checked = checkWindowParts(raw, kind, givenU);
+	if (!checked.ok) {
+		problems.push(`${label}: ${checked.issues.map((i) => `${i.path} ${i.message}`).join('; ')}.`);
+		return undefined;
+	}
+	return { input: checked.parts, result: checked.result };
 }
 
 /** The element's engine input and result from its stored build-up; failures go to `problems`. */

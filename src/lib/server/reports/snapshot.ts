@@ -3,6 +3,7 @@
  * revisions and the limit table. The PDF is rendered from this alone, so a re-render of a stored
  * snapshot prints the same numbers.
  */
+import type { WindowInput, WindowResult } from '$lib/physics/window';
 import type { ElementInput, ElementResult, HeatFlow } from '$lib/physics';
 import { type ElementKind } from '$lib/dwellings/kinds';
 import type { StoredBuildUp, StoredInternal } from '$lib/dwellings/element-input';
@@ -51,6 +52,8 @@ export type SnapshotElement = {
 	heatFlow: HeatFlow;
 	givenU?: number | null;
 	givenUSource?: string | null;
+	/** a window's or door's ISO 10077-1 parts and their calculation, when its U was worked out from them */
+	windowParts?: { input: WindowInput; result: WindowResult };
 	buildUp: StoredBuildUp | null;
 	internal: StoredInternal | null;
 	climate: SnapshotClimate | null;
