@@ -71,3 +71,24 @@ describe.skipIf(!hasDatabase)('refusalOf', () => {
 		expect(refusalOf(new TypeError('x is undefined'))).toBeNull();
 	});
 });
+
+describe('refusalOf a calculation core’s own refusal', async () => {
+	const { CalculationInputError } = await import('../../src/lib/physics/calc-parse');
+	const { analyseWindow } = await import('../../src/lib/physics/window');
+	it('answers 400 with the fields the core names, not a 500', () => {
+		// a frame of negative area: the window calculation (ISO 10077-1) refuses it by path
+		let thrown: unknown;
+		try {
+			analyseWindow({ glazings: [], frames: [{ areaM2: -1, uValue: 1.4 }] });
+		} catch (e) {
+			thrown = e;
+		}
+		expect(thrown).toBeInstanceOf(CalculationInputError);
+		const r = refusalOf(thrown);
+		expect(r).toBeInstanceOf(ValidationError);
+		expect(r!.status).toBe(400);
+		expect((r as InstanceType<typeof ValidationError>).issues.map((i) => i.path)).toContain(
+			'frames.0.areaM2'
+		);
+	});
+});

@@ -3,6 +3,7 @@
  * into its JSON answer, and form actions turn them into `fail()`. Anything else is unexpected and goes
  * to `handleError` (a 500 with a reference).
  */
+import { CalculationInputError } from '$lib/physics/calc-parse';
 import type { FieldIssue } from '$lib/validation';
 
 export type { FieldIssue };
@@ -143,6 +144,8 @@ const UNREACHABLE_TEXT =
  */
 export function refusalOf(e: unknown): AppError | null {
 	if (e instanceof AppError) return e;
+	// a calculation core's own refusal, of input that no schema before it caught: the fields it names
+	if (e instanceof CalculationInputError) return new ValidationError(e.issues);
 	const code = pgCode(e);
 	if (code === '22P02' && /uuid/i.test(String((e as Error).message))) {
 		return new ValidationError(
