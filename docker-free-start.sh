@@ -235,6 +235,8 @@ run_bench() {
 	export BUILD_DIR="$TEST_BUILD/build" KIT_OUT_DIR="$TEST_BUILD/kit" BENCH_BUILD_DIR="$TEST_BUILD/build"
 	log "building for the HTTP benchmarks"
 	build_app "$TEST_TMP/build.log" || { tail -40 "$TEST_TMP/build.log"; die "build failed"; }
+	# The filter, for benches that run only when named (bench/scale.bench.ts: `bench scale`, or SCALE_BENCH=1).
+	export BENCH_FILTER="${1:-}"
 	node scripts/bench.js "$@"
 }
 
