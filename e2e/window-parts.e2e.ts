@@ -54,7 +54,34 @@ test('an assessor works out a window U from its glazing and frame, and saves it 
 	await page.getByRole('button', { name: 'Save element' }).click();
 	await page.waitForURL(/\/elements\/[0-9a-f-]{36}/);
 	const id = page.url().split('/elements/')[1].split('?')[0];
-	const row = await db()('elements').where({ id }).first('given_u', 'given_u_source');
+	const row = await db()('elements').where({ id }).first('given_u', 'given_u_source', 'window_parts');
 	expect(Number(row.given_u)).toBe(1.34);
 	expect(row.given_u_source).toContain('Ug 1.1 over Ag 1.2 m², ψg 0.06 W/(m·K) (given) over lg 4.4 m');
+	// the parts are kept with the element, structurally
+	expect(row.window_parts).toMatchObject({
+		kind: 'window',
+		frameMaterial: 'pvc-three-chambers',
+		glazings: [{ areaM2: 1.2, uValue: 1.1, perimeterM: 4.4, psi: 0.06 }],
+		frames: [{ areaM2: 0.4, uValue: 1.4 }]
+	});
+
+	// opened again: the U follows its parts, and the calculator starts from them
+	await page.reload();
+	await waitForApp(page);
+	await expect(page.getByTestId('given-u-from-parts')).toContainText(
+		'Worked out from its parts (ISO 10077-1)'
+	);
+	await expect(page.getByLabel('Given U W/(m²·K)')).toHaveAttribute('readonly', '');
+	await page.getByRole('button', { name: 'Work out U from its parts (ISO 10077-1)' }).click();
+	await expect(parts.getByLabel('Frame area Af m²')).toHaveValue('0.4');
+	await expect(parts.getByTestId('window-parts-result')).toContainText('Uw = 1.34 W/(m²·K)');
+
+	// a declared U instead: the parts go, and the figure can be typed
+	await page.getByRole('button', { name: 'Remove the parts, to give a declared U' }).click();
+	await page.getByLabel('Given U W/(m²·K)').fill('1.2');
+	await page.getByLabel('Source of the value').fill('maker’s declaration (invented)');
+	await page.getByRole('button', { name: 'Save', exact: true }).click();
+	await expect
+		.poll(async () => (await db()('elements').where({ id }).first('window_parts', 'given_u')).window_parts)
+		.toBeNull();
 });

@@ -3,9 +3,15 @@
  * numbers survive) to stored layers and back, and rows pasted from a spreadsheet.
  */
 import Papa from 'papaparse';
-import type { StoredBuildUp, StoredGround, StoredLayer } from '$lib/dwellings/element-input';
+import type {
+	StoredBuildUp,
+	StoredGround,
+	StoredLayer,
+	StoredUnheatedSpace
+} from '$lib/dwellings/element-input';
 import type { ElementKind } from '$lib/dwellings/kinds';
 import { GROUND_LAMBDA, groundKindOf, type GroundKind, type Layer, type RoofSpace } from '$lib/physics';
+import type { AirtightnessType } from '$lib/physics/unheated-space';
 
 /**
  * Kinds whose own plane may be inclined, and so take an inclination (ISO 6946:2017, 6.8, note to
@@ -37,6 +43,10 @@ export type EditRow = {
 	bridgeWidth: string;
 	bridgeCentres: string;
 	bridgeMu: string;
+	/** the library material the bridging values came from, when picked there */
+	bridgeMaterialId?: string;
+	bridgeMaterialRevisionId?: string;
+	bridgeMaterialCode?: string;
 	/** ISO 6946 air-gap correction level: '' not given, or 0 / 1 / 2 */
 	airGapLevel: '' | '0' | '1' | '2';
 	fasteners: boolean;
@@ -136,6 +146,9 @@ export function rowFromLayer(l: StoredLayer): EditRow {
 		bridgeWidth: str(l.bridgeGeometry?.widthMm),
 		bridgeCentres: str(l.bridgeGeometry?.centresMm),
 		bridgeMu: str(l.bridge?.mu),
+		bridgeMaterialId: l.bridge ? l.bridgeMaterial?.materialId : undefined,
+		bridgeMaterialRevisionId: l.bridge ? l.bridgeMaterial?.materialRevisionId : undefined,
+		bridgeMaterialCode: l.bridge ? l.bridgeMaterial?.materialCode : undefined,
 		airGapLevel: l.airGapLevel === undefined ? '' : (String(l.airGapLevel) as EditRow['airGapLevel']),
 		fasteners: Boolean(l.fasteners),
 		fastenerLambda: str(l.fasteners?.lambda),
@@ -184,6 +197,12 @@ export function layerFromRow(r: EditRow): StoredLayer {
 			else bridge.fraction = undefined;
 		}
 		layer.bridge = bridge;
+		if (r.bridgeMaterialId) {
+			const m: Record<string, unknown> = { materialId: r.bridgeMaterialId };
+			if (r.bridgeMaterialRevisionId) m.materialRevisionId = r.bridgeMaterialRevisionId;
+			if (r.bridgeMaterialCode) m.materialCode = r.bridgeMaterialCode;
+			layer.bridgeMaterial = m;
+		}
 	}
 	if (r.airGapLevel !== '') layer.airGapLevel = Number(r.airGapLevel);
 	if (r.fasteners) {
@@ -222,7 +241,7 @@ export type GroundText = {
 	lambda: string;
 	wall: string;
 	/** a slab on the ground (the default) or a suspended floor over a ventilated space (ISO 13370, 8.2) */
-	floor?: 'slab' | 'suspended';
+	floor?: 'slab' | 'suspended' | 'heated-basement' | 'unheated-basement';
 	/** suspended: the deck's height above the outside ground, mm */
 	height?: string;
 	/** suspended: U of the underfloor space's walls, W/(m²·K) */
@@ -232,7 +251,31 @@ export type GroundText = {
 	/** suspended: wind speed at 10 m, m/s */
 	wind?: string;
 	shielding?: 'sheltered' | 'average' | 'exposed';
+	/** basement: depth of its floor below the outside ground, mm (stored as z in m) */
+	depth?: string;
+	/** basement: resistance Rw of its walls in the ground, m²·K/W */
+	basementWallR?: string;
+	/** unheated basement: resistance Rf of its own floor, m²·K/W */
+	basementFloorR?: string;
+	/** unheated basement: height of its walls above the ground, mm (stored in m), and their U, W/(m²·K) */
+	wallAboveHeight?: string;
+	wallAboveU?: string;
+	/** unheated basement: air change rate, h⁻¹, and air volume, m³ */
+	basementAirChange?: string;
+	basementVolume?: string;
+	/** edge insulation of a slab: none, horizontal or vertical */
+	edge?: '' | 'horizontal' | 'vertical';
+	/** edge insulation: width (horizontal) or depth (vertical), mm, and thickness dn, mm (stored in m) */
+	edgeWidth?: string;
+	edgeThickness?: string;
+	/** edge insulation: its resistance Rn (m²·K/W) or its λ (W/(m·K)) */
+	edgeBy?: 'r' | 'lambda';
+	edgeR?: string;
+	edgeLambda?: string;
 };
+
+/** The floor types of a ground floor as the editor offers them. */
+export type GroundFloorType = NonNullable<GroundText['floor']>;
 
 export function groundText(g: StoredGround | undefined): GroundText {
 	const lambda = g?.groundLambda;
@@ -249,8 +292,155 @@ export function groundText(g: StoredGround | undefined): GroundText {
 		underfloorWallU: str(g?.suspended?.underfloorWallU),
 		openings: g?.suspended ? String(Math.round(g.suspended.openingsPerPerimeter * 1e9) / 1e3) : '',
 		wind: str(g?.suspended?.windSpeed),
-		shielding: g?.suspended?.windShielding ?? 'average'
+		shielding: g?.suspended?.windShielding ?? 'average',
+		...basementText(g?.basement),
+		...(g?.basement ? { floor: g.basement.kind === 'heated' ? 'heated-basement' : 'unheated-basement' } : {}),
+		...edgeText(g?.edge)
 	};
+}
+
+/** m as stored to mm as typed, without binary noise (0.3 → "300"). */
+const mText = (m: number | undefined) => (m === undefined ? '' : String(Math.round(m * 1e6) / 1e3));
+
+function basementText(b: StoredGround['basement']): Partial<GroundText> {
+	return {
+		depth: mText(b?.depthM),
+		basementWallR: str(b?.wallR),
+		basementFloorR: str(b?.floorR),
+		wallAboveHeight: mText(b?.wallAboveGroundHeightM),
+		wallAboveU: str(b?.wallAboveGroundU),
+		basementAirChange: str(b?.airChangeRate),
+		basementVolume: str(b?.volumeM3)
+	};
+}
+
+function edgeText(e: StoredGround['edge']): Partial<GroundText> {
+	return {
+		edge: e?.orientation ?? '',
+		edgeWidth: mText(e?.widthM),
+		edgeThickness: mText(e?.insulationThicknessM),
+		edgeBy: e?.insulationLambda !== undefined ? 'lambda' : 'r',
+		edgeR: str(e?.insulationR),
+		edgeLambda: str(e?.insulationLambda)
+	};
+}
+
+/** The basement or the edge insulation of a ground floor as stored, from what was typed. */
+function groundExtras(t: GroundText, g: Record<string, unknown>): void {
+	const num = (v: string | undefined) => parseNumber(v ?? '');
+	if (t.floor === 'heated-basement' || t.floor === 'unheated-basement') {
+		const b: Record<string, unknown> = {
+			kind: t.floor === 'heated-basement' ? 'heated' : 'unheated',
+			depthM: mmToM(num(t.depth)),
+			wallR: num(t.basementWallR)
+		};
+		if (t.floor === 'unheated-basement') {
+			b.floorR = num(t.basementFloorR);
+			b.wallAboveGroundHeightM = mmToM(num(t.wallAboveHeight));
+			b.wallAboveGroundU = num(t.wallAboveU);
+			b.airChangeRate = num(t.basementAirChange);
+			b.volumeM3 = num(t.basementVolume);
+		}
+		g.basement = b;
+	} else if ((t.floor ?? 'slab') === 'slab' && t.edge) {
+		const e: Record<string, unknown> = {
+			orientation: t.edge,
+			widthM: mmToM(num(t.edgeWidth)),
+			insulationThicknessM: mmToM(num(t.edgeThickness))
+		};
+		if (t.edgeBy === 'lambda') e.insulationLambda = num(t.edgeLambda);
+		else e.insulationR = num(t.edgeR);
+		g.edge = e;
+	}
+}
+
+/**
+ * Element kinds that may lie beside an unheated space (a garage, a stairwell, a sunspace, a loft
+ * treated as a space): external walls, roofs and ceilings, exposed floors. A floor over an unheated
+ * basement is a ground floor's type instead (ISO 13370, 8.4).
+ */
+export const UNHEATED_KINDS: readonly ElementKind[] = [
+	'external-wall',
+	'pitched-roof-ceiling',
+	'pitched-roof-rafters',
+	'flat-roof',
+	'exposed-floor'
+];
+
+/** An outer element of the unheated space as typed. */
+export type UnheatedElementText = { key: number; name: string; area: string; u: string };
+
+/** The unheated space beside an element as typed (text), ISO 6946:2017, 6.10.3. */
+export type UnheatedText = {
+	/** whether the element lies beside an unheated space */
+	on: boolean;
+	/** Ai, m² ('' takes the element's area) */
+	internalArea: string;
+	elements: UnheatedElementText[];
+	/** n given ('given') or ISO 13789's conventional value by airtightness */
+	airBy: 'given' | AirtightnessType;
+	airChange: string;
+	volume: string;
+};
+
+/** A blank outer element of the unheated space. */
+export const blankUnheatedElement = (): UnheatedElementText => ({
+	key: newKey(),
+	name: '',
+	area: '',
+	u: ''
+});
+
+export function unheatedText(s: StoredUnheatedSpace | undefined): UnheatedText {
+	return {
+		on: s !== undefined,
+		internalArea: str(s?.internalAreaM2),
+		elements: s?.externalElements.length
+			? s.externalElements.map((e) => ({
+					key: newKey(),
+					name: e.name ?? '',
+					area: str(e.areaM2),
+					u: str(e.uValue)
+				}))
+			: [blankUnheatedElement()],
+		airBy: s?.airtightness ?? 'given',
+		airChange: str(s?.airChangeRate),
+		volume: str(s?.volumeM3)
+	};
+}
+
+/** The unheated space as stored, from what was typed; none when it is off. */
+export function unheatedFromText(t: UnheatedText): StoredUnheatedSpace | undefined {
+	if (!t.on) return undefined;
+	const s: Record<string, unknown> = {
+		externalElements: t.elements
+			.filter((e) => e.name.trim() || e.area.trim() || e.u.trim())
+			.map((e) => {
+				const o: Record<string, unknown> = { areaM2: parseNumber(e.area), uValue: parseNumber(e.u) };
+				if (e.name.trim()) o.name = e.name.trim();
+				return o;
+			}),
+		volumeM3: parseNumber(t.volume)
+	};
+	const ai = parseNumber(t.internalArea);
+	if (ai !== undefined) s.internalAreaM2 = ai;
+	if (t.airBy === 'given') s.airChangeRate = parseNumber(t.airChange);
+	else s.airtightness = t.airBy;
+	return s as StoredUnheatedSpace;
+}
+
+/**
+ * The element's fields with the unheated space beside it in the build-up, for the kinds that may
+ * have one (and not with a roof space: that one keeps its table value).
+ */
+export function withUnheatedSpace<F extends { kind: ElementKind; buildUp: StoredBuildUp | null }>(
+	fields: F,
+	t: UnheatedText
+): F {
+	if (!fields.buildUp || !UNHEATED_KINDS.includes(fields.kind)) return fields;
+	const s = unheatedFromText(t);
+	if (!s) return fields;
+	return { ...fields, buildUp: { ...fields.buildUp, unheatedSpace: s } };
 }
 
 /** The ground's λ as stored: none when not known, the table's value for a kind, else what was typed. */
@@ -295,6 +485,7 @@ export function buildUpFromRows(
 				windShielding: extras.ground.shielding ?? 'average'
 			};
 		}
+		groundExtras(extras.ground, g);
 		for (const k of Object.keys(g)) if (g[k] === undefined && k !== 'perimeterM') delete g[k];
 		b.ground = g;
 	}

@@ -3,6 +3,7 @@
  * engine's `ElementInput`. Pure: used by the editor in the page, by the server when it recomputes,
  * by reports and by audits, so every place computes the same thing from the same record.
  */
+import type { SurfaceConditions } from '$lib/physics/surface-films';
 import type { ElementInput, HeatFlow, Layer, RoofSpace } from '$lib/physics';
 
 /** A layer as stored in `elements.build_up` / `templates.build_up`: the engine's layer plus where it came from. */
@@ -12,6 +13,8 @@ export type StoredLayer = Layer & {
 	materialCode?: string;
 	/** when given, `bridge.fraction = widthMm / centresMm` is stored as well */
 	bridgeGeometry?: { widthMm: number; centresMm: number };
+	/** the library material the bridging values were copied from */
+	bridgeMaterial?: { materialId: string; materialRevisionId?: string; materialCode?: string };
 	/** fastener diameter as entered, mm (the engine takes its cross-section `fasteners.areaMm2`) */
 	fastenerDiameterMm?: number;
 	/** density ρ, kg/m³, and specific heat capacity c, J/(kg·K): the heat storage only (ISO 13786) */
@@ -27,6 +30,15 @@ export type StoredGround = {
 	wallThicknessM?: number;
 	/** a suspended floor over a ventilated underfloor space (ISO 13370, 8.2) */
 	suspended?: NonNullable<ElementInput['ground']>['suspended'];
+	/** a heated or unheated basement (ISO 13370, 8.3 and 8.4) */
+	basement?: NonNullable<ElementInput['ground']>['basement'];
+	/** edge insulation of a slab on the ground (ISO 13370) */
+	edge?: NonNullable<ElementInput['ground']>['edge'];
+};
+
+/** An unheated space beside the element (ISO 6946, 6.10.3): Ai (else the element's area), the space's outer elements, n or airtightness, V. */
+export type StoredUnheatedSpace = Omit<NonNullable<ElementInput['unheatedSpace']>, 'internalAreaM2'> & {
+	internalAreaM2?: number;
 };
 
 /** Older rows have only rsi/rse/layers; `ground`, `roofSpace` and `inclinationDeg` are optional additions. */
@@ -36,8 +48,11 @@ export type StoredBuildUp = {
 	layers: StoredLayer[];
 	ground?: StoredGround;
 	roofSpace?: RoofSpace;
+	unheatedSpace?: StoredUnheatedSpace;
 	/** a roof's inclination from the horizontal, degrees (ISO 6946: 60° or more takes horizontal heat flow) */
 	inclinationDeg?: number;
+	/** surface conditions other than the conventional ones (ISO 6946, Annex C) */
+	surfaceConditions?: SurfaceConditions;
 };
 
 export type StoredInternal = {
@@ -58,6 +73,7 @@ const LIBRARY_KEYS = [
 	'materialRevisionId',
 	'materialCode',
 	'bridgeGeometry',
+	'bridgeMaterial',
 	'fastenerDiameterMm'
 ] as const;
 
@@ -115,10 +131,21 @@ export function toElementInput(
 		if (g.groundLambda !== undefined) ground.groundLambda = g.groundLambda;
 		if (g.wallThicknessM !== undefined) ground.wallThicknessM = g.wallThicknessM;
 		if (g.suspended !== undefined) ground.suspended = g.suspended;
+		if (g.basement !== undefined) ground.basement = g.basement;
+		if (g.edge !== undefined) ground.edge = g.edge;
 		input.ground = ground as ElementInput['ground'];
 	}
 	if (buildUp.roofSpace !== undefined) input.roofSpace = buildUp.roofSpace;
+	if (buildUp.unheatedSpace !== undefined) {
+		const s = buildUp.unheatedSpace;
+		const ai = s.internalAreaM2 ?? el.area ?? undefined;
+		input.unheatedSpace = {
+			...s,
+			...(ai !== undefined ? { internalAreaM2: ai } : {})
+		} as ElementInput['unheatedSpace'];
+	}
 	if (buildUp.inclinationDeg !== undefined) input.inclinationDeg = buildUp.inclinationDeg;
+	if (buildUp.surfaceConditions !== undefined) input.surfaceConditions = buildUp.surfaceConditions;
 	if (el.internal) {
 		const internal: StoredInternal = { temperature: internalTemperature };
 		if (typeof el.internal.relativeHumidity === 'number')

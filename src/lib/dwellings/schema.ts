@@ -13,6 +13,7 @@ import {
 	type ElementKind
 } from '$lib/dwellings/kinds';
 import { HEAT_FLOWS, internalSchema, layerSchema, parseElementInput, roofSpaceSchema } from '$lib/physics';
+import { AIRTIGHTNESS_TYPES } from '$lib/physics/unheated-space';
 import {
 	DYNAMIC_DENSITY_MAX,
 	DYNAMIC_DENSITY_MIN,
@@ -22,6 +23,7 @@ import {
 import { toElementInput, type ClimateMonthValues, type StoredBuildUp } from '$lib/dwellings/element-input';
 import { ELEMENTS_MAX, PAGE_MAX, versionSchema } from '$lib/validation';
 import { checkWindowParts } from '$lib/dwellings/window-parts';
+import { surfaceConditionsSchema } from '$lib/physics/surface-films';
 
 export { versionSchema };
 
@@ -151,6 +153,14 @@ export const storedLayerSchema = layerSchema.safeExtend({
 			centresMm: z.number({ error: 'must be a number' }).gt(0, 'must be > 0')
 		})
 		.optional(),
+	/** the library material the bridging λ (and μ) were copied from, as a layer records its own */
+	bridgeMaterial: z
+		.object({
+			materialId: z.uuid({ error: 'must be a material id' }),
+			materialRevisionId: z.uuid({ error: 'must be a material revision id' }).optional(),
+			materialCode: z.string().max(60).optional()
+		})
+		.optional(),
 	fastenerDiameterMm: z.number({ error: 'must be a number in mm' }).gt(0, 'must be > 0 mm').optional(),
 	/** for the heat storage (ISO 13786) only; the U-value and the moisture checks do not use them */
 	density: z
@@ -179,6 +189,8 @@ export const storedBuildUpSchema = z.object({
 		.gte(0, 'must be ≥ 0')
 		.lte(10, 'must be ≤ 10 m²·K/W')
 		.optional(),
+	/** surface conditions other than the conventional ones (ISO 6946, Annex C): emissivities, wind speed */
+	surfaceConditions: surfaceConditionsSchema.optional(),
 	layers: z
 		.array(storedLayerSchema, { error: 'must be a list of layers' })
 		.min(1, 'at least one layer is required')
@@ -206,11 +218,55 @@ export const storedBuildUpSchema = z.object({
 						error: 'must be sheltered, average or exposed'
 					})
 				})
+				.optional(),
+			/** a heated or unheated basement (ISO 13370, 8.3, 8.4); ranges are checked by the engine */
+			basement: z
+				.object({
+					kind: z.enum(['heated', 'unheated'], { error: 'must be heated or unheated' }),
+					depthM: z.number({ error: 'must be a number in m' }),
+					wallR: z.number({ error: 'must be a number in m²·K/W' }),
+					floorR: z.number({ error: 'must be a number in m²·K/W' }).optional(),
+					wallAboveGroundHeightM: z.number({ error: 'must be a number in m' }).optional(),
+					wallAboveGroundU: z.number({ error: 'must be a number in W/(m²·K)' }).optional(),
+					airChangeRate: z.number({ error: 'must be a number in h⁻¹' }).optional(),
+					volumeM3: z.number({ error: 'must be a number in m³' }).optional()
+				})
+				.optional(),
+			/** edge insulation of a slab (ISO 13370); ranges are checked by the engine */
+			edge: z
+				.object({
+					orientation: z.enum(['horizontal', 'vertical'], { error: 'must be horizontal or vertical' }),
+					widthM: z.number({ error: 'must be a number in m' }),
+					insulationThicknessM: z.number({ error: 'must be a number in m' }),
+					insulationR: z.number({ error: 'must be a number in m²·K/W' }).optional(),
+					insulationLambda: z.number({ error: 'must be a number in W/(m·K)' }).optional()
+				})
 				.optional()
 		})
 		.optional(),
 	/** roof space above an insulated ceiling (ISO 6946 roof-space resistance) */
 	roofSpace: roofSpaceSchema.optional(),
+	/** an unheated space beside the element (ISO 6946, 6.10.3); ranges are checked by the engine */
+	unheatedSpace: z
+		.object({
+			internalAreaM2: z.number({ error: 'must be a number in m²' }).optional(),
+			externalElements: z
+				.array(
+					z.object({
+						name: z.string({ error: 'must be text' }).max(120, 'must be at most 120 characters').optional(),
+						areaM2: z.number({ error: 'must be a number in m²' }),
+						uValue: z.number({ error: 'must be a number in W/(m²·K)' })
+					}),
+					{ error: 'must be a list of elements' }
+				)
+				.max(100, 'at most 100 elements'),
+			airChangeRate: z.number({ error: 'must be a number in h⁻¹' }).optional(),
+			airtightness: z
+				.enum(AIRTIGHTNESS_TYPES, { error: 'must be one of the airtightness types of ISO 13789' })
+				.optional(),
+			volumeM3: z.number({ error: 'must be a number in m³' })
+		})
+		.optional(),
 	/** a roof's inclination from the horizontal, degrees; ranges are checked by the engine */
 	inclinationDeg: z.number({ error: 'must be a number of degrees from the horizontal' }).optional()
 });
@@ -318,6 +374,9 @@ export function validateElement(
 	// every later recompute (reports, audits) reads the same input from the build-up alone.
 	if (data.buildUp?.ground && data.buildUp.ground.areaM2 === undefined)
 		data.buildUp.ground = { ...data.buildUp.ground, areaM2: data.area };
+	// likewise the area Ai between the heated and an unheated space
+	if (data.buildUp?.unheatedSpace && data.buildUp.unheatedSpace.internalAreaM2 === undefined)
+		data.buildUp.unheatedSpace = { ...data.buildUp.unheatedSpace, internalAreaM2: data.area };
 	const input = toElementInput(
 		{
 			// the direction the server will store when none is given
@@ -336,9 +395,11 @@ export function validateElement(
 			else if (
 				path === 'rsi' ||
 				path === 'rse' ||
+				path.startsWith('surfaceConditions') ||
 				path === 'roofSpace' ||
 				path === 'inclinationDeg' ||
-				path.startsWith('ground')
+				path.startsWith('ground') ||
+				path.startsWith('unheatedSpace')
 			)
 				path = `buildUp.${path}`;
 			else if (path.startsWith('climate')) path = 'climateId';

@@ -6,6 +6,7 @@ import { effectiveHeatFlow, HORIZONTAL_HEAT_FLOW_WITHIN_DEG, RSE, RSI, type Heat
 import type { ElementInput } from './schema';
 import { fmt } from './note-format';
 import { R_NEGLIGIBLE } from './bounds';
+import { hasConditions, surfaceFilms } from './surface-films';
 
 export interface SurfaceFilms {
 	/** internal surface resistance Rsi, m²·K/W */
@@ -53,27 +54,40 @@ function inclinationNote(inclinationDeg: number, dir: HeatFlow): string {
 export function surfaceResistances(input: ElementInput, notes: string[]): SurfaceFilms {
 	const dir = effectiveHeatFlow(input);
 	if (input.inclinationDeg !== undefined) notes.push(inclinationNote(input.inclinationDeg, dir));
+	// Other surface conditions (Annex C) replace the conventional value of the side they describe (the
+	// inside emissivity Rsi; the outside emissivity or the wind speed Rse); a given Rsi or Rse still wins.
+	const c = input.surfaceConditions;
+	const films = hasConditions(c) ? surfaceFilms(dir, c) : null;
+	const inside = films && c?.internalEmissivity !== undefined ? { r: films.rsi, note: films.notes[0] } : null;
+	const outside =
+		films && (c?.externalEmissivity !== undefined || c?.windSpeed !== undefined)
+			? { r: films.rse, note: films.notes[1] }
+			: null;
 	notes.push(
-		input.rsi === undefined
-			? `Rsi = ${RSI[dir]} m²·K/W for ${dir} heat flow (ISO 6946:2017, Table 7).`
-			: `Rsi = ${input.rsi} m²·K/W as given (overrides ISO 6946).`
+		input.rsi !== undefined
+			? `Rsi = ${input.rsi} m²·K/W as given (overrides ISO 6946).`
+			: inside
+				? inside.note
+				: `Rsi = ${RSI[dir]} m²·K/W for ${dir} heat flow (ISO 6946:2017, Table 7).`
 	);
-	const rsi = input.rsi === undefined ? RSI[dir] : given('Rsi', input.rsi, notes);
+	const rsi = input.rsi !== undefined ? given('Rsi', input.rsi, notes) : (inside?.r ?? RSI[dir]);
 
 	const well = input.layers.findIndex((l) => l.air === 'well-ventilated');
 	if (well < 0) {
 		notes.push(
-			input.rse === undefined
-				? `Rse = ${RSE} m²·K/W (ISO 6946:2017, Table 7).`
-				: `Rse = ${input.rse} m²·K/W as given (overrides ISO 6946).`
+			input.rse !== undefined
+				? `Rse = ${input.rse} m²·K/W as given (overrides ISO 6946).`
+				: outside
+					? outside.note
+					: `Rse = ${RSE} m²·K/W (ISO 6946:2017, Table 7).`
 		);
-		const rse = input.rse === undefined ? RSE : given('Rse', input.rse, notes);
+		const rse = input.rse !== undefined ? given('Rse', input.rse, notes) : (outside?.r ?? RSE);
 		return { rsi, rse, active: input.layers.length };
 	}
 	notes.push(
 		`Layer ${well + 1} is a well-ventilated air layer: it and the ${input.layers.length - well - 1} layer(s) outside it are disregarded and ` +
 			(input.rse === undefined
-				? `Rse takes the value of Rsi, ${rsi} m²·K/W (ISO 6946:2017, 6.9.4).`
+				? `Rse takes the value of Rsi, ${fmt(rsi, 4)} m²·K/W (ISO 6946:2017, 6.9.4).`
 				: `Rse = ${input.rse} m²·K/W as given.`)
 	);
 	const rse = input.rse === undefined ? rsi : given('Rse', input.rse, notes);

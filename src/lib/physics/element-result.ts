@@ -8,6 +8,7 @@ import type { ThermalModel } from './element-model';
 import type { DesignTemperatures, TemperatureResults } from './element-profile';
 import { DEFAULT_ROUNDING_DESCRIPTION, DEFAULT_U_ROUNDING, describeRounding, roundValue } from './rounding';
 import { CAUTIONS, ENGINE_VERSION } from './cautions';
+import { UNHEATED_SPACE_METHOD, unheatedSpaceOf } from './element-ground';
 
 /**
  * Result of one element without `surface` and `condensation`: U (W/(m²·K)) unrounded and rounded by
@@ -35,6 +36,7 @@ export function baseResult(
 		rTotal: tm.rTotal,
 		...(tm.ground ? groundFigures(tm.ground) : {}),
 		...(tm.rRoofSpace !== undefined ? { rRoofSpace: tm.rRoofSpace } : {}),
+		...unheatedFigures(input, tm),
 		...(tm.bridged ? { rUpper: tm.rUpper, rLower: tm.rLower, relativeError: tm.relativeError } : {}),
 		deltaU: tm.deltaU,
 		deltaUAirGaps: tm.deltaUAirGaps,
@@ -73,7 +75,36 @@ function groundFigures(
 			wallThicknessM: g.wallThicknessM,
 			regime: g.regime,
 			rGround: g.rGround,
-			...(g.suspended ? { suspended: g.suspended } : {})
+			...(g.suspended ? { suspended: g.suspended } : {}),
+			...(g.basement ? { basement: g.basement } : {}),
+			...(g.edge ? { edge: g.edge } : {})
+		}
+	};
+}
+
+/**
+ * An element beside an unheated space: Ru and its parts (ISO 6946:2017, 6.10.3, from memory), U0 of
+ * the element as if exposed, 1/(RT − Ru), and ISO 13789's b = Hue/(Ai·U0 + Hue), whose b·Ai·U0 is
+ * the same heat loss as Ai·U.
+ */
+function unheatedFigures(input: ElementInput, tm: ThermalModel): Pick<ElementResult, 'unheatedSpace'> {
+	const s = unheatedSpaceOf(input);
+	if (!s || !input.unheatedSpace) return {};
+	const uExposed = 1 / (tm.rTotal - s.ru);
+	return {
+		unheatedSpace: {
+			method: UNHEATED_SPACE_METHOD,
+			internalAreaM2: s.internalAreaM2,
+			externalElements: input.unheatedSpace.externalElements.map((e) => ({ ...e })),
+			transmissionCoefficient: s.transmissionCoefficient,
+			airChangeRate: s.airChangeRate,
+			airChangeSource: s.airChangeSource,
+			volumeM3: input.unheatedSpace.volumeM3,
+			ventilationCoefficient: s.ventilationCoefficient,
+			heatLossToOutside: s.heatLossToOutside,
+			ru: s.ru,
+			uExposed,
+			adjustmentFactor: s.heatLossToOutside / (s.internalAreaM2 * uExposed + s.heatLossToOutside)
 		}
 	};
 }

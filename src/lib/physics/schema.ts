@@ -13,6 +13,7 @@
  * total thermal resistance of zero needs the whole model and is checked once the schema passes
  * (`parseElementInput`, ./element-bounds). Every refusal names its field and says what to do.
  */
+import { surfaceConditionsSchema } from './surface-films';
 import { z } from 'zod';
 import {
 	AIR_LAYER_MAX_MM,
@@ -25,7 +26,10 @@ import {
 	type HeatFlow
 } from './resistances';
 import { MAX_BRIDGED_LAYERS } from './bridging';
-import { characteristicDimension, ROOF_SPACES } from './ground';
+import { characteristicDimension, GROUND_LAMBDA_DEFAULT, ROOF_SPACES, slabOnGroundU } from './ground';
+import { EDGE_ORIENTATIONS, edgeInsulationPsi } from './ground-edge';
+import { AIRTIGHTNESS_TYPES, CONVENTIONAL_AIR_CHANGE } from './unheated-space';
+import { AIR_HEAT_CAPACITY_WH } from './ground-basement';
 import {
 	BRIDGE_SPACING_MAX_MM,
 	CHARACTERISTIC_DIMENSION_MAX_M,
@@ -302,6 +306,47 @@ const SUSPENDED_RANGES: (readonly [string, readonly Rule[]])[] = [
 	['openingsPerPerimeter', [...NON_NEGATIVE, [(v) => v <= 1, 'must be ≤ 1 m²/m (1 000 000 mm² per metre)']]],
 	['windSpeed', [...NON_NEGATIVE, [(v) => v <= 50, 'must be ≤ 50 m/s']]]
 ];
+/** A basement's fields, the ranges of ./ground-basement (ISO 13370:2017, 8.3 and 8.4). */
+const BASEMENT_RANGES: (readonly [string, readonly Rule[]])[] = [
+	[
+		'depthM',
+		[
+			[(v) => v > 0, 'must be greater than 0 m: a floor at ground level is a slab on the ground'],
+			atMost(50, '50 m (50 000 mm)')
+		]
+	],
+	['wallR', [[(v) => v >= 0, 'must be 0 m²·K/W or more'], atMost(50, '50 m²·K/W')]],
+	['floorR', [[(v) => v >= 0, 'must be 0 m²·K/W or more'], atMost(50, '50 m²·K/W')]],
+	['wallAboveGroundHeightM', [[(v) => v >= 0, 'must be 0 m or more'], atMost(50, '50 m (50 000 mm)')]],
+	['wallAboveGroundU', [[(v) => v >= 0, 'must be 0 W/(m²·K) or more'], atMost(10, '10 W/(m²·K)')]],
+	['airChangeRate', [[(v) => v >= 0, 'must be 0 h⁻¹ or more'], atMost(100, '100 h⁻¹')]],
+	['volumeM3', [[(v) => v >= 0, 'must be 0 m³ or more'], atMost(1e7, '10 000 000 m³')]]
+];
+/** The fields an unheated basement needs beyond a heated one's. */
+const UNHEATED_BASEMENT_FIELDS = [
+	'floorR',
+	'wallAboveGroundHeightM',
+	'wallAboveGroundU',
+	'airChangeRate',
+	'volumeM3'
+] as const;
+/** Edge insulation, the ranges of ./ground-edge. */
+const EDGE_RANGES: (readonly [string, readonly Rule[]])[] = [
+	['widthM', [[(v) => v >= 0, 'must be 0 m or more'], atMost(10, '10 m (10 000 mm)')]],
+	['insulationR', [[(v) => v >= 0, 'must be 0 m²·K/W or more'], atMost(50, '50 m²·K/W')]],
+	['insulationLambda', [[(v) => v > 0, 'must be greater than 0 W/(m·K)'], atMost(10, '10 W/(m·K)')]],
+	['insulationThicknessM', [[(v) => v >= 0, 'must be 0 m or more'], atMost(2, '2 m (2000 mm)')]]
+];
+/** An unheated space beside the element, the ranges of ./unheated-space. */
+const UNHEATED_SPACE_RANGES: (readonly [string, readonly Rule[]])[] = [
+	['internalAreaM2', [[(v) => v > 0, 'must be greater than 0 m²'], atMost(1e6, '1 000 000 m²')]],
+	['airChangeRate', [[(v) => v >= 0, 'must be 0 h⁻¹ or more'], atMost(100, '100 h⁻¹')]],
+	['volumeM3', [[(v) => v >= 0, 'must be 0 m³ or more'], atMost(1e7, '10 000 000 m³')]]
+];
+const UNHEATED_ELEMENT_RANGES: (readonly [string, readonly Rule[]])[] = [
+	['areaM2', [[(v) => v >= 0, 'must be 0 m² or more'], atMost(1e6, '1 000 000 m²')]],
+	['uValue', [[(v) => v >= 0, 'must be 0 W/(m²·K) or more'], atMost(10, '10 W/(m²·K)')]]
+];
 const GROUND_RANGES: (readonly [string, readonly Rule[]])[] = [
 	['perimeterM', [...POSITIVE, [(v) => v <= 100000, 'must be ≤ 100 000 m']]],
 	['areaM2', [...POSITIVE, [(v) => v <= 1000000, 'must be ≤ 1 000 000 m²']]],
@@ -313,9 +358,144 @@ const DESIGN_RANGES: (readonly [string, readonly Rule[]])[] = [
 	['external', TEMPERATURE]
 ];
 
-function refineGround(g: Record<string, unknown>, add: Add): void {
+function refineBasement(b: Record<string, unknown>, add: Add): void {
+	checkRanges(b, add, BASEMENT_RANGES);
+	if (b.kind !== 'unheated') return;
+	for (const f of UNHEATED_BASEMENT_FIELDS)
+		if (b[f] === undefined) add([f], 'is required for an unheated basement');
+}
+
+/**
+ * Edge insulation (./ground-edge): its ranges, Rn or λn (not both), Rn at least the resistance dn/λ
+ * of the ground it replaces, and a floor U above zero. `rLayers` is the floor's Rf from its layers.
+ */
+function refineEdge(g: Record<string, unknown>, e: Record<string, unknown>, rLayers: number, add: Add): void {
+	const at = prefixed(add, ['edge']);
+	checkRanges(e, at, EDGE_RANGES);
+	if (e.insulationR !== undefined && e.insulationLambda !== undefined)
+		at(
+			['insulationLambda'],
+			'must not be given together with the resistance Rn: give the resistance or the λ, not both'
+		);
+	else if (e.insulationR === undefined && e.insulationLambda === undefined)
+		at(['insulationR'], 'is required: the edge insulation’s thermal resistance Rn, or its λ');
+	const d = e.insulationThicknessM;
+	const rn = isPositive(e.insulationLambda) && typeof d === 'number' ? d / e.insulationLambda : e.insulationR;
+	if (e.insulationR === undefined && typeof rn === 'number' && rn > 50)
+		at(
+			['insulationLambda'],
+			`gives Rn = dn/λn = ${figure(rn)} m²·K/W, more than 50 m²·K/W: check the thickness and the λ`
+		);
+	const lambda = g.groundLambda === undefined ? GROUND_LAMBDA_DEFAULT : g.groundLambda;
+	const w = g.wallThicknessM === undefined ? 0.3 : g.wallThicknessM;
+	if (
+		!(typeof rn === 'number' && rn >= 0 && rn <= 50) ||
+		!(typeof d === 'number' && d >= 0 && d <= 2) ||
+		!(isPositive(lambda) && lambda <= 10)
+	)
+		return;
+	if (rn < d / lambda) {
+		at(
+			[e.insulationR === undefined ? 'insulationLambda' : 'insulationR'],
+			`gives Rn = ${fmt(rn)} m²·K/W, less than dn/λ = ${fmt(d / lambda)} m²·K/W, the resistance of the ground it replaces: the edge insulation would conduct better than the ground`
+		);
+		return;
+	}
+	const width = e.widthM;
+	if (
+		!isPositive(g.perimeterM) ||
+		!isPositive(g.areaM2) ||
+		!(typeof w === 'number' && w >= 0 && w <= 3) ||
+		!(typeof width === 'number' && width >= 0 && width <= 10) ||
+		!(EDGE_ORIENTATIONS as readonly unknown[]).includes(e.orientation) ||
+		!(rLayers >= 0 && Number.isFinite(rLayers))
+	)
+		return;
+	const slab = slabOnGroundU(
+		{ perimeterM: g.perimeterM, areaM2: g.areaM2, groundLambda: lambda, wallThicknessM: w },
+		0.17,
+		rLayers,
+		0.04
+	); // ISO 6946:2017, Table 7 (from memory): Rsi 0.17 downward, Rse 0.04, as ./ground-edge
+	const psi = edgeInsulationPsi(
+		e.orientation as (typeof EDGE_ORIENTATIONS)[number],
+		lambda,
+		slab.equivalentThicknessM,
+		(rn - d / lambda) * lambda,
+		width
+	);
+	if (!(slab.u + (2 * psi) / slab.characteristicDimensionM > 0))
+		at(
+			['widthM'],
+			'gives a floor U of zero or less: this edge insulation lies outside the range of the method for a floor of this size; calculate the floor numerically (ISO 10211)'
+		);
+}
+
+/** An unheated space beside the element (./unheated-space): ranges, n or the airtightness, a heat loss to the outside. */
+function refineUnheatedSpace(s: Record<string, unknown>, add: Add): void {
+	checkRanges(s, add, UNHEATED_SPACE_RANGES);
+	const list = Array.isArray(s.externalElements) ? s.externalElements : [];
+	let transmission = 0;
+	list.forEach((e, i) => {
+		if (!isObject(e)) return;
+		checkRanges(e, prefixed(add, ['externalElements', i]), UNHEATED_ELEMENT_RANGES);
+		if (typeof e.areaM2 === 'number' && typeof e.uValue === 'number') transmission += e.areaM2 * e.uValue;
+	});
+	if (s.airChangeRate !== undefined && s.airtightness !== undefined)
+		add(
+			['airtightness'],
+			'must not be given with airChangeRate: give the rate or the airtightness, not both'
+		);
+	else if (s.airChangeRate === undefined && s.airtightness === undefined)
+		add(['airChangeRate'], 'is required (h⁻¹), or the airtightness for the conventional value of ISO 13789');
+	const n =
+		typeof s.airChangeRate === 'number'
+			? s.airChangeRate
+			: CONVENTIONAL_AIR_CHANGE[s.airtightness as (typeof AIRTIGHTNESS_TYPES)[number]];
+	const v = s.volumeM3;
+	if (typeof n === 'number' && typeof v === 'number' && Number.isFinite(transmission) && transmission >= 0) {
+		if (!(transmission + AIR_HEAT_CAPACITY_WH * n * v > 0))
+			add(
+				['externalElements'],
+				'these elements and the air change lose no heat to the outside (ΣAe·Ue + 0.33·n·V = 0): the space would be at the inside temperature; give the elements between it and the outside, or its air change'
+			);
+	}
+}
+
+/**
+ * The layers of a basement floor or an edge-insulated slab as the ISO 13370 modules take them: Rf at
+ * most 50 m²·K/W (./ground-basement, ./ground-edge), and the floor above an unheated basement with Uf =
+ * 1/(Rsi + Rf + Rsi) of at most 10 W/(m²·K).
+ */
+function refineFloorBuildUp(g: Record<string, unknown>, rsi: unknown, rLayers: number, add: Add): void {
+	if (!(g.basement !== undefined || g.edge !== undefined) || !Number.isFinite(rLayers)) return;
+	if (rLayers > 50)
+		add(
+			['layers'],
+			`the floor's layers add up to Rf = ${figure(rLayers)} m²·K/W, more than the 50 m²·K/W the ISO 13370 calculation takes: check the λ-values and thicknesses`
+		);
+	const b = isObject(g.basement) ? g.basement : undefined;
+	const rsiFloor = typeof rsi === 'number' && rsi >= 0 && rsi <= 10 ? rsi : 0.17; // ISO 6946:2017, Table 7 (from memory): 0.17, downward
+	if (b?.kind === 'unheated' && 2 * rsiFloor + rLayers < 0.1)
+		add(
+			['layers'],
+			`the floor above the unheated basement has Uf = 1/(Rsi + Rf + Rsi) = ${figure(1 / (2 * rsiFloor + rLayers))} W/(m²·K), more than 10 W/(m²·K): check its layers and Rsi`
+		);
+}
+
+const FLOOR_TYPE_WORDS = { suspended: 'a suspended floor', basement: 'a basement', edge: 'edge insulation' };
+
+function refineGround(g: Record<string, unknown>, add: Add, rLayers = NaN): void {
 	checkRanges(g, add, GROUND_RANGES);
 	if (isObject(g.suspended)) checkRanges(g.suspended, prefixed(add, ['suspended']), SUSPENDED_RANGES);
+	if (isObject(g.basement)) refineBasement(g.basement, prefixed(add, ['basement']));
+	if (isObject(g.edge)) refineEdge(g, g.edge, rLayers, add);
+	const types = (['suspended', 'basement', 'edge'] as const).filter((k) => g[k] !== undefined);
+	if (types.length > 1)
+		add(
+			[types[1]],
+			`must not be given together with ${FLOOR_TYPE_WORDS[types[0]]}: a floor is one of a slab on the ground (with or without edge insulation), a suspended floor or a basement`
+		);
 	// P is the EXPOSED perimeter (ISO 13370: walls between heated spaces are left out), so a terraced
 	// house's floor may have far less perimeter than its shape; no lower bound beyond P > 0 but that
 	// of B′ = A/(0.5·P), which keeps the ground's U finite and above zero.
@@ -502,8 +682,91 @@ const groundShape = z.object({
 					'must be an object with heightM, underfloorWallU, openingsPerPerimeter, windSpeed and windShielding'
 			}
 		)
+		.optional(),
+	/**
+	 * a basement (ISO 13370, 8.3 and 8.4). Heated: the layers are the basement floor, and the U is
+	 * U′ over the floor and the walls in the ground. Unheated: the layers are the floor between the
+	 * heated space and the basement, whose U takes the internal surface resistance on both faces.
+	 */
+	basement: z
+		.object(
+			{
+				kind: z.enum(['heated', 'unheated'], { error: 'must be heated or unheated' }),
+				/** z, depth of the basement floor below the outside ground, m */
+				depthM: num(),
+				/** Rw, resistance of the basement walls in the ground (no surface resistances), m²·K/W */
+				wallR: num(),
+				/** unheated: Rf, resistance of the basement's own floor (no surface resistances), m²·K/W */
+				floorR: num().optional(),
+				/** unheated: h, height of the basement walls above the outside ground, m */
+				wallAboveGroundHeightM: num().optional(),
+				/** unheated: Uw, U of the basement walls above the ground, W/(m²·K) */
+				wallAboveGroundU: num().optional(),
+				/** unheated: n, the basement's air change rate, h⁻¹ */
+				airChangeRate: num().optional(),
+				/** unheated: V, the basement's air volume, m³ */
+				volumeM3: num().optional()
+			},
+			{ error: 'must be an object with kind, depthM and wallR' }
+		)
+		.optional(),
+	/** edge insulation of a slab on the ground (ISO 13370, U = U0 + 2·Δψ/B′) */
+	edge: z
+		.object(
+			{
+				orientation: z.enum(EDGE_ORIENTATIONS, { error: 'must be horizontal or vertical' }),
+				/** D: width of horizontal insulation from the wall, or depth of vertical insulation, m */
+				widthM: num(),
+				/** dn, thickness of the edge insulation, m */
+				insulationThicknessM: num(),
+				/** Rn, its thermal resistance, m²·K/W; or give insulationLambda (Rn = dn/λn) */
+				insulationR: num().optional(),
+				/** λn, its thermal conductivity, W/(m·K) */
+				insulationLambda: num().optional()
+			},
+			{
+				error:
+					'must be an object with orientation, widthM, insulationThicknessM and insulationR or insulationLambda'
+			}
+		)
 		.optional()
 });
+
+/**
+ * An unheated space beside the element (ISO 6946:2017, 6.10.3): its resistance Ru is added to RT
+ * between the last layer and Rse, n by ISO 13789's convention when given by airtightness.
+ */
+const unheatedSpaceShape = z.object(
+	{
+		/** Ai, area of all elements between the heated and the unheated space, m² */
+		internalAreaM2: num(),
+		/** the elements between the unheated space and the outside, each Ae (m²) and Ue (W/(m²·K)) */
+		externalElements: z
+			.array(
+				z.object(
+					{
+						name: z
+							.string({ error: 'must be text' })
+							.max(NAME_MAX, `must be at most ${NAME_MAX} characters`)
+							.optional(),
+						areaM2: num(),
+						uValue: num()
+					},
+					{ error: 'must be an object with areaM2 and uValue' }
+				),
+				{ error: 'must be a list of elements' }
+			)
+			.max(100, 'at most 100 elements'),
+		/** n, h⁻¹; or give airtightness for ISO 13789's conventional value */
+		airChangeRate: num().optional(),
+		airtightness: z
+			.enum(AIRTIGHTNESS_TYPES, { error: `must be one of ${AIRTIGHTNESS_TYPES.join(', ')}` })
+			.optional(),
+		/** V, air volume of the unheated space, m³ */
+		volumeM3: num()
+	},
+	{ error: 'must be an object with internalAreaM2, externalElements and volumeM3' }
+);
 
 export const roofSpaceSchema = z.enum(ROOF_SPACES, { error: `must be one of ${ROOF_SPACES.join(', ')}` });
 
@@ -530,6 +793,10 @@ const elementShape = z.object({
 	ground: groundShape.optional(),
 	/** roof space above an insulated ceiling: its resistance (ISO 6946) is added to RT */
 	roofSpace: roofSpaceSchema.optional(),
+	/** the element lies between the heated space and an unheated one (a garage, a stairwell, a sunspace) */
+	unheatedSpace: unheatedSpaceShape.optional(),
+	/** surface conditions other than the conventional ones (ISO 6946:2017, Annex C): emissivities, wind speed */
+	surfaceConditions: surfaceConditionsSchema.optional(),
 	/**
 	 * inclination of the element from the horizontal, degrees (0 flat, 90 vertical); when given, it
 	 * decides whether the heat flow is horizontal (60° or more, ISO 6946:2017, 6.8, note to Table 7)
@@ -629,8 +896,27 @@ function refineElement(e: Record<string, unknown>, add: Add): void {
 		);
 	const well = layers.findIndex((l) => l.air === 'well-ventilated');
 	refineInclination(e, add);
+	if (isObject(e.unheatedSpace)) {
+		refineUnheatedSpace(e.unheatedSpace, prefixed(add, ['unheatedSpace']));
+		if (e.roofSpace !== undefined)
+			add(
+				['unheatedSpace'],
+				'must not be given together with a roof space: a roof space above an insulated ceiling takes the table’s Ru; choose one or the other'
+			);
+		if (e.ground !== undefined)
+			add(
+				['unheatedSpace'],
+				'does not apply to a floor on the ground: a floor over an unheated basement is a ground floor of the unheated-basement type'
+			);
+		if (well >= 0)
+			add(
+				['unheatedSpace'],
+				'give either an unheated space or a well-ventilated air layer: the unheated space takes the place of what lies beyond the layers'
+			);
+	}
 	if (isObject(e.ground)) {
-		refineGround(e.ground, prefixed(add, ['ground']));
+		refineGround(e.ground, prefixed(add, ['ground']), rLayers);
+		refineFloorBuildUp(e.ground, e.rsi, rLayers, add);
 		if (e.heatFlow !== undefined && e.heatFlow !== 'downward')
 			add(['ground'], 'applies to a floor only: the heat flow must be downward');
 		if (well >= 0)
@@ -866,8 +1152,76 @@ export const groundResultSchema = z.object({
 			windShieldingFactor: z.number()
 		})
 		.optional(),
+	/**
+	 * a basement (ISO 13370, 8.3 and 8.4): dt, dw, Ubf, Ubw; heated: H and U′ over A + z·P;
+	 * unheated: the floor above's Uf, the basement's loss A·Ubf + z·P·Ubw + h·P·Uw + 0.33·n·V
+	 */
+	basement: z
+		.object({
+			kind: z.enum(['heated', 'unheated']),
+			depthM: z.number(),
+			floorR: z.number(),
+			wallR: z.number(),
+			floorEquivalentThicknessM: z.number(),
+			wallEquivalentThicknessM: z.number(),
+			floorRegime: z.string(),
+			ubf: z.number(),
+			ubw: z.number(),
+			wallUsedDw: z.boolean(),
+			/** heated: H = A·Ubf + z·P·Ubw, W/K, and the area it is spread over, A + z·P, m² */
+			heatTransferCoefficient: z.number().optional(),
+			areaInGroundM2: z.number().optional(),
+			/** unheated: Uf of the floor above, W/(m²·K), and the basement's figures */
+			floorU: z.number().optional(),
+			wallAboveGroundHeightM: z.number().optional(),
+			wallAboveGroundU: z.number().optional(),
+			airChangeRate: z.number().optional(),
+			volumeM3: z.number().optional(),
+			ventilationCoefficient: z.number().optional(),
+			basementLossCoefficient: z.number().optional()
+		})
+		.optional(),
+	/** edge insulation of a slab (ISO 13370): U0 without it, R′, d′, Δψ; U = U0 + 2·Δψ/B′ */
+	edge: z
+		.object({
+			orientation: z.enum(EDGE_ORIENTATIONS),
+			widthM: z.number(),
+			insulationR: z.number(),
+			insulationLambda: z.number().optional(),
+			insulationThicknessM: z.number(),
+			u0: z.number(),
+			additionalResistance: z.number(),
+			additionalThicknessM: z.number(),
+			deltaPsi: z.number()
+		})
+		.optional(),
 	/** resistance of the ground between the last layer and Rse that gives the floor's U, m²·K/W */
 	rGround: z.number()
+});
+
+/** An element beside an unheated space: Ru and its parts (ISO 6946:2017, 6.10.3; n by ISO 13789). */
+export const unheatedSpaceResultSchema = z.object({
+	method: z.string(),
+	internalAreaM2: z.number(),
+	externalElements: z.array(
+		z.object({ name: z.string().optional(), areaM2: z.number(), uValue: z.number() })
+	),
+	/** ΣAe·Ue, W/K */
+	transmissionCoefficient: z.number(),
+	/** n used, h⁻¹, and where it comes from */
+	airChangeRate: z.number(),
+	airChangeSource: z.string(),
+	volumeM3: z.number(),
+	/** 0.33·n·V, W/K */
+	ventilationCoefficient: z.number(),
+	/** Hue = ΣAe·Ue + 0.33·n·V, W/K */
+	heatLossToOutside: z.number(),
+	/** Ru = Ai/Hue, m²·K/W */
+	ru: z.number(),
+	/** U0 of the element as if exposed to outside air (before ΔU), W/(m²·K) */
+	uExposed: z.number(),
+	/** ISO 13789's b = Hue/(Hiu + Hue), Hiu = Ai·U0 */
+	adjustmentFactor: z.number()
 });
 
 /**
@@ -906,6 +1260,8 @@ export const elementResultSchema = z.object({
 	ground: groundResultSchema.optional(),
 	/** ceilings under a roof space: the roof-space resistance included in RT, m²·K/W */
 	rRoofSpace: z.number().optional(),
+	/** elements beside an unheated space: Ru (included in RT) and its parts */
+	unheatedSpace: unheatedSpaceResultSchema.optional(),
 	rUpper: z.number().optional(),
 	rLower: z.number().optional(),
 	relativeError: z.number().optional(),

@@ -201,6 +201,7 @@ describe.skipIf(!hasDatabase)('templates', async () => {
 		const buildUp = {
 			rsi: 0.1,
 			rse: 0.04,
+			surfaceConditions: { internalEmissivity: 0.2, externalEmissivity: 0.85, windSpeed: 6 },
 			ground: {
 				perimeterM: 32,
 				areaM2: 60,
@@ -212,9 +213,34 @@ describe.skipIf(!hasDatabase)('templates', async () => {
 					openingsPerPerimeter: 0.003,
 					windSpeed: 5,
 					windShielding: 'average'
+				},
+				// (a floor has one type; the schema stores each, the engine refuses more than one)
+				basement: {
+					kind: 'unheated',
+					depthM: 2.5,
+					wallR: 0.2,
+					floorR: 0.1,
+					wallAboveGroundHeightM: 0.5,
+					wallAboveGroundU: 1.5,
+					airChangeRate: 0.3,
+					volumeM3: 250
+				},
+				edge: {
+					orientation: 'vertical',
+					widthM: 0.6,
+					insulationThicknessM: 0.05,
+					insulationR: 1.5,
+					insulationLambda: 0.033
 				}
 			},
 			roofSpace: 'tiles-with-felt-or-boards',
+			unheatedSpace: {
+				internalAreaM2: 12,
+				externalElements: [{ name: 'Garage door', areaM2: 6, uValue: 3 }],
+				airChangeRate: 2,
+				airtightness: 'some-open-joints',
+				volumeM3: 60
+			},
 			inclinationDeg: 35,
 			layers: [
 				{
@@ -261,5 +287,7 @@ describe.skipIf(!hasDatabase)('templates', async () => {
 		}
 		expect(back.ground).toEqual(buildUp.ground);
 		expect(back.roofSpace).toBe('tiles-with-felt-or-boards');
+		expect(back.unheatedSpace).toEqual(buildUp.unheatedSpace);
+		expect(back.surfaceConditions).toEqual(buildUp.surfaceConditions);
 	});
 });

@@ -2,6 +2,7 @@
  * The element as it is being edited: every field as the person types it (text, so "0,035" and
  * half-typed numbers survive), and the same fields as the API takes them.
  */
+import type { SurfaceConditions } from '$lib/physics/surface-films';
 import { heatFlowForInclination, type ElementResult, type HeatFlow, type RoofSpace } from '$lib/physics';
 import type { StoredBuildUp, StoredInternal } from '$lib/dwellings/element-input';
 import {
@@ -17,8 +18,11 @@ import {
 	INCLINATION_KINDS,
 	parseNumber,
 	rowFromLayer,
+	unheatedText,
+	withUnheatedSpace,
 	type EditRow,
-	type GroundText
+	type GroundText,
+	type UnheatedText
 } from '$lib/dwellings/editor';
 
 export type HumidityMode = 'class' | 'rh';
@@ -40,6 +44,8 @@ export type SavedElement = {
 	buildUp: StoredBuildUp | null;
 	givenU: number | null;
 	givenUSource: string | null;
+	/** a window's or door's ISO 10077-1 parts, when its U was worked out from them */
+	windowParts?: Record<string, unknown> | null;
 	climateId: string | null;
 	internal: StoredInternal | null;
 	lastResult: ElementResult | null;
@@ -57,7 +63,11 @@ export type ElementFieldValues = {
 	buildUp: StoredBuildUp | null;
 	givenU: number | string | undefined | null;
 	givenUSource: string | null;
+	windowParts: Record<string, unknown> | null;
 };
+
+/** Surface conditions other than the conventional ones (ISO 6946, Annex C), as typed ('' not given). */
+export type SurfaceText = { internalEmissivity: string; externalEmissivity: string; windSpeed: string };
 
 /** The values of a library material that a layer takes over from it. */
 export type MaterialValues = {
@@ -66,6 +76,30 @@ export type MaterialValues = {
 	resistance?: number | null;
 	muDry?: number | null;
 	sd?: number | null;
+};
+
+/** Everything the person edits in the draft, as plain data (what undo and redo restore). */
+export type DraftState = {
+	name: string;
+	kind: ElementKind;
+	area: string;
+	heatFlow: HeatFlow;
+	climateId: string;
+	internalTemp: string;
+	humidityMode: HumidityMode;
+	humidityClass: string;
+	rh: string;
+	givenU: string;
+	givenUSource: string;
+	rsi: string;
+	rse: string;
+	surface: SurfaceText;
+	windowParts: Record<string, unknown> | null;
+	unheated: UnheatedText;
+	rows: EditRow[];
+	ground: GroundText;
+	roofSpace: RoofSpace | '';
+	inclination: string;
 };
 
 export class ElementDraft {
@@ -82,6 +116,11 @@ export class ElementDraft {
 	givenUSource: string = $state('');
 	rsi: string = $state('');
 	rse: string = $state('');
+	surface: SurfaceText = $state({ internalEmissivity: '', externalEmissivity: '', windSpeed: '' });
+	/** the parts a window's or door's U was worked out from (ISO 10077-1), kept with it; null for a declared U */
+	windowParts: Record<string, unknown> | null = $state(null);
+	/** the unheated space beside a wall, roof or exposed floor (ISO 6946, 6.10.3), as typed */
+	unheated: UnheatedText = $state(unheatedText(undefined));
 	rows: EditRow[] = $state([]);
 	ground: GroundText = $state(groundText(undefined));
 	roofSpace: RoofSpace | '' = $state('');
@@ -108,23 +147,32 @@ export class ElementDraft {
 		const internal: Record<string, unknown> = { temperature: parseNumber(this.internalTemp) };
 		if (this.humidityMode === 'class') internal.humidityClass = Number(this.humidityClass);
 		else internal.relativeHumidity = parseNumber(this.rh);
-		return {
-			name: this.name,
-			kind: this.kind,
-			area: parseNumber(this.area),
-			heatFlow: this.inclinationHeatFlow ?? this.heatFlow,
-			climateId: this.climateId || null,
-			internal,
-			buildUp: this.given
-				? null
-				: buildUpFromRows(this.rows, this.rsi, this.rse, {
-						ground: this.kind === 'ground-floor' ? this.ground : null,
-						roofSpace: this.kind === 'pitched-roof-ceiling' ? this.roofSpace : null,
-						inclination: this.inclinable ? this.inclination : null
-					}),
-			givenU: this.given ? parseNumber(this.givenU) : null,
-			givenUSource: this.given ? this.givenUSource : null
-		};
+		// the unheated space beside it goes into the build-up for the kinds that may have one
+		return withUnheatedSpace(
+			{
+				name: this.name,
+				kind: this.kind,
+				area: parseNumber(this.area),
+				heatFlow: this.inclinationHeatFlow ?? this.heatFlow,
+				climateId: this.climateId || null,
+				internal,
+				buildUp: this.given
+					? null
+					: withSurfaceConditions(
+							buildUpFromRows(this.rows, this.rsi, this.rse, {
+								ground: this.kind === 'ground-floor' ? this.ground : null,
+								roofSpace: this.kind === 'pitched-roof-ceiling' ? this.roofSpace : null,
+								inclination: this.inclinable ? this.inclination : null
+							}),
+							this.surface,
+							this.kind !== 'ground-floor'
+						),
+				givenU: this.given ? parseNumber(this.givenU) : null,
+				givenUSource: this.given ? this.givenUSource : null,
+				windowParts: this.given ? this.windowParts : null
+			},
+			this.unheated
+		);
 	});
 
 	/** From the saved element, or for a new one of the given kind. */
@@ -142,11 +190,65 @@ export class ElementDraft {
 		this.givenUSource = start?.givenUSource ?? '';
 		this.rsi = start?.buildUp?.rsi !== undefined ? String(start.buildUp.rsi) : '';
 		this.rse = start?.buildUp?.rse !== undefined ? String(start.buildUp.rse) : '';
+		this.surface = surfaceText(start?.buildUp?.surfaceConditions);
+		this.windowParts = start?.windowParts ?? null;
+		this.unheated = unheatedText(start?.buildUp?.unheatedSpace);
 		this.rows = start?.buildUp?.layers?.length ? start.buildUp.layers.map(rowFromLayer) : [blankRow()];
 		this.ground = groundText(start?.buildUp?.ground);
 		this.roofSpace = start?.buildUp?.roofSpace ?? '';
 		this.inclination =
 			start?.buildUp?.inclinationDeg !== undefined ? String(start.buildUp.inclinationDeg) : '';
+	}
+
+	/** The edited state as plain data (read inside an effect, it tracks every field). */
+	snapshot(): DraftState {
+		return $state.snapshot({
+			name: this.name,
+			kind: this.kind,
+			area: this.area,
+			heatFlow: this.heatFlow,
+			climateId: this.climateId,
+			internalTemp: this.internalTemp,
+			humidityMode: this.humidityMode,
+			humidityClass: this.humidityClass,
+			rh: this.rh,
+			givenU: this.givenU,
+			givenUSource: this.givenUSource,
+			rsi: this.rsi,
+			rse: this.rse,
+			surface: this.surface,
+			windowParts: this.windowParts,
+			unheated: this.unheated,
+			rows: this.rows,
+			ground: this.ground,
+			roofSpace: this.roofSpace,
+			inclination: this.inclination
+		}) as DraftState;
+	}
+
+	/** Back to a state `snapshot()` gave (undo, redo); rows keep their keys, so the table keeps its rows. */
+	restore(s: DraftState) {
+		const c = structuredClone(s);
+		this.name = c.name;
+		this.kind = c.kind;
+		this.area = c.area;
+		this.heatFlow = c.heatFlow;
+		this.climateId = c.climateId;
+		this.internalTemp = c.internalTemp;
+		this.humidityMode = c.humidityMode;
+		this.humidityClass = c.humidityClass;
+		this.rh = c.rh;
+		this.givenU = c.givenU;
+		this.givenUSource = c.givenUSource;
+		this.rsi = c.rsi;
+		this.rse = c.rse;
+		this.surface = c.surface;
+		this.windowParts = c.windowParts;
+		this.unheated = c.unheated;
+		this.rows = c.rows;
+		this.ground = c.ground;
+		this.roofSpace = c.roofSpace;
+		this.inclination = c.inclination;
 	}
 
 	/** A new kind; the name and heat flow follow it while they are still the old kind's defaults. */
@@ -189,6 +291,7 @@ export class ElementDraft {
 		if (b.rse !== undefined) this.rse = String(b.rse);
 		if (b.roofSpace !== undefined) this.roofSpace = b.roofSpace;
 		if (b.inclinationDeg !== undefined) this.inclination = String(b.inclinationDeg);
+		if (b.unheatedSpace) this.unheated = unheatedText(b.unheatedSpace);
 	}
 
 	/** A layer takes a newer library revision's values; false when the layer is no longer there. */
@@ -212,4 +315,28 @@ export class ElementDraft {
 		}
 		return true;
 	}
+}
+
+/** Stored surface conditions as typed. */
+function surfaceText(c: SurfaceConditions | undefined): SurfaceText {
+	const t = (v: number | undefined) => (v === undefined ? '' : String(v));
+	return {
+		internalEmissivity: t(c?.internalEmissivity),
+		externalEmissivity: t(c?.externalEmissivity),
+		windSpeed: t(c?.windSpeed)
+	};
+}
+
+/**
+ * The build-up with the surface conditions typed (text that is no number goes on for the schema to
+ * name); none when nothing is typed, and none for a floor on the ground, whose surface resistances
+ * ISO 13370 sets.
+ */
+function withSurfaceConditions(b: StoredBuildUp, t: SurfaceText, offered: boolean): StoredBuildUp {
+	if (!offered) return b;
+	const c: Record<string, unknown> = {};
+	if (t.internalEmissivity.trim()) c.internalEmissivity = parseNumber(t.internalEmissivity);
+	if (t.externalEmissivity.trim()) c.externalEmissivity = parseNumber(t.externalEmissivity);
+	if (t.windSpeed.trim()) c.windSpeed = parseNumber(t.windSpeed);
+	return Object.keys(c).length ? { ...b, surfaceConditions: c as SurfaceConditions } : b;
 }

@@ -5,7 +5,7 @@
 import { beforeNavigate, goto } from '$app/navigation';
 import type { ElementResult } from '$lib/physics';
 import type { ElementFieldValues, SavedElement } from './element-draft.svelte';
-import type { Issue } from './element-issues';
+import { issuesSummary, type Issue } from './element-issues';
 
 export type SaveMessage = { tone: 'pass' | 'fail'; text: string };
 
@@ -62,7 +62,8 @@ export class ElementSave {
 				this.conflict = out.message ?? 'Changed by someone else.';
 			} else if (res.status === 400) {
 				this.serverIssues = out.issues ?? [];
-				this.message = { tone: 'fail', text: `Not saved: ${out.message ?? 'check the fields marked.'}` };
+				// the answer's message names fields by their paths; the page says it in the screen's words
+				this.message = { tone: 'fail', text: `Not saved: ${issuesSummary(this.serverIssues)}` };
 			} else if (!res.ok) {
 				this.message = {
 					tone: 'fail',

@@ -4,6 +4,7 @@
  */
 import type { StoredBuildUp } from '$lib/dwellings/element-input';
 import { ELEMENT_KIND_LABELS, type ElementKind } from '$lib/dwellings/kinds';
+import { issuesSummary } from './element-issues';
 
 export type Template = { id: string; name: string; description: string | null; buildUp: StoredBuildUp };
 
@@ -51,7 +52,8 @@ export class TemplateShelf {
 		const out = await res.json().catch(() => ({}));
 		this.message = res.ok
 			? `Saved as template “${this.name.trim()}”.`
-			: `Template not saved: ${out.message ?? res.status}${out.issues?.length ? ' — ' + out.issues.map((i: { path: string; message: string }) => `${i.path} ${i.message}`).join('; ') : ''}`;
+			: // the answer's message names fields by their paths; the page says it in the screen's words
+				`Template not saved: ${out.issues?.length ? issuesSummary(out.issues) : (out.message ?? res.status)}`;
 		if (res.ok) this.name = '';
 		this.saving = false;
 	}

@@ -429,6 +429,8 @@ function thermalTable(el: SnapshotElement, r: ElementResult, s: ReportSnapshot):
 	rows.push(['Rsi, Rse', `${fx(r.rsi, 2)} and ${fx(r.rse, 2)} m²·K/W`]);
 	const roof = roofSpaceOfResult(r);
 	if (roof) rows.push(['Roof space Ru', `${fx(roof.ru, 2)} m²·K/W (${roof.source})`]);
+	if (r.unheatedSpace)
+		rows.push(['Unheated space Ru', `${fx(r.unheatedSpace.ru, 4)} m²·K/W (${r.unheatedSpace.method})`]);
 	if (r.rUpper !== undefined && r.rLower !== undefined) {
 		rows.push(['Upper limit R′T', `${fx(r.rUpper, 3)} m²·K/W`]);
 		rows.push(['Lower limit R″T', `${fx(r.rLower, 3)} m²·K/W`]);
@@ -448,9 +450,17 @@ function thermalTable(el: SnapshotElement, r: ElementResult, s: ReportSnapshot):
 		]);
 		rows.push([
 			'Formula (ISO 13370)',
-			groundBranch(g) === 'dt < B′'
-				? 'dt < B′: U = 2λg/(π·B′ + dt)·ln(π·B′/dt + 1)'
-				: 'dt ≥ B′: U = λg/(0.457·B′ + dt)'
+			g.suspended
+				? 'suspended floor: U = 1/(1/Uf + 1/(Ug + Ux))'
+				: g.basement?.kind === 'heated'
+					? `heated basement: U′ = (A·Ubf + z·P·Ubw)/(A + z·P), Ubf ${fx(g.basement.ubf, 4)}, Ubw ${fx(g.basement.ubw, 4)} W/(m²·K)`
+					: g.basement
+						? `unheated basement: 1/U = 1/Uf + A/(A·Ubf + z·P·Ubw + h·P·Uw + 0.33·n·V), Uf ${fx(g.basement.floorU ?? 0, 4)}, Ubf ${fx(g.basement.ubf, 4)}, Ubw ${fx(g.basement.ubw, 4)} W/(m²·K)`
+						: g.edge
+							? `edge insulation: U = U0 + 2·Δψ/B′, U0 ${fx(g.edge.u0, 4)} W/(m²·K), Δψ ${fx(g.edge.deltaPsi, 4)} W/(m·K)`
+							: groundBranch(g) === 'dt < B′'
+								? 'dt < B′: U = 2λg/(π·B′ + dt)·ln(π·B′/dt + 1)'
+								: 'dt ≥ B′: U = λg/(0.457·B′ + dt)'
 		]);
 		rows.push([
 			'Equivalent resistance 1/U',
