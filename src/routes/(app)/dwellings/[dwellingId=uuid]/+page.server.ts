@@ -40,7 +40,9 @@ export const load = async (event) => {
 	const d = overview.dwelling;
 	const [returned, changes, junctions, evidence, form] = await Promise.all([
 		d.status === 'returned' ? getReturnNote(member.organisationId, d.id) : null,
-		d.issueChanges === null ? null : readIssueChanges(member.organisationId, d.id, d.issueChanges),
+		// Only a dwelling marked as changed (a count above 0) has a list to work out: every write that can
+		// change what was issued refreshes or raises the mark (reports/changes.ts, reports/marks.ts).
+		d.issueChanges ? readIssueChanges(member.organisationId, d.id, d.issueChanges) : null,
 		listJunctions(member.organisationId, d.id),
 		evidencePanel(member, d.id),
 		superValidate(zod4(dwellingFormSchema), {
