@@ -60,7 +60,10 @@ const server = spawn('node', [BUILD], {
 		HOST: '127.0.0.1',
 		ORIGIN: origin,
 		AUTH_SECRET: process.env.AUTH_SECRET ?? 'bench-secret',
-		ENVELO_NO_WORKERS: '1'
+		ENVELO_NO_WORKERS: '1',
+		// the per-member limit on calculations would answer most requests with a quick 429: what is
+		// measured is the calculation itself
+		CALCULATIONS_PER_MINUTE: '1000000000'
 	},
 	stdio: ['ignore', 'ignore', 'ignore']
 });
@@ -182,14 +185,20 @@ for (const r of [trivial, calc, calcFull, dw]) {
 	);
 }
 const ratio = calc.rps / trivial.rps;
+// Figures of a route that answered anything but 2xx measure the refusals, not the work: no verdict.
+const clean = (r: { non2xx: number }) => r.non2xx === 0;
+const verdict = (r: { non2xx: number }, ok: boolean) =>
+	clean(r) ? (ok ? 'met' : 'NOT met') : `not measured (${r.non2xx} answers were not 2xx)`;
 console.log(
-	`calculate / trivial throughput ratio ${ratio.toFixed(2)} (target ≥ 0.50): ${ratio >= 0.5 ? 'met' : 'NOT met'}`
+	`calculate / trivial throughput ratio ${ratio.toFixed(2)} (target ≥ 0.50): ${verdict(calc, ratio >= 0.5)}`
 );
-console.log(`calculate p99 ${calc.p99} ms (target < 50 ms): ${calc.p99 < 50 ? 'met' : 'NOT met'}`);
+console.log(`calculate p99 ${calc.p99} ms (target < 50 ms): ${verdict(calc, calc.p99 < 50)}`);
 console.log(
-	`full calculate answer: throughput ratio ${(calcFull.rps / trivial.rps).toFixed(2)}, p99 ${calcFull.p99} ms (read against the same targets: ${calcFull.rps / trivial.rps >= 0.5 && calcFull.p99 < 50 ? 'met' : 'NOT met'})`
+	`full calculate answer: throughput ratio ${(calcFull.rps / trivial.rps).toFixed(2)}, p99 ${calcFull.p99} ms (read against the same targets: ${verdict(calcFull, calcFull.rps / trivial.rps >= 0.5 && calcFull.p99 < 50)})`
 );
-console.log(`dwelling page / trivial throughput ratio ${(dw.rps / trivial.rps).toFixed(2)} (no target)`);
+console.log(
+	`dwelling page / trivial throughput ratio ${(dw.rps / trivial.rps).toFixed(2)} (target ≥ 0.25): ${verdict(dw, dw.rps / trivial.rps >= 0.25)}; p99 ${dw.p99} ms (target < 100 ms): ${verdict(dw, dw.p99 < 100)}`
+);
 
 await db('sessions').where({ sessionToken: token }).delete();
 await db.destroy();
