@@ -275,6 +275,9 @@ function compareBuildUps(before: ComparedElement, after: ComparedElement): Chang
 	add('Rse (m²·K/W)', a?.rse, b?.rse);
 	add('Ground inputs', describeJson(a?.ground), describeJson(b?.ground));
 	add('Roof space', a?.roofSpace, b?.roofSpace);
+	add('Unheated space beside it', describeJson(a?.unheatedSpace), describeJson(b?.unheatedSpace));
+	add('Other surface conditions', describeJson(a?.surfaceConditions), describeJson(b?.surfaceConditions));
+	add('Inclination (°)', a?.inclinationDeg, b?.inclinationDeg);
 	const la = a?.layers ?? [];
 	const lb = b?.layers ?? [];
 	add('Number of layers', la.length, lb.length);
@@ -286,6 +289,11 @@ function compareBuildUps(before: ComparedElement, after: ComparedElement): Chang
 		add(`${prefix}, thickness (mm)`, la[i].thicknessMm, lb[i].thicknessMm);
 		add(`${prefix}, λ (W/(m·K))`, la[i].lambda, lb[i].lambda);
 		add(`${prefix}, library revision`, revisionText(revA.get(i)), revisionText(revB.get(i)));
+		add(
+			`${prefix}, bridging library material`,
+			la[i].bridgeMaterial?.materialCode ?? la[i].bridgeMaterial?.materialId,
+			lb[i].bridgeMaterial?.materialCode ?? lb[i].bridgeMaterial?.materialId
+		);
 		const rest = (l: StoredLayer) => {
 			const {
 				name: _n,
@@ -294,6 +302,7 @@ function compareBuildUps(before: ComparedElement, after: ComparedElement): Chang
 				materialRevisionId: _r,
 				materialId: _m,
 				materialCode: _c,
+				bridgeMaterial: _b,
 				...others
 			} = l;
 			return others;
