@@ -57,10 +57,11 @@ export async function listElementSummaries(
 			'engine_version',
 			'version',
 			'updated_at',
-			trx.raw(`(last_result->>'uValue')::float8 AS u_value`),
-			trx.raw(`(last_result->>'uValueRounded')::float8 AS u_value_rounded`),
-			trx.raw(`last_result->'condensation'->>'outcome' AS moisture`),
-			trx.raw(`(last_result->'surface'->>'pass')::boolean AS surface_pass`)
+			// the stored result's headline figures, kept as generated columns: no result is read
+			'result_u_value as u_value',
+			'result_u_rounded as u_value_rounded',
+			'result_moisture as moisture',
+			'result_surface_pass as surface_pass'
 		);
 	return rows.map(toElementBrief);
 }

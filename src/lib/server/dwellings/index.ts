@@ -181,10 +181,11 @@ export async function getDwellingPage(
 			(SELECT coalesce(jsonb_agg(e ORDER BY e.position, e.created_at), '[]'::jsonb) FROM (
 				SELECT x.id, x.position, x.name, x.kind, x.area, x.heat_flow, x.given_u, x.engine_version,
 					x.version, x.updated_at, x.created_at,
-					x.last_result->'uValue' AS u_value,
-					x.last_result->'uValueRounded' AS u_value_rounded,
-					x.last_result->'condensation'->'outcome' AS moisture,
-					x.last_result->'surface'->'pass' AS surface_pass
+					-- the stored result's headline figures, kept as generated columns: no result is read
+					x.result_u_value AS u_value,
+					x.result_u_rounded AS u_value_rounded,
+					x.result_moisture AS moisture,
+					x.result_surface_pass AS surface_pass
 				FROM elements x, d
 				WHERE x.organisation_id = :org AND x.dwelling_id = d.id
 			) e) AS elements,
