@@ -22,7 +22,9 @@ describe('batch filter dates', () => {
 	});
 
 	it('accepts real days, including 29 February of a leap year', () => {
-		expect(batchFilterSchema.safeParse({ issuedFrom: '2028-02-29', issuedTo: '2028-12-31' }).success).toBe(true);
+		expect(batchFilterSchema.safeParse({ issuedFrom: '2028-02-29', issuedTo: '2028-12-31' }).success).toBe(
+			true
+		);
 	});
 
 	it('still refuses an end before the start', () => {
