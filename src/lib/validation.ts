@@ -78,3 +78,22 @@ export const versionSchema = z
 	.int('must be a whole number')
 	.min(1, 'must be ≥ 1')
 	.max(PG_INT_MAX, 'is not a version Envelo gave out');
+
+/**
+ * A list's page (from 1) and page size (1 to `maxSize`), as a query string gives them: the fields every
+ * paged list of the API and the pages takes.
+ */
+export const pageQuery = (defaultSize: number, maxSize: number) => ({
+	page: z.coerce
+		.number({ error: 'must be a whole number' })
+		.int('must be a whole number')
+		.min(1, 'must be 1 or more')
+		.max(PAGE_MAX, `must be at most ${PAGE_MAX}`)
+		.default(1),
+	pageSize: z.coerce
+		.number({ error: 'must be a whole number' })
+		.int('must be a whole number')
+		.min(1, 'must be 1 or more')
+		.max(maxSize, `must be at most ${maxSize}`)
+		.default(defaultSize)
+});

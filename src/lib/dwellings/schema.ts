@@ -21,7 +21,7 @@ import {
 	DYNAMIC_SPECIFIC_HEAT_MIN
 } from '$lib/physics/dynamic';
 import { toElementInput, type ClimateMonthValues, type StoredBuildUp } from '$lib/dwellings/element-input';
-import { ELEMENTS_MAX, PAGE_MAX, versionSchema } from '$lib/validation';
+import { ELEMENTS_MAX, pageQuery, versionSchema } from '$lib/validation';
 import { checkWindowParts } from '$lib/dwellings/window-parts';
 import { surfaceConditionsSchema } from '$lib/physics/surface-films';
 
@@ -126,18 +126,7 @@ export const dwellingListQuerySchema = z.object({
 		.transform((v) => v === '1' || v === 'true'),
 	sort: z.enum(DWELLING_SORTS, { error: `must be one of ${DWELLING_SORTS.join(', ')}` }).default('updated'),
 	dir: z.enum(['asc', 'desc'], { error: 'must be asc or desc' }).default('desc'),
-	page: z.coerce
-		.number({ error: 'must be a number' })
-		.int('must be a whole number')
-		.min(1, 'must be ≥ 1')
-		.max(PAGE_MAX, `must be at most ${PAGE_MAX}`)
-		.default(1),
-	pageSize: z.coerce
-		.number({ error: 'must be a number' })
-		.int('must be a whole number')
-		.min(1, 'must be ≥ 1')
-		.max(100, 'must be ≤ 100')
-		.default(25)
+	...pageQuery(25, 100)
 });
 export type DwellingListQuery = z.output<typeof dwellingListQuerySchema>;
 

@@ -8,7 +8,7 @@ import {
 	MATERIAL_CATEGORY_LABELS,
 	type MaterialCategory
 } from '$lib/library/categories';
-import { fieldIssues, isoDate, PAGE_MAX, type FieldIssue } from '$lib/validation';
+import { fieldIssues, isoDate, pageQuery, type FieldIssue } from '$lib/validation';
 
 /** How a λ value was arrived at (the distinction ISO 10456 draws between declared and design values). */
 export const LAMBDA_KINDS = ['declared', 'design', 'table'] as const;
@@ -320,20 +320,7 @@ export const listQuerySchema = z.object({
 		.enum(MATERIAL_CATEGORIES, { error: `must be one of: ${MATERIAL_CATEGORIES.join(', ')}` })
 		.optional(),
 	status: z.enum(MATERIAL_STATUSES, { error: `must be one of: ${MATERIAL_STATUSES.join(', ')}` }).optional(),
-	page: z.coerce
-		.number({ error: 'must be a whole number' })
-		.int('must be a whole number')
-		.min(1, 'must be 1 or more')
-		.max(PAGE_MAX, `must be at most ${PAGE_MAX}`)
-		.optional()
-		.default(1),
-	pageSize: z.coerce
-		.number({ error: 'must be a whole number' })
-		.int('must be a whole number')
-		.min(1, 'must be 1 or more')
-		.max(200, 'must be at most 200')
-		.optional()
-		.default(50),
+	...pageQuery(50, 200),
 	sort: z
 		.enum(SORTS, { error: `must be one of: ${SORTS.join(', ')}` })
 		.optional()

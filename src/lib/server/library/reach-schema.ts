@@ -1,24 +1,13 @@
 /** The requests of the reach of a library correction, validated with zod (the API and the OpenAPI document). */
 import { z } from 'zod';
-import { PAGE_MAX } from '$lib/validation';
+import { pageQuery } from '$lib/validation';
 
 /** The most elements one move may name. */
 export const MOVE_MAX = 20_000;
 
 /** The reach's query: a page of its dwellings. */
 export const reachQuerySchema = z.object({
-	page: z.coerce
-		.number({ error: 'must be a number' })
-		.int('must be a whole number')
-		.min(1, 'must be ≥ 1')
-		.max(PAGE_MAX, `must be at most ${PAGE_MAX}`)
-		.default(1),
-	pageSize: z.coerce
-		.number({ error: 'must be a number' })
-		.int('must be a whole number')
-		.min(1, 'must be ≥ 1')
-		.max(1000, 'must be ≤ 1000')
-		.default(100)
+	...pageQuery(100, 1000)
 });
 
 const uuid = z.uuid({ error: 'must be an element id' });
