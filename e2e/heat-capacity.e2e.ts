@@ -20,6 +20,8 @@ test('an assessor gives the floor area and sees the heat capacity of the element
 	await page.getByRole('button', { name: 'Create dwelling' }).click();
 	await expect(page.getByRole('heading', { name: reference })).toBeVisible();
 	await expect(page.getByText('floor area 80.5 m²')).toBeVisible();
+	// the copy section's sentences keep their space between them
+	await expect(page.getByText('copies of every element. As the as-built record')).toBeVisible();
 	const id = page.url().split('/').pop()!;
 
 	// a solid wall whose every layer gives ρ and c, and one without, and a window
