@@ -1,5 +1,6 @@
 /** Form schemas (plain strings, as a browser posts them) for the dwelling pages; the server module re-validates. */
 import { z } from 'zod';
+import { versionSchema } from '$lib/validation';
 import { STAGES } from './schema';
 
 export const dwellingFormSchema = z.object({
@@ -50,4 +51,24 @@ export const copyFormSchema = z.object({
 	address: z.string().trim().max(300, 'At most 300 characters.').default(''),
 	/** "as-built" copies a design-stage dwelling as its as-built record */
 	kind: z.enum(['copy', 'as-built']).default('copy')
+});
+
+export type CopyForm = z.infer<typeof copyFormSchema>;
+
+/** Reopening an accepted dwelling (or one awaiting review): the reason, which the service judges, and the version. */
+export const reopenFormSchema = z.object({ reason: z.string().default(''), version: versionSchema });
+export type ReopenForm = z.infer<typeof reopenFormSchema>;
+
+/** The dwelling page's buttons: archive or restore it. */
+export const archiveFormSchema = z.object({ archived: z.enum(['true', 'false']), version: versionSchema });
+
+/** The buttons of an element's row: duplicate it. */
+export const elementButtonSchema = z.object({ elementId: z.uuid('is not an element of this dwelling') });
+
+/** …delete it, checked against the version shown. */
+export const deleteElementFormSchema = elementButtonSchema.extend({ version: versionSchema });
+
+/** …move it a place up or down, checked against the dwelling's version. */
+export const moveElementFormSchema = deleteElementFormSchema.extend({
+	direction: z.enum(['up', 'down'], { message: 'must be up or down' })
 });

@@ -146,7 +146,7 @@ describe.skipIf(!hasDatabase)('element order', async () => {
 		expect(await currentOrder(t.org.id, d.id)).toEqual([ids[1], ids[0], ids[2]]);
 		const top = await move(ids[1], 'up', version + 1);
 		expect(top.status).toBe(400);
-		expect(top.data.actionError).toMatch(/already first/);
+		expect(top.data.error).toMatch(/already first/);
 		const stale = await move(ids[2], 'up', version);
 		expect(stale.status).toBe(409);
 		expect(await currentOrder(t.org.id, d.id)).toEqual([ids[1], ids[0], ids[2]]);

@@ -1,27 +1,24 @@
 import { fail } from '@sveltejs/kit';
-import { superValidate, message, setError } from 'sveltekit-superforms';
-import { zod4 } from 'sveltekit-superforms/adapters';
+import { message } from 'sveltekit-superforms';
+import { formFor, readForm, refuseAction, refuseForm } from '$lib/server/forms';
 import { requireMember, requireRole } from '$lib/server/guard';
 import { changeMemberRole, inviteMember, listMembers, removeMember } from '$lib/server/members';
 import { appUrl } from '$lib/server/config';
 import { sendMail } from '$lib/server/mail';
-import { inviteSchema, removeSchema, roleSchema } from './schema';
-import { ValidationError } from '$lib/server/errors';
+import { inviteSchema, removeSchema, roleSchema } from '$lib/members/forms';
 
 export const load = async (event) => {
 	const member = requireMember(event);
 	return {
 		members: await listMembers(member.organisationId),
-		inviteForm: await superValidate(zod4(inviteSchema), {
-			defaults: { email: '', name: '', role: 'assessor' }
-		})
+		inviteForm: await formFor(inviteSchema, { email: '', name: '', role: 'assessor' })
 	};
 };
 
 export const actions = {
 	invite: async function invite(event) {
 		const member = requireRole(event, 'admin');
-		const form = await superValidate(event.request, zod4(inviteSchema));
+		const form = await readForm(event.request, inviteSchema);
 		if (!form.valid) return fail(400, { inviteForm: form });
 		let outcome: 'invited' | 'elsewhere';
 		try {
@@ -30,8 +27,8 @@ export const actions = {
 				form.data
 			));
 		} catch (e) {
-			if (e instanceof ValidationError) return setError(form, 'email', e.message);
-			throw e;
+			// the service's refusals are of the address (already a member, or of another organisation)
+			return refuseForm(form, e, { field: () => 'email', text: (r) => r.message });
 		}
 		const signInUrl = appUrl('/signin');
 		const inviter = member.user.name ?? member.user.email;
@@ -62,7 +59,7 @@ export const actions = {
 	},
 	role: async function setRole(event) {
 		const member = requireRole(event, 'admin');
-		const form = await superValidate(event.request, zod4(roleSchema));
+		const form = await readForm(event.request, roleSchema);
 		if (!form.valid) return fail(400, { error: 'Choose a member and a role.' });
 		try {
 			await changeMemberRole(
@@ -71,20 +68,18 @@ export const actions = {
 				form.data.role
 			);
 		} catch (e) {
-			if (e instanceof ValidationError) return fail(400, { error: e.message });
-			throw e;
+			return refuseAction(e, (r) => r.message);
 		}
 		return { done: 'Role changed.' };
 	},
 	remove: async function remove(event) {
 		const member = requireRole(event, 'admin');
-		const form = await superValidate(event.request, zod4(removeSchema));
+		const form = await readForm(event.request, removeSchema);
 		if (!form.valid) return fail(400, { error: 'Unknown member.' });
 		try {
 			await removeMember({ userId: member.user.id, organisationId: member.organisationId }, form.data.userId);
 		} catch (e) {
-			if (e instanceof ValidationError) return fail(400, { error: e.message });
-			throw e;
+			return refuseAction(e, (r) => r.message);
 		}
 		return { done: 'Member removed.' };
 	}

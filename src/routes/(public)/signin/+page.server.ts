@@ -1,29 +1,22 @@
 import { fail, redirect } from '@sveltejs/kit';
-import { superValidate } from 'sveltekit-superforms';
-import { zod4 } from 'sveltekit-superforms/adapters';
+import { formFor, readForm } from '$lib/server/forms';
 import { onPublicOrigin, sendLinkLater } from '$lib/server/auth';
 import { localPath } from '$lib/server/config';
 import { isKnownAddress } from '$lib/server/members';
 import { allowSignInAttempt } from '$lib/server/rate-limit';
-import { signInSchema } from './schema';
+import { signInSchema } from '$lib/members/forms';
 
 const safeNext = (next: string | null | undefined) => localPath(next);
 
 export const load = async ({ locals, url }) => {
 	if (locals.user && locals.membership) redirect(303, safeNext(url.searchParams.get('next') ?? undefined));
-	const form = await superValidate(
-		{ email: '', next: url.searchParams.get('next') ?? '' },
-		zod4(signInSchema),
-		{
-			errors: false
-		}
-	);
+	const form = await formFor(signInSchema, { email: '', next: url.searchParams.get('next') ?? '' });
 	return { form };
 };
 
 export const actions = {
 	default: async function requestLink(event) {
-		const form = await superValidate(event.request.clone(), zod4(signInSchema));
+		const form = await readForm(event.request.clone(), signInSchema);
 		if (!form.valid) return fail(400, { form });
 		const email = form.data.email.trim().toLowerCase();
 		const client = event.getClientAddress();

@@ -4,7 +4,8 @@ import { WRITE_ROLES } from '$lib/server/dwellings';
 import { listElementSummaries } from '$lib/server/dwellings/elements';
 import { deleteJunction, listJunctions } from '$lib/server/junctions';
 import { summariseElements } from '$lib/dwellings/summary';
-import { AppError } from '$lib/server/errors';
+import { invalidText, readForm, refuseAction } from '$lib/server/forms';
+import { deleteJunctionFormSchema } from '$lib/junctions/forms';
 import { junctionPageContext } from './_context';
 
 export const load = async (event) => {
@@ -29,12 +30,12 @@ export const actions = {
 	/** Delete one junction, checked against the version shown. */
 	delete: async function remove(event) {
 		const member = requireRole(event, ...WRITE_ROLES);
-		const data = await event.request.formData();
+		const form = await readForm(event.request, deleteJunctionFormSchema);
+		if (!form.valid) return fail(400, { error: invalidText(form) });
 		try {
-			await deleteJunction(member, String(data.get('junctionId') ?? ''), Number(data.get('version')));
+			await deleteJunction(member, form.data.junctionId, form.data.version);
 		} catch (e) {
-			if (e instanceof AppError && e.status < 500) return fail(e.status, { actionError: e.message });
-			throw e;
+			return refuseAction(e, (r) => r.message);
 		}
 		return { done: 'Junction deleted.' };
 	}

@@ -1,8 +1,8 @@
 import { error, fail } from '@sveltejs/kit';
-import { z } from 'zod';
+import { setError } from 'sveltekit-superforms';
 import { requireMember, requireRole } from '$lib/server/guard';
 import { publicOrigin } from '$lib/server/config';
-import { AppError } from '$lib/server/errors';
+import { formFor, invalidText, readForm, refuseAction, refuseForm } from '$lib/server/forms';
 import { getDwelling } from '$lib/server/dwellings';
 import { getElement } from '$lib/server/dwellings/elements';
 import {
@@ -15,7 +15,7 @@ import {
 import { requeueMail, kickOutbox } from '$lib/server/outbox';
 import { readIssueChanges } from '$lib/server/reports/changes';
 import { moistureWord, passWord } from '$lib/server/reports/document';
-import { emailSchema } from '$lib/reports/schema';
+import { emailFormSchema, emailSchema, issueFormSchema, retryFormSchema } from '$lib/reports/schema';
 import { ISSUE_ROLES } from '$lib/reports/rules';
 import { clientSummary } from '$lib/reports/client-summary';
 import { issueRefusal } from '$lib/dwellings/rules';
@@ -27,12 +27,8 @@ async function dwellingOf(organisationId: string, dwellingId: string) {
 	return d;
 }
 
-/** A refusal of the reports service as the page's answer (404 as the error page). */
-function refused(e: unknown) {
-	if (!(e instanceof AppError)) throw e;
-	if (e.status === 404) error(404, e.message);
-	return fail(e.status, { issueError: e.message, issues: e.issues.map((i) => i.message) });
-}
+/** A refusal to issue, as the page's answer: why, and each problem on its own line (404 as the error page). */
+const refused = (e: unknown) => refuseAction(e, (r) => r.message);
 
 export const load = async (event) => {
 	const member = requireMember(event);
@@ -93,27 +89,20 @@ export const load = async (event) => {
 		changes,
 		mail,
 		// Only the dwelling's assessor issues (the declaration is theirs): others see why instead of a button.
+		// one e-mail form a report, each under its own id (`report-email-form.svelte`)
+		emailForm: await formFor(emailFormSchema, { reportId: '', to: d.clientEmail ?? '', message: '' }),
 		canIssue: issueRefusal({ userId: member.user.id, role: member.role }, d.assessorId) === null,
 		issueRefusal: issueRefusal({ userId: member.user.id, role: member.role }, d.assessorId)
 	};
 };
 
-const issueForm = z.object({
-	elementId: z.union([z.uuid(), z.literal('')]).optional(),
-	/** "yes" once the person has confirmed; without it the action only asks for the confirmation. */
-	confirmed: z.literal('yes').optional()
-});
-const emailForm = emailSchema.extend({ reportId: z.uuid({ error: 'Choose a report.' }) });
-const retryForm = z.object({ mailId: z.uuid() });
-
 export const actions = {
 	issue: async function issue(event) {
 		const member = requireRole(event, ...ISSUE_ROLES);
-		const parsed = issueForm.safeParse(Object.fromEntries(await event.request.formData()));
-		if (!parsed.success)
-			return fail(400, { issueError: 'Choose the dwelling or one of its elements.', issues: [] as string[] });
-		const elementId = parsed.data.elementId || null;
-		if (!parsed.data.confirmed) {
+		const form = await readForm(event.request, issueFormSchema);
+		if (!form.valid) return fail(400, { error: 'Choose the dwelling or one of its elements.', issues: [] });
+		const elementId = form.data.elementId || null;
+		if (!form.data.confirmed) {
 			// Issuing cannot be undone: without JavaScript the page asks first, as a second step.
 			const element = elementId ? await getElement(member.organisationId, elementId) : null;
 			const label = elementId
@@ -137,40 +126,34 @@ export const actions = {
 	},
 	email: async function email(event) {
 		const member = requireRole(event, ...ISSUE_ROLES);
-		const raw = Object.fromEntries(await event.request.formData());
-		const parsed = emailForm.safeParse({
-			reportId: raw.reportId,
-			to: raw.to,
-			message: typeof raw.message === 'string' && raw.message.trim() ? raw.message : undefined
-		});
+		const form = await readForm(event.request, emailFormSchema);
+		if (!form.valid) return fail(400, { form });
+		const { reportId, to, message } = form.data;
+		const parsed = emailSchema.safeParse({ to, message: message.trim() ? message : undefined });
 		if (!parsed.success) {
-			const fields: Record<string, string> = {};
-			for (const i of parsed.error.issues) fields[String(i.path[0] ?? 'to')] ??= i.message;
-			return fail(400, {
-				emailReportId: String(raw.reportId ?? ''),
-				emailErrors: fields,
-				to: String(raw.to ?? '')
-			});
+			for (const i of parsed.error.issues)
+				setError(form, i.path[0] === 'message' ? 'message' : 'to', i.message);
+			return fail(400, { form });
 		}
 		try {
 			await checkReportMailLimit(member.user.id);
 			const m = await emailReport(
 				{ userId: member.user.id, organisationId: member.organisationId },
-				parsed.data.reportId,
-				{ to: parsed.data.to, message: parsed.data.message },
+				reportId,
+				parsed.data,
 				{ dwellingId: event.params.dwellingId }
 			);
-			return { done: `E-mail to ${m.to} queued; it is sent in a few seconds.` };
+			return { form, done: `E-mail to ${m.to} queued; it is sent in a few seconds.` };
 		} catch (e) {
-			return refused(e);
+			return refuseForm(form, e);
 		}
 	},
 	retry: async function retry(event) {
 		const member = requireRole(event, ...ISSUE_ROLES);
-		const parsed = retryForm.safeParse(Object.fromEntries(await event.request.formData()));
-		if (!parsed.success) return fail(400, { issueError: 'Choose a message.', issues: [] as string[] });
+		const form = await readForm(event.request, retryFormSchema);
+		if (!form.valid) return fail(400, { error: invalidText(form) });
 		if (
-			!(await requeueMail(member.organisationId, parsed.data.mailId, { dwellingId: event.params.dwellingId }))
+			!(await requeueMail(member.organisationId, form.data.mailId, { dwellingId: event.params.dwellingId }))
 		)
 			error(404, 'No such message.');
 		kickOutbox();

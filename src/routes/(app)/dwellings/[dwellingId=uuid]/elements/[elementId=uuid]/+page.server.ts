@@ -1,11 +1,12 @@
-import { error, fail } from '@sveltejs/kit';
-import { requireMember, requireRole } from '$lib/server/guard';
+import { error } from '@sveltejs/kit';
+import { requireMember } from '$lib/server/guard';
 import { getElementContext } from '$lib/server/dwellings/elements';
-import { listEditorClimates, reopenDwelling, WRITE_ROLES } from '$lib/server/dwellings';
+import { listEditorClimates } from '$lib/server/dwellings';
+import { reopenAction } from '$lib/server/dwellings/reopen-action';
 import { changeRefusal } from '$lib/dwellings/rules';
-import { AppError } from '$lib/server/errors';
+import { formFor } from '$lib/server/forms';
+import { reopenFormSchema } from '$lib/dwellings/forms';
 import { evidencePanel } from '$lib/server/evidence';
-import { reopenRefusalText } from '$lib/dwellings/rules';
 
 export const load = async (event) => {
 	const member = requireMember(event);
@@ -13,14 +14,16 @@ export const load = async (event) => {
 	if (!ctx || ctx.element.dwellingId !== event.params.dwellingId) error(404, 'No such element.');
 	const writer = member.role !== 'supervisor';
 	const needsReopening = changeRefusal(ctx.dwelling.status, ctx.dwelling.reopened)?.needsReason === true;
-	const [climates, evidence] = await Promise.all([
+	const [climates, evidence, reopenForm] = await Promise.all([
 		listEditorClimates(member.organisationId),
-		evidencePanel(member, ctx.dwelling.id)
+		evidencePanel(member, ctx.dwelling.id),
+		formFor(reopenFormSchema, { reason: '', version: ctx.dwelling.version }, 'reopen')
 	]);
 	return {
 		...ctx,
 		climates,
 		evidence,
+		reopenForm,
 		writer,
 		needsReopening,
 		canEdit: writer && !needsReopening
@@ -29,19 +32,5 @@ export const load = async (event) => {
 
 export const actions = {
 	/** Reopen the element's dwelling (accepted, or awaiting review) for changes, with a reason. */
-	reopen: async function reopen(event) {
-		const member = requireRole(event, ...WRITE_ROLES);
-		const data = await event.request.formData();
-		try {
-			await reopenDwelling(member, event.params.dwellingId, {
-				reason: String(data.get('reason') ?? ''),
-				version: Number(data.get('version'))
-			});
-		} catch (e) {
-			if (e instanceof AppError && e.status < 500)
-				return fail(e.status, { reopenError: reopenRefusalText(e.message, e.issues) });
-			throw e;
-		}
-		return { reopened: true };
-	}
+	reopen: (event) => reopenAction(event, { reopened: true })
 };
