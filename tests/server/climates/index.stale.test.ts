@@ -141,12 +141,12 @@ describe.skipIf(!hasDatabase)('climates: stale saves', async () => {
 				request: new Request(`http://127.0.0.1${path}?/update`, { method: 'POST', body: fd })
 			} as any) as Promise<any>;
 		};
-		expect(await submit(c.name, 'Saved first', 3)).toEqual({ action: 'update', done: 'Climate saved.' });
+		expect((await submit(c.name, 'Saved first', 3)).form.message).toBe('Climate saved.');
 		const second = await submit('Typed second', 'Typed second', 7);
 		expect(second.status).toBe(409);
-		expect(second.data.stale).toBe(STALE_MESSAGE);
-		expect(second.data.values).toMatchObject({ name: 'Typed second', source: 'Typed second' });
-		expect(second.data.values.temperature[0]).toBe('7');
+		expect(second.data.form.errors._errors).toEqual([STALE_MESSAGE]);
+		expect(second.data.form.data).toMatchObject({ name: 'Typed second', source: 'Typed second' });
+		expect(second.data.form.data.temperature[0]).toBe('7');
 		const stored = await climates.getClimate(t.org.id, c.id);
 		expect(stored).toMatchObject({ name: c.name, source: 'Saved first', version: 2 });
 		expect(stored?.months[0].temperature).toBe(3);
@@ -160,7 +160,7 @@ describe.skipIf(!hasDatabase)('climates: stale saves', async () => {
 			request: new Request(`http://127.0.0.1${path}?/delete`, { method: 'POST', body: fd })
 		} as any);
 		expect(del.status).toBe(409);
-		expect(del.data.refused).toBe(STALE_MESSAGE);
+		expect(del.data.error).toBe(STALE_MESSAGE);
 		expect(await climates.getClimate(t.org.id, c.id)).not.toBeNull();
 	});
 

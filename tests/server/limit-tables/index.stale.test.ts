@@ -1,5 +1,6 @@
 import { describe, it, expect, afterAll } from 'vitest';
 import { hasDatabase, makeTeam, tdb, fakeEvent, asMember, callHandler as call } from '../../factories';
+import { LIMIT_KINDS } from '../../../src/lib/limit-tables/schema';
 
 // Two people editing the same limit table: the later save from the same loaded version is refused (409
 // with the version now stored) and the earlier one's values stay. Envelo's own rule, the same as for
@@ -111,7 +112,7 @@ describe.skipIf(!hasDatabase)('limit tables: stale saves', async () => {
 			const fd = new FormData();
 			fd.set('name', 'Scheme');
 			fd.set('edition', edition);
-			fd.set('limit.external-wall', wall);
+			for (const kind of LIMIT_KINDS) fd.append('limit', kind === 'external-wall' ? wall : '');
 			fd.set('version', String(version));
 			return page.actions.update({
 				...fakeEvent(t.admin, path),
@@ -119,11 +120,12 @@ describe.skipIf(!hasDatabase)('limit tables: stale saves', async () => {
 				request: new Request(`http://127.0.0.1${path}?/update`, { method: 'POST', body: fd })
 			} as any) as Promise<any>;
 		};
-		expect(await submit('First', '0.26')).toEqual({ done: 'Limit table saved.' });
+		expect((await submit('First', '0.26')).form.message).toBe('Limit table saved.');
 		const second = await submit('Second', '0,22');
 		expect(second.status).toBe(409);
-		expect(second.data.stale).toBe(STALE_MESSAGE);
-		expect(second.data.values).toMatchObject({ edition: 'Second', limits: { 'external-wall': '0,22' } });
+		expect(second.data.form.errors._errors).toEqual([STALE_MESSAGE]);
+		expect(second.data.form.data.edition).toBe('Second');
+		expect(second.data.form.data.limit[LIMIT_KINDS.indexOf('external-wall')]).toBe('0,22');
 		expect(await lt.getLimitTable(t.org.id, table.id)).toMatchObject({
 			edition: 'First',
 			limits: { 'external-wall': 0.26 },

@@ -9,6 +9,7 @@ import {
 	callHandler as call
 } from '../../factories';
 import type { Role } from '../../../src/lib/members/roles';
+import { LIMIT_KINDS } from '../../../src/lib/limit-tables/schema';
 
 // Limit tables: Envelo's own rules for defaults, validation and access (common practice, no source).
 
@@ -246,7 +247,7 @@ describe.skipIf(!hasDatabase)('limit tables', async () => {
 			const fd = new FormData();
 			fd.set('name', 'A');
 			fd.set('edition', '1');
-			fd.set('limit.window', '1.4');
+			for (const kind of LIMIT_KINDS) fd.append('limit', kind === 'window' ? '1.4' : '');
 			fd.set('version', String(a.version));
 			if (confirm) fd.set('confirm', 'on');
 			const path = `/organisation/limit-tables/${a.id}`;
@@ -258,16 +259,16 @@ describe.skipIf(!hasDatabase)('limit tables', async () => {
 		};
 		const unconfirmed: any = await submit(false);
 		expect(unconfirmed.status).toBe(409);
-		expect(unconfirmed.data.errors.confirm).toBe(
+		expect(unconfirmed.data.limitTableForm.errors.confirm).toEqual([
 			'Not saved: tick the box to confirm the new limits for 2 dwellings.'
-		);
+		]);
 		expect(unconfirmed.data.changes.map((c: { kind: string }) => c.kind)).toEqual([
 			'external-wall',
 			'flat-roof',
 			'window'
 		]);
 		expect((await lt.getLimitTable(t.org.id, a.id))?.limits).toEqual(LIMITS);
-		expect(await submit(true)).toEqual({ done: 'Limit table saved.' });
+		expect(((await submit(true)) as any).form.message).toBe('Limit table saved.');
 		expect((await lt.getLimitTable(t.org.id, a.id))?.limits).toEqual({ window: 1.4 });
 	});
 

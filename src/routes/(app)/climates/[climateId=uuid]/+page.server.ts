@@ -1,12 +1,20 @@
 import { error, fail, redirect } from '@sveltejs/kit';
+import { message, setError } from 'sveltekit-superforms';
 import { requireMember, requireRole } from '$lib/server/guard';
 import { deleteClimate, getClimate, getClimateUsage, updateClimate } from '$lib/server/climates';
+import { formFor, invalidText, readForm, refuseAction, refuseForm } from '$lib/server/forms';
+import { ConflictError, ValidationError } from '$lib/server/errors';
 import { climateUpdateSchema } from '$lib/climates/schema';
-import { climateFormValues, climateUpdateFromForm } from '$lib/climates/form';
-import { formErrors } from '$lib/validation';
-import { ConflictError } from '$lib/server/errors';
-import { nameTaken } from '../../_name-taken';
+import {
+	climateDeleteFormSchema,
+	climateEditFormSchema,
+	climateFieldOf,
+	climateFormOf,
+	climateUpdateFromForm
+} from '$lib/climates/forms';
+import { fieldIssues } from '$lib/validation';
 
+const NOT_FOUND = 'No such climate in your organisation.';
 /** The edit form always carries the version it was loaded with; without it the save cannot be checked. */
 const NO_VERSION =
 	'The form did not say which version of the climate it was opened on; reload the page and try again.';
@@ -14,56 +22,51 @@ const NO_VERSION =
 export const load = async (event) => {
 	const member = requireMember(event);
 	const climate = await getClimate(member.organisationId, event.params.climateId);
-	if (!climate) error(404, 'No such climate in your organisation.');
+	if (!climate) error(404, NOT_FOUND);
 	return {
 		climate,
 		usage: await getClimateUsage(member.organisationId, climate.id),
-		created: event.url.searchParams.has('created')
+		created: event.url.searchParams.has('created'),
+		climateForm: await formFor(climateEditFormSchema, climateFormOf(climate))
 	};
 };
 
 export const actions = {
 	update: async function update(event) {
 		const member = requireRole(event, 'admin');
-		const fd = await event.request.formData();
-		const values = climateFormValues(fd);
-		const input = climateUpdateSchema.safeParse(climateUpdateFromForm(fd));
+		const form = await readForm(event.request, climateEditFormSchema);
+		if (!form.valid) {
+			if (form.errors.version) setError(form, NO_VERSION);
+			return fail(400, { climateForm: form });
+		}
+		const input = climateUpdateSchema.safeParse(climateUpdateFromForm(form.data));
 		if (!input.success) {
-			const errors = formErrors(input.error);
-			return fail(400, {
-				action: 'update' as const,
-				values,
-				errors,
-				refused: errors.version ? NO_VERSION : undefined
-			});
+			return refuseForm(form, new ValidationError(fieldIssues(input.error)), { field: climateFieldOf });
 		}
+		let saved: Awaited<ReturnType<typeof updateClimate>>;
 		try {
-			const climate = await updateClimate(member, event.params.climateId, input.data);
-			if (!climate) error(404, 'No such climate in your organisation.');
+			saved = await updateClimate(member, event.params.climateId, input.data);
 		} catch (e) {
-			// Saved by someone else since this page was loaded: say so, and keep what was typed in the form.
-			if (e instanceof ConflictError && e.current !== undefined) {
-				return fail(409, {
-					action: 'update' as const,
-					values,
-					errors: {} as Record<string, string>,
-					stale: e.message
-				});
+			// A name already taken is told beside the name; a save made by someone else since this page was
+			// loaded is the form's message; either way the form keeps what was typed.
+			if (e instanceof ConflictError && e.current === undefined) {
+				return setError(form, 'name', e.message, { status: 409 });
 			}
-			return nameTaken(e, { action: 'update' as const, values });
+			return refuseForm(form, e, { field: climateFieldOf });
 		}
-		return { action: 'update' as const, done: 'Climate saved.' };
+		if (!saved) error(404, NOT_FOUND);
+		// The form goes on from what is stored now (and its new version).
+		form.data = climateFormOf(saved);
+		return message(form, 'Climate saved.');
 	},
 	delete: async function remove(event) {
 		const member = requireRole(event, 'admin');
-		const version = Number((await event.request.formData()).get('version'));
+		const form = await readForm(event.request, climateDeleteFormSchema);
+		if (!form.valid) return fail(400, { error: invalidText(form) });
 		try {
-			if (!(await deleteClimate(member, event.params.climateId, version))) {
-				error(404, 'No such climate in your organisation.');
-			}
+			if (!(await deleteClimate(member, event.params.climateId, form.data.version))) error(404, NOT_FOUND);
 		} catch (e) {
-			if (e instanceof ConflictError) return fail(409, { action: 'delete' as const, refused: e.message });
-			throw e;
+			return refuseAction(e);
 		}
 		redirect(303, '/climates');
 	}

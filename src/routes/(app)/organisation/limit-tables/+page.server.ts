@@ -1,28 +1,43 @@
-import { fail, redirect } from '@sveltejs/kit';
+import { redirect } from '@sveltejs/kit';
+import { fail, setError } from 'sveltekit-superforms';
 import { requireMember, requireRole } from '$lib/server/guard';
 import { createLimitTable, listLimitTables } from '$lib/server/limit-tables';
+import { formFor, readForm, refuseForm } from '$lib/server/forms';
+import { ConflictError, ValidationError } from '$lib/server/errors';
 import { limitTableInputSchema } from '$lib/limit-tables/schema';
-import { formErrors } from '$lib/validation';
-import { limitTableFormValues, limitTableFromForm } from '$lib/limit-tables/form';
-import { nameTaken } from '../../_name-taken';
+import {
+	blankLimitTableForm,
+	limitTableFieldOf,
+	limitTableFormSchema,
+	limitTableInputFromForm
+} from '$lib/limit-tables/forms';
+import { fieldIssues } from '$lib/validation';
 
 export const load = async (event) => {
 	const member = requireMember(event);
-	return { tables: await listLimitTables(member.organisationId) };
+	const [tables, limitTableForm] = await Promise.all([
+		listLimitTables(member.organisationId),
+		formFor(limitTableFormSchema, blankLimitTableForm())
+	]);
+	return { tables, limitTableForm };
 };
 
 export const actions = {
 	create: async function create(event) {
 		const member = requireRole(event, 'admin');
-		const fd = await event.request.formData();
-		const values = limitTableFormValues(fd);
-		const input = limitTableInputSchema.safeParse(limitTableFromForm(fd));
-		if (!input.success) return fail(400, { values, errors: formErrors(input.error) });
+		const form = await readForm(event.request, limitTableFormSchema);
+		if (!form.valid) return fail(400, { limitTableForm: form });
+		const input = limitTableInputSchema.safeParse(limitTableInputFromForm(form.data));
+		if (!input.success) {
+			return refuseForm(form, new ValidationError(fieldIssues(input.error)), { field: limitTableFieldOf });
+		}
 		let id: string;
 		try {
 			id = (await createLimitTable(member, input.data)).id;
 		} catch (e) {
-			return nameTaken(e, { values });
+			// the name and edition are taken: told beside the name, with what was typed kept
+			if (e instanceof ConflictError) return setError(form, 'name', e.message, { status: 409 });
+			return refuseForm(form, e, { field: limitTableFieldOf });
 		}
 		redirect(303, `/organisation/limit-tables/${id}?created=1`);
 	}

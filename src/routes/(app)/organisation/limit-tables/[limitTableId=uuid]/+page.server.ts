@@ -1,4 +1,5 @@
 import { error, fail, redirect } from '@sveltejs/kit';
+import { message, setError } from 'sveltekit-superforms';
 import { requireMember, requireRole } from '$lib/server/guard';
 import {
 	LimitChangeNeedsConfirm,
@@ -10,11 +11,18 @@ import {
 	setDefaultLimitTable,
 	updateLimitTable
 } from '$lib/server/limit-tables';
+import { formFor, invalidText, readForm, refuseAction, refuseForm } from '$lib/server/forms';
+import { ConflictError, ValidationError } from '$lib/server/errors';
 import { limitTableUpdateSchema } from '$lib/limit-tables/schema';
-import { formErrors } from '$lib/validation';
-import { limitTableFormValues, limitTableUpdateFromForm } from '$lib/limit-tables/form';
-import { ConflictError } from '$lib/server/errors';
-import { nameTaken } from '../../../_name-taken';
+import {
+	limitTableDeleteFormSchema,
+	limitTableEditFormSchema,
+	limitTableFieldOf,
+	limitTableFormOf,
+	limitTableUpdateFromForm,
+	makeDefaultFormSchema
+} from '$lib/limit-tables/forms';
+import { fieldIssues } from '$lib/validation';
 
 const NOT_FOUND = 'No such limit table in your organisation.';
 /** The edit form always carries the version it was loaded with; without it the save cannot be checked. */
@@ -25,15 +33,17 @@ export const load = async (event) => {
 	const member = requireMember(event);
 	const table = await getLimitTable(member.organisationId, event.params.limitTableId);
 	if (!table) error(404, NOT_FOUND);
-	const [dwellings, usage] = await Promise.all([
+	const [dwellings, usage, limitTableForm] = await Promise.all([
 		listDwellingsNamingLimitTable(member.organisationId, table.id),
-		limitTableUsage(member.organisationId, table.id)
+		limitTableUsage(member.organisationId, table.id),
+		formFor(limitTableEditFormSchema, limitTableFormOf(table))
 	]);
 	const inUse = usage !== null && (usage.dwellings > 0 || usage.isDefault);
 	return {
 		table,
 		dwellings,
 		usage,
+		limitTableForm,
 		// shown beside the edit form; saving new limits then needs the confirmation box ticked
 		changeWarning: inUse && usage ? limitChangeWarning(usage) : null,
 		created: event.url.searchParams.has('created')
@@ -43,48 +53,59 @@ export const load = async (event) => {
 export const actions = {
 	update: async function update(event) {
 		const member = requireRole(event, 'admin');
-		const fd = await event.request.formData();
-		const values = limitTableFormValues(fd);
-		const input = limitTableUpdateSchema.safeParse(limitTableUpdateFromForm(fd));
+		const form = await readForm(event.request, limitTableEditFormSchema);
+		if (!form.valid) {
+			if (form.errors.version) setError(form, NO_VERSION);
+			return fail(400, { limitTableForm: form });
+		}
+		const input = limitTableUpdateSchema.safeParse(limitTableUpdateFromForm(form.data));
 		if (!input.success) {
-			const errors = formErrors(input.error);
-			return fail(400, { values, errors, refused: errors.version ? NO_VERSION : undefined });
+			return refuseForm(form, new ValidationError(fieldIssues(input.error)), { field: limitTableFieldOf });
 		}
+		let saved: Awaited<ReturnType<typeof updateLimitTable>>;
 		try {
-			const confirm = fd.get('confirm') === 'on';
-			if (!(await updateLimitTable(member, event.params.limitTableId, input.data, { confirm })))
-				error(404, NOT_FOUND);
+			saved = await updateLimitTable(member, event.params.limitTableId, input.data, {
+				confirm: form.data.confirm
+			});
 		} catch (e) {
+			// New limits on a table in use: the changes are listed and the box asks to be ticked.
 			if (e instanceof LimitChangeNeedsConfirm) {
-				return fail(409, {
-					values,
-					changes: e.changes,
-					errors: {
-						confirm: `Not saved: tick the box to confirm the new limits for ${e.usage.dwellings} dwelling${e.usage.dwellings === 1 ? '' : 's'}.`
-					} as Record<string, string>
-				});
+				const n = e.usage.dwellings;
+				setError(
+					form,
+					'confirm',
+					`Not saved: tick the box to confirm the new limits for ${n} dwelling${n === 1 ? '' : 's'}.`
+				);
+				return fail(409, { limitTableForm: form, changes: e.changes });
 			}
-			// Saved by someone else since this page was loaded: say so, and keep what was typed in the form.
-			if (e instanceof ConflictError && e.current !== undefined) {
-				return fail(409, { values, errors: {} as Record<string, string>, stale: e.message });
+			// A name already taken is told beside the name; a save made by someone else since this page was
+			// loaded is the form's message; either way the form keeps what was typed.
+			if (e instanceof ConflictError && e.current === undefined) {
+				return setError(form, 'name', e.message, { status: 409 });
 			}
-			return nameTaken(e, { values });
+			return refuseForm(form, e, { field: limitTableFieldOf });
 		}
-		return { done: 'Limit table saved.' };
+		if (!saved) error(404, NOT_FOUND);
+		// The form goes on from what is stored now (and its new version).
+		form.data = limitTableFormOf(saved);
+		return message(form, 'Limit table saved.');
 	},
 	makeDefault: async function makeDefault(event) {
 		const member = requireRole(event, 'admin');
+		const form = await readForm(event.request, makeDefaultFormSchema);
+		if (!form.valid) return fail(400, { error: invalidText(form) });
 		if (!(await setDefaultLimitTable(member, event.params.limitTableId))) error(404, NOT_FOUND);
 		return { done: "This is now the organisation's default limit table." };
 	},
 	delete: async function remove(event) {
 		const member = requireRole(event, 'admin');
-		const version = Number((await event.request.formData()).get('version'));
+		const form = await readForm(event.request, limitTableDeleteFormSchema);
+		if (!form.valid) return fail(400, { error: invalidText(form) });
 		try {
-			if (!(await deleteLimitTable(member, event.params.limitTableId, version))) error(404, NOT_FOUND);
+			if (!(await deleteLimitTable(member, event.params.limitTableId, form.data.version)))
+				error(404, NOT_FOUND);
 		} catch (e) {
-			if (e instanceof ConflictError) return fail(409, { refused: e.message });
-			throw e;
+			return refuseAction(e);
 		}
 		redirect(303, '/organisation/limit-tables');
 	}
