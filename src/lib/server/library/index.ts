@@ -18,7 +18,6 @@ import {
 	materialValuesSchema,
 	asMaterialIssue,
 	materialIssues,
-	NUMBER_FIELDS,
 	REVISION_FIELDS,
 	type ListQuery,
 	type MaterialRevision,
@@ -27,7 +26,6 @@ import {
 	type MaterialValuesInput,
 	type FieldChange
 } from '$lib/library/schema';
-import { parseNumber } from '$lib/server/csv/read';
 import { plausibilityWarnings, type Warning } from '$lib/library/ranges';
 import {
 	applyRevisionUpdate,

@@ -11,7 +11,9 @@ import {
 	type Reach
 } from '$lib/server/library/reach';
 import { MOVE_ROLES } from '$lib/server/library/reach-move';
-import { AppError } from '$lib/server/errors';
+import { refusalOf } from '$lib/server/errors';
+import { invalidText, readForm, refuseAction } from '$lib/server/forms';
+import { materialStatusFormSchema, moveFormSchema } from '$lib/library/forms';
 
 /** Dwellings of the reach shown per page. */
 const REACH_PAGE_SIZE = 25;
@@ -55,18 +57,17 @@ export const load = async (event) => {
 
 async function act(event: RequestEvent<{ materialId: string }>, action: 'verify' | 'supersede') {
 	const member = requireRole(event, 'supervisor', 'admin');
-	const fd = await event.request.formData();
-	const expected = fd.get('revisionId');
+	const form = await readForm(event.request, materialStatusFormSchema);
+	if (!form.valid) return fail(400, { error: invalidText(form) });
 	try {
 		await setMaterialStatus(
 			{ userId: member.user.id, organisationId: member.organisationId },
 			event.params.materialId,
 			action,
-			typeof expected === 'string' && expected ? expected : undefined
+			form.data.revisionId
 		);
 	} catch (e) {
-		if (e instanceof AppError) return fail(e.status, { error: e.message });
-		throw e;
+		return refuseAction(e, (refusal) => refusal.message);
 	}
 	return {
 		done:
@@ -82,9 +83,10 @@ async function act(event: RequestEvent<{ materialId: string }>, action: 'verify'
  */
 async function move(event: RequestEvent<{ materialId: string }>) {
 	const member = requireRole(event, ...MOVE_ROLES);
-	const fd = await event.request.formData();
-	let elementIds = fd.getAll('elementId').filter((v): v is string => typeof v === 'string');
-	if (fd.get('scope') === 'all') {
+	const form = await readForm(event.request, moveFormSchema);
+	if (!form.valid) return fail(400, { moveError: invalidText(form) });
+	let elementIds = form.data.elementId;
+	if (form.data.scope === 'all') {
 		const reach = await getReach(member.organisationId, event.params.materialId);
 		elementIds = reach ? reachElementIds(reach) : [];
 	}
@@ -94,12 +96,14 @@ async function move(event: RequestEvent<{ materialId: string }>) {
 	try {
 		const out = await startMove(member, event.params.materialId, {
 			elementIds,
-			toRevisionId: fd.get('toRevisionId')
+			toRevisionId: form.data.toRevisionId
 		});
 		return { moved: out };
 	} catch (e) {
-		if (e instanceof AppError) return fail(e.status, { moveError: e.message });
-		throw e;
+		// shown beside the reach, where the move was asked for
+		const refusal = refusalOf(e);
+		if (!refusal) throw e;
+		return fail(refusal.status, { moveError: refusal.message });
 	}
 }
 

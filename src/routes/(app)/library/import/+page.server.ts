@@ -1,4 +1,7 @@
+import { fail } from '@sveltejs/kit';
 import { requireRole } from '$lib/server/guard';
+import { invalidText, readForm } from '$lib/server/forms';
+import { reachCodes, reachCodesFormSchema } from '$lib/library/forms';
 import { DEFAULT_MAX_BYTES } from '$lib/server/csv/read';
 import { CSV_COLUMNS, IMPORT_FIELDS } from '$lib/server/library/import';
 import { reachOfCodes } from '$lib/server/library/reach';
@@ -15,10 +18,8 @@ export const actions = {
 	 */
 	reach: async function reach(event) {
 		const member = requireRole(event, 'assessor', 'admin');
-		const fd = await event.request.formData();
-		const codes = fd
-			.getAll('code')
-			.filter((c): c is string => typeof c === 'string' && c.length > 0 && c.length <= 200);
-		return { reach: await reachOfCodes(member.organisationId, codes) };
+		const form = await readForm(event.request, reachCodesFormSchema);
+		if (!form.valid) return fail(400, { error: invalidText(form) });
+		return { reach: await reachOfCodes(member.organisationId, reachCodes(form.data.code)) };
 	}
 };

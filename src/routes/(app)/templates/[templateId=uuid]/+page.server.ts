@@ -1,4 +1,5 @@
 import { error, fail, redirect } from '@sveltejs/kit';
+import { message, setError } from 'sveltekit-superforms';
 import { requireMember, requireRole } from '$lib/server/guard';
 import {
 	canEditTemplate,
@@ -7,12 +8,17 @@ import {
 	getTemplate,
 	updateTemplate
 } from '$lib/server/templates';
-import { templatePatchSchema } from '$lib/templates/schema';
-import { formErrors } from '$lib/validation';
-import { formNumber } from '$lib/forms';
-import { ConflictError, ForbiddenError } from '$lib/server/errors';
+import {
+	templateCopyFormSchema,
+	templateDeleteFormSchema,
+	templateFieldOf,
+	templateFormSchema,
+	templateFormValues,
+	templatePatchFromForm
+} from '$lib/templates/forms';
+import { formFor, invalidText, readForm, refuseAction, refuseForm } from '$lib/server/forms';
+import { ConflictError } from '$lib/server/errors';
 import { templateU } from '../_u-value';
-import { nameTaken } from '../../_name-taken';
 
 const NOT_FOUND = 'No such template in your organisation.';
 /** The edit form always carries the version it was loaded with; without it the save cannot be checked. */
@@ -25,6 +31,7 @@ export const load = async (event) => {
 	if (!template) error(404, NOT_FOUND);
 	return {
 		template,
+		templateForm: await formFor(templateFormSchema, templateFormValues(template)),
 		u: templateU(template.kind, template.buildUp),
 		canEdit: canEditTemplate(member, template),
 		canCopy: member.role !== 'supervisor'
@@ -34,31 +41,30 @@ export const load = async (event) => {
 export const actions = {
 	update: async function update(event) {
 		const member = requireRole(event, 'assessor', 'admin');
-		const fd = await event.request.formData();
-		const values = {
-			name: String(fd.get('name') ?? ''),
-			kind: String(fd.get('kind') ?? ''),
-			description: String(fd.get('description') ?? '')
-		};
-		const input = templatePatchSchema.safeParse({ ...values, version: formNumber(fd.get('version')) });
-		if (!input.success) {
-			const errors = formErrors(input.error);
-			return fail(400, { values, errors, refused: errors.version ? NO_VERSION : undefined });
+		const form = await readForm(event.request, templateFormSchema);
+		if (!form.valid) {
+			if (form.errors.version) setError(form, '', NO_VERSION);
+			return fail(400, { form });
 		}
 		try {
-			if (!(await updateTemplate(member, event.params.templateId, input.data))) error(404, NOT_FOUND);
+			const saved = await updateTemplate(member, event.params.templateId, templatePatchFromForm(form.data));
+			if (!saved) error(404, NOT_FOUND);
+			form.data.version = saved.version;
 		} catch (e) {
-			if (e instanceof ForbiddenError) return fail(403, { refused: e.message });
-			// Saved by someone else since this page was loaded: say so, and keep what was typed in the form.
-			if (e instanceof ConflictError && e.current !== undefined) {
-				return fail(409, { values, errors: {} as Record<string, string>, stale: e.message });
+			if (e instanceof ConflictError) {
+				// Saved by someone else since this page was loaded: say so, and keep what was typed in the form.
+				if (e.current !== undefined) return fail(409, { form, stale: e.message });
+				// the name is taken in the organisation
+				return setError(form, 'name', e.message, { status: 409 });
 			}
-			return nameTaken(e, { values });
+			return refuseForm(form, e, { field: templateFieldOf });
 		}
-		return { done: 'Template saved.' };
+		return message(form, 'Template saved.');
 	},
 	copy: async function copy(event) {
 		const member = requireRole(event, 'assessor', 'admin');
+		const form = await readForm(event.request, templateCopyFormSchema);
+		if (!form.valid) return fail(400, { error: invalidText(form) });
 		const t = await getTemplate(member.organisationId, event.params.templateId);
 		if (!t) error(404, NOT_FOUND);
 		let id: string | null = null;
@@ -72,18 +78,17 @@ export const actions = {
 				if (!(e instanceof ConflictError)) throw e;
 			}
 		}
-		if (!id) return fail(409, { refused: 'Too many copies of this template already; rename some first.' });
+		if (!id) return fail(409, { error: 'Too many copies of this template already; rename some first.' });
 		redirect(303, `/templates/${id}`);
 	},
 	delete: async function remove(event) {
 		const member = requireRole(event, 'assessor', 'admin');
-		const version = Number((await event.request.formData()).get('version'));
+		const form = await readForm(event.request, templateDeleteFormSchema);
+		if (!form.valid) return fail(400, { error: invalidText(form) });
 		try {
-			if (!(await deleteTemplate(member, event.params.templateId, version))) error(404, NOT_FOUND);
+			if (!(await deleteTemplate(member, event.params.templateId, form.data.version))) error(404, NOT_FOUND);
 		} catch (e) {
-			if (e instanceof ForbiddenError) return fail(403, { refused: e.message });
-			if (e instanceof ConflictError) return fail(409, { refused: e.message });
-			throw e;
+			return refuseAction(e, (refusal) => refusal.message);
 		}
 		redirect(303, '/templates');
 	}
