@@ -140,7 +140,7 @@ describe.skipIf(!hasDatabase)('a recompute interrupted half-way (PostgreSQL)', a
 		const t = await batch();
 		const before = await deadWorker(t.org.id, t.batchId);
 
-		expect(await refreshByPage(t.supervisor, t.batchId)).toEqual({ queued: true });
+		expect(await refreshByPage(t.supervisor, t.batchId)).toEqual({ done: 'The recompute is queued.' });
 		expect(await refreshByApi(t.supervisor, t.batchId)).toMatchObject({
 			status: 202,
 			json: { state: 'queued' }
@@ -199,7 +199,7 @@ describe.skipIf(!hasDatabase)('a recompute interrupted half-way (PostgreSQL)', a
 		const refused = await refreshByPage(t.supervisor, t.batchId);
 		expect(refused).toMatchObject({
 			status: 409,
-			data: { message: 'A recompute of this batch is already running.' }
+			data: { error: 'A recompute of this batch is already running.' }
 		});
 		expect(await refreshByApi(t.supervisor, t.batchId)).toMatchObject({
 			status: 202,
@@ -253,7 +253,7 @@ describe.skipIf(!hasDatabase)('a recompute interrupted half-way (PostgreSQL)', a
 		expect(left).toMatchObject({ state: 'running', done: 2, total: DWELLINGS, heartbeat: null });
 		expect(isStalled(left)).toBe(true);
 		const before = await recomputedAt(t.batchId);
-		expect(await refreshByPage(t.supervisor, t.batchId)).toEqual({ queued: true });
+		expect(await refreshByPage(t.supervisor, t.batchId)).toEqual({ done: 'The recompute is queued.' });
 		expect(await recompute.recomputeBatchWith(db, t.org.id, t.batchId, { request: 1 })).toBe(true);
 		await expectFinishedOnce(t.org.id, t.batchId, before);
 	});

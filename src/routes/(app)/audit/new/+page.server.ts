@@ -1,11 +1,24 @@
-import { fail, redirect } from '@sveltejs/kit';
+import { error, redirect } from '@sveltejs/kit';
+import { message, setError, withFiles, type SuperValidated } from 'sveltekit-superforms';
 import { requireRole } from '$lib/server/guard';
 import { createBatch, listAssessors, listProgrammes, previewBatch } from '$lib/server/audit';
 import { enqueueRecompute } from '$lib/server/audit/worker';
 import { parseReferenceFile, parseReferenceText, type ReferenceLine } from '$lib/server/audit/references';
-import { newBatchSchema } from '$lib/audit/schemas';
+import {
+	batchFieldOf,
+	checkNewBatch,
+	newBatchFormDefaults,
+	newBatchFormSchema,
+	type FormIssue,
+	type NewBatchForm
+} from '$lib/audit/forms';
 import { DWELLING_STATUSES } from '$lib/dwellings/kinds';
-import { AppError } from '$lib/server/errors';
+import { formFor, readForm } from '$lib/server/forms';
+import { NotFoundError, refusalOf } from '$lib/server/errors';
+
+/** What the form says above its fields: a sentence, and the reference lines that could not be used. */
+export type BatchFormMessage = { text: string; lines: string[] };
+type BatchForm = SuperValidated<NewBatchForm, BatchFormMessage>;
 
 export async function load(event) {
 	const member = requireRole(event, 'supervisor', 'admin');
@@ -17,8 +30,10 @@ export async function load(event) {
 		assessors,
 		programmes,
 		statuses: DWELLING_STATUSES,
-		prefill: prefilledReferences(event.url),
-		prefillName: prefilledName(event.url)
+		batchForm: await formFor(
+			newBatchFormSchema,
+			newBatchFormDefaults({ references: prefilledReferences(event.url), name: prefilledName(event.url) })
+		)
 	};
 }
 
@@ -41,123 +56,90 @@ function prefilledName(url: URL): string {
 	return (url.searchParams.get('name') ?? '').trim().slice(0, 200);
 }
 
-const text = (f: FormData, k: string) => {
-	const v = f.get(k);
-	return typeof v === 'string' && v.trim() !== '' ? v.trim() : undefined;
-};
-const number = (f: FormData, k: string) => {
-	const v = text(f, k);
-	return v === undefined ? undefined : Number(v.replace(',', '.'));
-};
-
-/** An expected refusal as the form's answer: field messages beside their fields, reference lines listed. */
-function refused(e: AppError, values: Record<string, string>, statuses: string[]) {
-	const errors: Record<string, string> = {};
-	for (const i of e.issues) if (i.line === undefined) errors[i.path] ??= i.message;
-	return fail(e.status, {
-		values,
-		statuses,
-		message: e.message,
-		errors,
-		lines: e.issues.filter((i) => i.line !== undefined).map((i) => i.message)
-	});
+/** The form's answer when it cannot be used: each problem beside its field, the sentence and lines above. */
+function refused(form: BatchForm, status: number, text: string, issues: FormIssue[], lines: string[] = []) {
+	for (const i of issues) {
+		if (i.field === 'statuses') setError(form, 'statuses._errors' as never, i.message);
+		else if (i.field) setError(form, i.field as never, i.message);
+	}
+	const unplaced = issues.filter((i) => !i.field).map((i) => i.message);
+	return message(form, { text, lines: [...lines, ...unplaced] }, { status: status as 400 });
 }
 
-/** The form as a new batch's input, or the answer that says what is wrong with it. */
-async function readBatchForm(f: FormData, forPreview: boolean) {
-	const values = Object.fromEntries([...f.entries()].filter(([, v]) => typeof v === 'string')) as Record<
-		string,
-		string
-	>;
-	const statuses = f.getAll('statuses').filter((s): s is string => typeof s === 'string');
-	const source = text(f, 'source') === 'references' ? 'references' : 'filter';
+/** The posted form as a new batch's input (with the reference lines read), or the answer saying why not. */
+async function readBatch(form: BatchForm, forPreview: boolean) {
 	let referenceLines: ReferenceLine[] | undefined;
-	if (source === 'references') {
-		const file = f.get('file');
+	const { file, ...fields } = form.data;
+	if (fields.source === 'references') {
 		const parsed =
-			file instanceof File && file.size > 0
+			file && file.size > 0
 				? parseReferenceFile(new Uint8Array(await file.arrayBuffer()))
-				: parseReferenceText(text(f, 'references') ?? '');
-		if (parsed.issues.length) {
+				: parseReferenceText(fields.references);
+		if (parsed.issues.length)
 			return {
-				failure: fail(400, {
-					values,
-					statuses,
-					message: 'The reference list could not be used; nothing was created.',
-					errors: {},
-					lines: parsed.issues.map((i) => i.message)
-				})
+				failure: refused(
+					form,
+					400,
+					'The reference list could not be used; nothing was created.',
+					[],
+					parsed.issues.map((i) => i.message)
+				)
 			} as const;
-		}
 		referenceLines = parsed.lines;
 	}
-	const rule = text(f, 'rule') === 'random' ? 'random' : 'all';
-	const raw = {
-		// a count before the batch is named: any name will do
-		name: text(f, 'name') ?? (forPreview ? 'preview' : ''),
-		source,
-		filter: {
-			assessorId: text(f, 'assessorId'),
-			issuedFrom: text(f, 'issuedFrom'),
-			issuedTo: text(f, 'issuedTo'),
-			statuses: statuses.length ? statuses : undefined,
-			programme: text(f, 'programme')
-		},
-		references: referenceLines?.map((l) => l.reference),
-		sampling:
-			rule === 'random'
-				? {
-						rule,
-						percent: number(f, 'percent'),
-						minimumPerAssessor: number(f, 'minimumPerAssessor') ?? 0,
-						includeFlagged: f.get('includeFlagged') === 'on'
-					}
-				: { rule, includeFlagged: f.get('includeFlagged') === 'on' },
-		seed: text(f, 'seed')
-	};
-	const parsed = newBatchSchema.safeParse(raw);
-	if (!parsed.success) {
-		const errors: Record<string, string> = {};
-		for (const i of parsed.error.issues) errors[i.path.map(String).join('.')] ??= i.message;
-		return {
-			failure: fail(400, { values, statuses, message: 'Check the marked fields.', errors, lines: [] })
-		} as const;
-	}
-	return { values, statuses, referenceLines, input: parsed.data } as const;
+	const checked = checkNewBatch(
+		fields,
+		referenceLines?.map((l) => l.reference),
+		forPreview
+	);
+	if (!checked.ok)
+		return { failure: refused(form, 400, 'Check the marked fields.', checked.issues) } as const;
+	return { input: { ...checked.input, referenceLines, references: undefined } } as const;
+}
+
+/** A service's refusal as the form's answer: its fields marked, its reference lines listed. */
+function refusedByService(form: BatchForm, e: unknown, text = (m: string) => m) {
+	const refusal = refusalOf(e);
+	if (!refusal) throw e;
+	if (refusal instanceof NotFoundError) error(404, refusal.message);
+	const placed = refusal.issues.filter((i) => i.line === undefined);
+	return refused(
+		form,
+		refusal.status,
+		text(refusal.message),
+		placed.map((i) => ({ field: batchFieldOf(i.path) ?? '', message: i.message })).filter((i) => i.field),
+		refusal.issues.filter((i) => i.line !== undefined).map((i) => i.message)
+	);
 }
 
 export const actions = {
 	/** What the batch would hold, before it is created: the matching dwellings and the sample's size. */
 	preview: async (event) => {
 		const member = requireRole(event, 'supervisor', 'admin');
-		const form = await readBatchForm(await event.request.formData(), true);
-		if ('failure' in form) return form.failure;
-		const { values, statuses, referenceLines, input } = form;
+		const form = await readForm(event.request, newBatchFormSchema);
+		if (!form.valid) return refused(form, 400, 'Check the marked fields.', []);
+		const read = await readBatch(form, true);
+		if ('failure' in read) return read.failure;
 		try {
-			const preview = await previewBatch(member, { ...input, referenceLines, references: undefined });
-			return { values, statuses, preview };
+			const preview = await previewBatch(member, read.input);
+			return withFiles({ batchForm: form, preview });
 		} catch (e) {
-			if (e instanceof AppError) {
-				// nothing is created by a count, so the refusal need not say so
-				e.message = e.message.replace('; nothing was created.', '.');
-				return refused(e, values, statuses);
-			}
-			throw e;
+			// nothing is created by a count, so the refusal need not say so
+			return refusedByService(form, e, (m) => m.replace('; nothing was created.', '.'));
 		}
 	},
 
 	create: async (event) => {
 		const member = requireRole(event, 'supervisor', 'admin');
-		const form = await readBatchForm(await event.request.formData(), false);
-		if ('failure' in form) return form.failure;
-		const { values, statuses, referenceLines, input: data } = form;
+		const form = await readForm(event.request, newBatchFormSchema);
+		if (!form.valid) return refused(form, 400, 'Check the marked fields.', []);
+		const read = await readBatch(form, false);
+		if ('failure' in read) return read.failure;
 		let id: string;
 		try {
-			const created = await createBatch(member, { ...data, referenceLines, references: undefined });
-			id = created.id;
+			({ id } = await createBatch(member, read.input));
 		} catch (e) {
-			if (e instanceof AppError) return refused(e, values, statuses);
-			throw e;
+			return refusedByService(form, e);
 		}
 		await enqueueRecompute(member.organisationId, id, member.user.id);
 		redirect(303, `/audit/${id}`);

@@ -1,4 +1,5 @@
 import { error, fail } from '@sveltejs/kit';
+import { message } from 'sveltekit-superforms';
 import { requireMember, requireRole } from '$lib/server/guard';
 import {
 	answerEvidenceRequest,
@@ -9,8 +10,15 @@ import {
 	requestEvidence,
 	uploadEvidence
 } from '$lib/server/evidence';
-import { AppError } from '$lib/server/errors';
+import { invalidText, readForm, refuseAction, refuseForm } from '$lib/server/forms';
 import { DECIDER_ROLES } from '$lib/audit/rules';
+import {
+	EVIDENCE_REQUEST_FORM_ID,
+	evidenceAnswerFormSchema,
+	evidenceDeleteFormSchema,
+	evidenceRequestFormSchema,
+	evidenceRequestFromForm
+} from '$lib/evidence/forms';
 
 export const load = async (event) => {
 	const member = requireMember(event);
@@ -18,15 +26,6 @@ export const load = async (event) => {
 	if (!panel) error(404, 'No such dwelling.');
 	return { panel };
 };
-
-/**
- * An expected refusal as the form's answer (`message`): the forms are posted from other pages too (the
- * dwelling, an element, an audit item), which show it beside the form.
- */
-function refused(e: unknown, form: string) {
-	if (!(e instanceof AppError)) throw e;
-	return fail(e.status, { form, message: e.message });
-}
 
 /** The form's "For" choice (`dwelling`, `<elementId>` or `<elementId>:<layerIndex>`) as the API's fields. */
 function targetFields(fields: Map<string, string>) {
@@ -37,6 +36,10 @@ function targetFields(fields: Map<string, string>) {
 	if (layerIndex !== undefined) fields.set('layerIndex', layerIndex);
 }
 
+/*
+ * The forms are posted from other pages too (the dwelling, an element, an audit item), which show the
+ * answer beside the form: `{ done }` or `{ error }`, and the request form's own errors and message.
+ */
 export const actions = {
 	/** One file, read as it arrives (the form sends "for" before the file). */
 	upload: async function upload(event) {
@@ -46,54 +49,49 @@ export const actions = {
 			try {
 				targetFields(upload.fields);
 				const stored = await uploadEvidence(member, event.params.dwellingId, upload);
-				return { form: 'upload', name: stored.name, id: stored.id };
+				return { done: `Uploaded “${stored.name}”.`, name: stored.name, id: stored.id };
 			} finally {
 				await upload.finish();
 			}
 		} catch (e) {
-			return refused(e, 'upload');
+			return refuseAction(e, (r) => r.message);
 		}
 	},
 
 	delete: async function remove(event) {
 		const member = requireRole(event, ...EVIDENCE_WRITE_ROLES);
-		const data = await event.request.formData();
+		const form = await readForm(event.request, evidenceDeleteFormSchema);
+		if (!form.valid) return fail(400, { error: invalidText(form) });
 		try {
-			await deleteEvidence(member, String(data.get('evidenceId') ?? ''));
+			await deleteEvidence(member, form.data.evidenceId);
 		} catch (e) {
-			return refused(e, 'delete');
+			return refuseAction(e, (r) => r.message);
 		}
-		return { form: 'delete' };
+		return { done: 'Deleted.' };
 	},
 
 	/** A supervisor's request, from the audit item page. */
 	request: async function request(event) {
 		const member = requireRole(event, ...DECIDER_ROLES);
-		const data = await event.request.formData();
+		const form = await readForm(event.request, evidenceRequestFormSchema, EVIDENCE_REQUEST_FORM_ID);
+		if (!form.valid) return fail(400, { requestForm: form });
 		try {
-			await requestEvidence(member, String(data.get('itemId') ?? ''), {
-				note: String(data.get('note') ?? ''),
-				dueDate: String(data.get('dueDate') ?? '')
-			});
+			await requestEvidence(member, form.data.itemId, evidenceRequestFromForm(form.data));
 		} catch (e) {
-			return refused(e, 'request');
+			return refuseForm(form, e);
 		}
-		return { form: 'request' };
+		return message(form, 'Requested: the assessor sees it beside the dwelling’s evidence.');
 	},
 
 	answer: async function answerRequest(event) {
 		const member = requireMember(event);
-		const data = await event.request.formData();
+		const form = await readForm(event.request, evidenceAnswerFormSchema);
+		if (!form.valid) return fail(400, { error: invalidText(form) });
 		try {
-			await answerEvidenceRequest(
-				member,
-				String(data.get('itemId') ?? ''),
-				String(data.get('requestId') ?? ''),
-				{}
-			);
+			await answerEvidenceRequest(member, form.data.itemId, form.data.requestId, {});
 		} catch (e) {
-			return refused(e, 'answer');
+			return refuseAction(e, (r) => r.message);
 		}
-		return { form: 'answer' };
+		return { done: 'Marked as answered.' };
 	}
 };

@@ -15,7 +15,8 @@ import {
 import { requeueMail, kickOutbox } from '$lib/server/outbox';
 import { readIssueChanges } from '$lib/server/reports/changes';
 import { moistureWord, passWord } from '$lib/server/reports/document';
-import { emailFormSchema, emailSchema, issueFormSchema, retryFormSchema } from '$lib/reports/schema';
+import { emailSchema } from '$lib/reports/schema';
+import { emailFormSchema, issueFormSchema, retryFormSchema } from '$lib/reports/forms';
 import { ISSUE_ROLES } from '$lib/reports/rules';
 import { clientSummary } from '$lib/reports/client-summary';
 import { issueRefusal } from '$lib/dwellings/rules';

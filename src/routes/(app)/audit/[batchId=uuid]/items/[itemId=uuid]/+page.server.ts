@@ -1,4 +1,5 @@
 import { error, fail } from '@sveltejs/kit';
+import { message, setError } from 'sveltekit-superforms';
 import { requireMember, requireRole } from '$lib/server/guard';
 import {
 	decideItem,
@@ -8,9 +9,11 @@ import {
 	listItems,
 	type ItemRow
 } from '$lib/server/audit';
-import { decisionSchema } from '$lib/audit/schemas';
+import { checkDecision, decisionFormSchema } from '$lib/audit/forms';
+import { DECISION_LABELS } from '$lib/audit/flags';
 import { DECIDER_ROLES } from '$lib/audit/rules';
-import { AppError } from '$lib/server/errors';
+import { evidenceRequestFormSchema, EVIDENCE_REQUEST_FORM_ID } from '$lib/evidence/forms';
+import { formFor, readForm, refuseForm } from '$lib/server/forms';
 import { evidencePanel } from '$lib/server/evidence';
 
 const weight = (i: ItemRow) =>
@@ -38,14 +41,18 @@ export async function load(event) {
 	const decisionRefusal = DECIDER_ROLES.includes(member.role)
 		? await decisionRefusalFor(member.organisationId, item.dwellingId, member.user.id)
 		: null;
-	const [standing, evidence] = await Promise.all([
+	const [standing, evidence, decideForm, requestForm] = await Promise.all([
 		decisionStanding(member.organisationId, item),
-		evidencePanel(member, item.dwellingId)
+		evidencePanel(member, item.dwellingId),
+		formFor(decisionFormSchema, { decision: '', comment: '' }, 'decide'),
+		formFor(evidenceRequestFormSchema, { itemId: item.id, note: '', dueDate: '' }, EVIDENCE_REQUEST_FORM_ID)
 	]);
 	return {
 		item,
 		standing,
 		evidence,
+		decideForm,
+		requestForm,
 		decisionRefusal,
 		position: at + 1,
 		total: queue.length,
@@ -58,21 +65,18 @@ export async function load(event) {
 export const actions = {
 	decide: async (event) => {
 		const member = requireRole(event, ...DECIDER_ROLES);
-		const f = await event.request.formData();
-		const raw = { decision: String(f.get('decision') ?? ''), comment: String(f.get('comment') ?? '') };
-		const parsed = decisionSchema.safeParse(raw);
-		if (!parsed.success) {
-			const errors: Record<string, string> = {};
-			for (const i of parsed.error.issues) errors[i.path.map(String).join('.')] ??= i.message;
-			return fail(400, { values: raw, errors });
+		const form = await readForm(event.request, decisionFormSchema, 'decide');
+		if (!form.valid) return fail(400, { decideForm: form });
+		const checked = checkDecision(form.data);
+		if (!checked.ok) {
+			for (const i of checked.issues) setError(form, (i.field || '') as 'comment', i.message);
+			return fail(400, { decideForm: form });
 		}
 		try {
-			await decideItem(member, event.params.itemId, parsed.data);
+			await decideItem(member, event.params.itemId, checked.input);
 		} catch (e) {
-			if (e instanceof AppError)
-				return fail(e.status, { values: raw, errors: { form: e.message } as Record<string, string> });
-			throw e;
+			return refuseForm(form, e);
 		}
-		return { decided: parsed.data.decision };
+		return message(form, `Recorded: ${DECISION_LABELS[checked.input.decision]}.`);
 	}
 };
