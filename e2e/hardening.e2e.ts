@@ -176,13 +176,27 @@ test.describe('bad input is refused with a 4xx, not a server error', () => {
 		const api = await signedIn();
 		const id = await demoDwellingId();
 		for (const action of ['duplicateElement', 'deleteElement']) {
-			const res = await api.post(`/dwellings/${id}?/${action}`, {
+			// A browser's own form post (no script) asks for the page back: the page, with the refusal on it.
+			const page = await api.post(`/dwellings/${id}?/${action}`, {
 				form: { elementId: 'not-a-uuid', version: '1' },
+				headers: { accept: 'text/html' },
 				maxRedirects: 0
 			});
-			expect(res.status(), action).toBeGreaterThanOrEqual(400);
-			expect(res.status(), action).toBeLessThan(500);
-			expect(await res.text(), action).not.toMatch(/Something went wrong/);
+			expect(page.status(), action).toBeLessThan(500);
+			const html = await page.text();
+			expect(html, action).not.toMatch(/Something went wrong/);
+			expect(html, action).toMatch(/is not an element of this dwelling/);
+			// The page's enhanced post asks for JSON: SvelteKit answers 200 with the failure and its status
+			// inside (its documented action protocol), which the page shows beside the button.
+			const json = await api.post(`/dwellings/${id}?/${action}`, {
+				form: { elementId: 'not-a-uuid', version: '1' },
+				headers: { accept: 'application/json', 'x-sveltekit-action': 'true' },
+				maxRedirects: 0
+			});
+			const answer = await json.json();
+			expect(answer.type, action).toBe('failure');
+			expect(answer.status, action).toBe(400);
+			expect(answer.data, action).toMatch(/is not an element of this dwelling/);
 		}
 		await api.dispose();
 	});
