@@ -4,7 +4,7 @@
  * by reports and by audits, so every place computes the same thing from the same record.
  */
 import type { SurfaceConditions } from '$lib/physics/surface-films';
-import type { ElementInput, HeatFlow, Layer, RoofSpace } from '$lib/physics';
+import type { ClimateMonth, ElementInput, HeatFlow, Layer, RoofSpace } from '$lib/physics';
 
 /** A layer as stored in `elements.build_up` / `templates.build_up`: the engine's layer plus where it came from. */
 export type StoredLayer = Layer & {
@@ -61,7 +61,8 @@ export type StoredInternal = {
 	humidityClass?: 1 | 2 | 3 | 4 | 5;
 };
 
-export type ClimateMonthValues = { month: number; temperature: number; relativeHumidity: number };
+/** A month of a stored climate, as the calculation core takes it. */
+export type ClimateMonthValues = ClimateMonth;
 
 /** Internal design temperature when none is stored, °C. */
 export const DEFAULT_INTERNAL_TEMPERATURE = 20; // common practice, no source

@@ -102,14 +102,17 @@ describe.skipIf(!hasDatabase)('templates: stale saves', async () => {
 				request: new Request(`http://127.0.0.1${path}?/update`, { method: 'POST', body: fd })
 			} as any) as Promise<any>;
 		};
-		expect(await submit(t.assessor, tpl.name, 'Saved first')).toEqual({ done: 'Template saved.' });
+		const first = await submit(t.assessor, tpl.name, 'Saved first');
+		expect(first.form.message).toBe('Template saved.');
 		const second = await submit(t.admin, 'Typed second', 'Typed second');
 		expect(second.status).toBe(409);
 		expect(second.data.stale).toBe(STALE_MESSAGE);
-		expect(second.data.values).toEqual({
+		// The form comes back as typed, the version still the one loaded (the page offers to reload).
+		expect(second.data.form.data).toEqual({
 			name: 'Typed second',
 			kind: 'external-wall',
-			description: 'Typed second'
+			description: 'Typed second',
+			version
 		});
 		expect(await templates.getTemplate(t.org.id, tpl.id)).toMatchObject({
 			name: tpl.name,

@@ -7,13 +7,11 @@
  */
 import { db } from '$lib/server/db';
 import type { Change } from '$lib/dwellings/changes';
-import type { StoredBuildUp } from '$lib/dwellings/element-input';
 import type { ElementKind } from '$lib/dwellings/kinds';
 import type { ElementResult } from '$lib/physics';
 import { NotFoundError } from '$lib/server/errors';
+import type { DwellingRow, ElementRow } from '$lib/server/tables';
 import { compareElementRows } from './elements';
-
-type Row = Record<string, any>;
 
 export type StageSide = {
 	id: string;
@@ -34,40 +32,42 @@ export type StageComparison = {
 	changed: number;
 };
 
-function side(r: Row): StageSide {
-	const layers = ((r.build_up as StoredBuildUp | null)?.layers ?? []).map((l) => ({
+function side(r: ElementRow): StageSide {
+	const layers = (r.build_up?.layers ?? []).map((l) => ({
 		name: l.name,
 		thicknessMm: l.thicknessMm,
 		lambda: l.lambda ?? null
 	}));
 	const u = (r.last_result as ElementResult | null)?.uValueRounded ?? r.given_u ?? null;
-	return { id: r.id, name: r.name, kind: r.kind, area: Number(r.area), u, layers };
+	return { id: r.id, name: r.name, kind: r.kind, area: r.area, u, layers };
 }
 
-const brief = (d: Row) => ({
-	id: d.id as string,
-	reference: d.reference as string,
-	address: (d.address ?? '') as string
-});
+const brief = (d: DwellingRow) => ({ id: d.id, reference: d.reference, address: d.address });
 
 /** The comparison of an as-built dwelling with its design; null when it was not copied from one. */
 export async function compareStages(
 	organisationId: string,
 	asBuiltId: string
 ): Promise<StageComparison | null> {
-	const asBuilt = await db('dwellings').where({ organisation_id: organisationId, id: asBuiltId }).first();
+	const asBuilt = await db<DwellingRow>('dwellings')
+		.where({ organisation_id: organisationId, id: asBuiltId })
+		.first();
 	if (!asBuilt) throw new NotFoundError('No such dwelling.');
 	if (!asBuilt.design_id) return null;
-	const design = await db('dwellings')
+	const design = await db<DwellingRow>('dwellings')
 		.where({ organisation_id: organisationId, id: asBuilt.design_id })
 		.first();
 	if (!design) return null;
 	const order = [{ column: 'position' }, { column: 'created_at' }];
-	const [built, designed]: Row[][] = await Promise.all([
-		db('elements').where({ organisation_id: organisationId, dwelling_id: asBuilt.id }).orderBy(order),
-		db('elements').where({ organisation_id: organisationId, dwelling_id: design.id }).orderBy(order)
+	const [built, designed] = await Promise.all([
+		db<ElementRow>('elements')
+			.where({ organisation_id: organisationId, dwelling_id: asBuilt.id })
+			.orderBy(order),
+		db<ElementRow>('elements')
+			.where({ organisation_id: organisationId, dwelling_id: design.id })
+			.orderBy(order)
 	]);
-	const byId = new Map(designed.map((e) => [e.id as string, e]));
+	const byId = new Map(designed.map((e) => [e.id, e]));
 	const paired = new Set<string>();
 	const pairs: StagePair[] = [];
 	for (const b of built) {

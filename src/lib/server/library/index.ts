@@ -34,6 +34,7 @@ import {
 	type RevisionUpdate
 } from '$lib/library/revisions';
 import { ConflictError, ForbiddenError, NotFoundError, ValidationError } from '$lib/server/errors';
+import type { MaterialRevisionRow, MaterialRow } from '$lib/server/tables';
 
 export { applyRevisionUpdate };
 export type { RevisionUpdate };
@@ -43,11 +44,19 @@ export type Actor = { userId: string; organisationId: string };
 
 const dateText = calendarDay;
 
-// Rows as Knex returns them (snake_case, untyped); converted at the module edge by the functions below.
-type Row = Record<string, any>;
+// Rows as Knex returns them (snake_case); converted at the module edge by the functions below.
+/** A revision with its material's code, as every revision query selects it. */
+type RevisionWithCode = MaterialRevisionRow & Pick<MaterialRow, 'code'>;
+/** …with the people who wrote and verified it (`revisionQuery`; their e-mail is there whenever their id is). */
+type RevisionWithPeople = RevisionWithCode & {
+	verifier_name: string | null;
+	verifier_email: string;
+	creator_name: string | null;
+	creator_email: string;
+};
 
 /** The columns of a revision row that both its values and its list row carry, name to source. */
-function describedValues(r: Row) {
+function describedValues(r: MaterialRevisionRow) {
 	return {
 		name: r.name,
 		manufacturer: r.manufacturer,
@@ -67,7 +76,7 @@ function describedValues(r: Row) {
 }
 
 /** The values of a revision row, in the shape of MaterialValues. */
-export function valuesOfRow(r: Row): MaterialValues {
+export function valuesOfRow(r: RevisionWithCode): MaterialValues {
 	return {
 		code: r.code,
 		...describedValues(r),
@@ -78,7 +87,7 @@ export function valuesOfRow(r: Row): MaterialValues {
 	};
 }
 
-function toSummary(r: Row): MaterialSummary {
+function toSummary(r: RevisionWithCode): MaterialSummary {
 	return {
 		id: r.material_id,
 		code: r.code,
@@ -89,7 +98,7 @@ function toSummary(r: Row): MaterialSummary {
 	};
 }
 
-function toRevision(r: Row): MaterialRevision {
+function toRevision(r: RevisionWithPeople): MaterialRevision {
 	return {
 		...toSummary(r),
 		sourceIssued: dateText(r.source_issued),
@@ -673,7 +682,7 @@ export async function listElementsUsingMaterial(
 	});
 }
 
-function layerValues(r: Row): LayerValues {
+function layerValues(r: RevisionWithCode): LayerValues {
 	return {
 		id: r.id,
 		revision: r.revision,
@@ -736,29 +745,4 @@ export async function listAllCurrent(organisationId: string): Promise<MaterialVa
 		.orderBy('m.code')
 		.select('r.*', 'm.code');
 	return rows.map(valuesOfRow);
-}
-
-/** The values of the material form (numbers with a point or a comma), and issues for what is not a number. */
-export function valuesFromForm(fd: FormData): {
-	raw: Record<string, unknown>;
-	issues: { field: string; message: string }[];
-	confirmWarnings: boolean;
-} {
-	const raw: Record<string, unknown> = {};
-	const issues: { field: string; message: string }[] = [];
-	const text = (k: string) => {
-		const v = fd.get(k);
-		return typeof v === 'string' ? v.trim() : '';
-	};
-	for (const k of ['code', 'name', 'manufacturer', 'category']) raw[k] = text(k);
-	for (const k of ['lambdaKind', 'source', 'sourceIssued', 'sourceExpires', 'notes'])
-		raw[k] = text(k) || null;
-	if (!raw.manufacturer) raw.manufacturer = 'generic';
-	for (const k of NUMBER_FIELDS) {
-		const n = parseNumber(text(k), ';');
-		if (n.ok) raw[k] = n.value;
-		else issues.push({ field: k, message: n.message });
-	}
-	raw.indicative = fd.get('indicative') !== null;
-	return { raw, issues, confirmWarnings: fd.get('confirmWarnings') === 'yes' };
 }

@@ -17,6 +17,7 @@ import { getElement, updateElement, type Element } from '$lib/server/dwellings/e
 import { applyRevisionUpdate, findNewerRevisions } from '$lib/server/library';
 import type { StoredBuildUp } from '$lib/dwellings/element-input';
 import type { Role } from '$lib/members/roles';
+import type { MaterialMoveRow } from '$lib/server/tables';
 
 export type MoveOutcome = 'moved' | 'already' | 'skipped' | 'failed';
 
@@ -169,11 +170,9 @@ async function logMove(member: Member, target: MoveTarget, el: Element, updates:
 /** How long a running move may go without a heartbeat before another run takes it over. */
 export const STALL_AFTER_SECONDS = 60;
 
-type MoveRow = Record<string, any>;
-
 /** Take the move for this run: queued, or running with no heartbeat for a minute; null when held or over. */
-async function claim(moveId: string): Promise<MoveRow | null> {
-	const [row] = await db('material_moves')
+async function claim(moveId: string): Promise<MaterialMoveRow | null> {
+	const [row] = await db<MaterialMoveRow>('material_moves')
 		.where({ id: moveId })
 		.andWhere((q) =>
 			q
@@ -202,7 +201,7 @@ async function claim(moveId: string): Promise<MoveRow | null> {
 }
 
 /** The member who asked for the move, as they are now: null when they no longer change elements. */
-async function requester(row: MoveRow): Promise<Member | null> {
+async function requester(row: MaterialMoveRow): Promise<Member | null> {
 	if (!row.requested_by) return null;
 	const m = await db('memberships as m')
 		.join('users as u', 'u.id', 'm.user_id')
@@ -253,7 +252,7 @@ async function saveItems(moveId: string, items: MoveItem[]) {
 	await recount(moveId);
 }
 
-async function finish(row: MoveRow, member: Member | null, error: string | null) {
+async function finish(row: MaterialMoveRow, member: Member | null, error: string | null) {
 	const [done] = await db('material_moves')
 		.where({ id: row.id })
 		.update({ state: error ? 'failed' : 'done', error, finished_at: db.fn.now(), heartbeat_at: null })

@@ -38,6 +38,7 @@ import type {
 } from './snapshot';
 import { evidenceForReport } from '$lib/server/evidence';
 import { snapshotJunctions, type JunctionMode } from './junctions';
+import type { ClimateRow, DwellingRow, ElementRow, UserRow } from '$lib/server/tables';
 
 export type { ReportSnapshot, ReportScope } from './snapshot';
 
@@ -48,21 +49,6 @@ type Caller = { userId: string; organisationId: string };
 
 /* ------------------------------------------------------------------ snapshot */
 
-type DwellingRow = {
-	id: string;
-	organisation_id: string;
-	reference: string;
-	address: string;
-	programme: string | null;
-	client_name: string | null;
-	client_email: string | null;
-	assessor_id: string | null;
-	stage: string;
-	status: string;
-	limit_table_id: string | null;
-	climate_id: string | null;
-};
-
 async function getDwellingRow(
 	organisationId: string,
 	dwellingId: string,
@@ -70,11 +56,11 @@ async function getDwellingRow(
 	/** lock the row until the transaction ends (issuing: its assessor cannot change meanwhile) */
 	lock = false
 ): Promise<DwellingRow> {
-	const q = trx('dwellings').where({ id: dwellingId, organisation_id: organisationId });
+	const q = trx<DwellingRow>('dwellings').where({ id: dwellingId, organisation_id: organisationId });
 	if (lock) q.forUpdate();
 	const row = await q.first();
 	if (!row) throw new NotFoundError('No such dwelling.');
-	return row as DwellingRow;
+	return row;
 }
 
 /** Initials of the organisation's name, the prefix of its report numbers (e.g. NRP-2026-0007). */
@@ -185,7 +171,7 @@ export async function buildSnapshot(
 	return { snapshot, problems };
 }
 
-type Row = Record<string, any>; // rows as Knex returns them; converted below
+type Row = Record<string, any>; // joined rows as Knex returns them; converted below
 
 /** A person of the report (the dwelling's assessor, the issuer), if they are (still) a member of the organisation. */
 async function readMember(trx: Db, organisationId: string, userId: string | null) {
@@ -209,7 +195,7 @@ async function readElementRows(
 		.where({ organisation_id: organisationId, dwelling_id: dwellingId })
 		.orderBy([{ column: 'position' }, { column: 'created_at' }, { column: 'id' }]);
 	if (elementId) q.andWhere({ id: elementId });
-	const rows: Row[] = await q.select('*');
+	const rows: ElementRow[] = await q.select('*');
 	if (elementId && rows.length === 0) throw new NotFoundError('No such element in this dwelling.');
 	return rows;
 }
@@ -221,7 +207,7 @@ async function readElementRows(
 async function readClimates(
 	trx: Db,
 	organisationId: string,
-	elements: Row[],
+	elements: ElementRow[],
 	dwellingClimateId: string | null
 ) {
 	const ids = [
@@ -229,7 +215,7 @@ async function readClimates(
 	] as string[];
 	const climates = new Map<string, SnapshotClimate>();
 	if (!ids.length) return climates;
-	const rows = await trx('climates')
+	const rows = await trx<ClimateRow>('climates')
 		.where({ organisation_id: organisationId })
 		.whereIn('id', ids)
 		.select('*');
@@ -238,18 +224,18 @@ async function readClimates(
 			id: c.id,
 			name: c.name,
 			source: c.source,
-			illustrative: Boolean(c.illustrative),
-			months: [...(c.months as SnapshotClimate['months'])].sort((a, b) => a.month - b.month)
+			illustrative: c.illustrative,
+			months: [...c.months].sort((a, b) => a.month - b.month)
 		});
 	}
 	return climates;
 }
 
 /** The library revisions the layers point at, by revision id. */
-async function readLayerRevisions(trx: Db, organisationId: string, elements: Row[]) {
+async function readLayerRevisions(trx: Db, organisationId: string, elements: ElementRow[]) {
 	const ids = new Set<string>();
 	for (const e of elements) {
-		for (const l of (e.build_up as StoredBuildUp | null)?.layers ?? []) {
+		for (const l of e.build_up?.layers ?? []) {
 			if (l.materialRevisionId) ids.add(l.materialRevisionId);
 		}
 	}
@@ -273,7 +259,7 @@ async function readLayerRevisions(trx: Db, organisationId: string, elements: Row
 	return revisions;
 }
 
-function snapshotDwelling(d: DwellingRow, assessor: Row | null): ReportSnapshot['dwelling'] {
+function snapshotDwelling(d: DwellingRow, assessor: UserRow | null): ReportSnapshot['dwelling'] {
 	return {
 		id: d.id,
 		reference: d.reference,
@@ -334,23 +320,23 @@ function layerRevisions(
  * One element as the report prints it: a given U (windows, doors) or its build-up recomputed with
  * today's engine, judged against the limit for its kind. What stops it being reported goes to `problems`.
  */
-function snapshotElement(e: Row, ctx: ElementContext, problems: string[]): SnapshotElement {
-	const kind = e.kind as ElementKind;
+function snapshotElement(e: ElementRow, ctx: ElementContext, problems: string[]): SnapshotElement {
+	const kind = e.kind;
 	const label = `Element "${e.name}"`;
-	const buildUp = (e.build_up as StoredBuildUp | null) ?? null;
-	const internal = (e.internal as StoredInternal | null) ?? null;
+	const buildUp = e.build_up;
+	const internal = e.internal;
 	const climateId = e.climate_id ?? ctx.dwellingClimateId;
 	const climate = climateId ? (ctx.climates.get(climateId) ?? null) : null;
 	const limit = ctx.limitTable?.limits?.[kind];
 	const limitValue = typeof limit === 'number' ? limit : null;
 	const base = {
-		id: e.id as string,
-		name: e.name as string,
+		id: e.id,
+		name: e.name,
 		kind,
-		area: Number(e.area),
+		area: e.area,
 		heatFlow: e.heat_flow,
-		givenU: e.given_u ?? null,
-		givenUSource: e.given_u_source ?? null,
+		givenU: e.given_u,
+		givenUSource: e.given_u_source,
 		buildUp,
 		internal,
 		climate,
@@ -358,10 +344,10 @@ function snapshotElement(e: Row, ctx: ElementContext, problems: string[]): Snaps
 	};
 	const usesGiven = GIVEN_U_KINDS.includes(kind) || (!buildUp?.layers?.length && e.given_u != null);
 	if (usesGiven) {
-		if (e.given_u == null || !Number.isFinite(Number(e.given_u)) || Number(e.given_u) <= 0) {
+		if (e.given_u == null || !Number.isFinite(e.given_u) || e.given_u <= 0) {
 			problems.push(`${label} (${ELEMENT_KIND_LABELS[kind] ?? kind}): no given U-value is recorded.`);
 		}
-		const u = e.given_u == null ? null : Number(e.given_u);
+		const u = e.given_u;
 		// a U worked out from its parts: the parts and their calculation go into the record
 		const windowParts = e.window_parts ? frozenWindowParts(e.window_parts, kind, u, label, problems) : null;
 		return {

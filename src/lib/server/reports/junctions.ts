@@ -5,17 +5,13 @@
  * stored figures instead (`stored`), so that counting changes never solves a junction.
  */
 import type { Db } from '$lib/server/db';
-import type { JunctionInput } from '$lib/physics/junction-schema';
 import type { JunctionField } from '$lib/physics/junction-field';
-import type { ClimateMonthValues, StoredBuildUp } from '$lib/dwellings/element-input';
-import type { HeatFlow } from '$lib/physics';
+import type { ClimateMonthValues } from '$lib/dwellings/element-input';
 import { runJunction, type ElementLike } from '$lib/junctions/run';
-import type { JunctionCalculation } from '$lib/junctions/calculate';
-import type { JunctionDetails } from '$lib/junctions/schema';
-import type { DimensionSystem, JunctionType, PsiSource } from '$lib/junctions/kinds';
 import { fx } from '$lib/format';
 import { ENGINE_VERSION } from '$lib/physics';
 import type { SnapshotJunction } from './snapshot';
+import type { ElementRow, JunctionRow } from '$lib/server/tables';
 
 /**
  * How a snapshot takes its junctions: computed now with the picture's field (issue, draft); as last
@@ -28,18 +24,22 @@ export type JunctionMode = 'calculate' | 'stored' | 'check';
 /** Lines an axis of the sampled field besides the region edges: enough for a picture a column wide. */
 export const REPORT_FIELD_LINES = 60;
 
-type Row = Record<string, any>; // rows as Knex returns them; converted below
+/** The columns of an element row that the junction builder reads. */
+export type JunctionElementRow = Pick<
+	ElementRow,
+	'id' | 'name' | 'kind' | 'heat_flow' | 'build_up' | 'given_u' | 'version'
+>;
 
 /** The dwelling's elements as the builder reads them. */
-export function junctionElements(rows: Row[]): ElementLike[] {
+export function junctionElements(rows: JunctionElementRow[]): ElementLike[] {
 	return rows.map((r) => ({
-		id: r.id as string,
-		name: r.name as string,
-		kind: r.kind as string,
-		heatFlow: r.heat_flow as HeatFlow,
-		buildUp: (r.build_up ?? null) as StoredBuildUp | null,
-		givenU: r.given_u == null ? null : Number(r.given_u),
-		version: r.version as number
+		id: r.id,
+		name: r.name,
+		kind: r.kind,
+		heatFlow: r.heat_flow,
+		buildUp: r.build_up,
+		givenU: r.given_u,
+		version: r.version
 	}));
 }
 
@@ -57,17 +57,17 @@ export function compactField(f: JunctionField): JunctionField {
 	};
 }
 
-function base(r: Row) {
+function base(r: JunctionRow) {
 	return {
-		id: r.id as string,
-		name: r.name as string,
-		type: r.type as JunctionType,
-		lengthM: Number(r.length_m),
-		source: r.source as PsiSource,
-		dimensionSystem: r.dimension_system as DimensionSystem,
-		psiEntered: r.psi_entered == null ? null : Number(r.psi_entered),
-		psiSource: (r.psi_source as string | null) ?? null,
-		details: (r.details ?? null) as JunctionDetails | null
+		id: r.id,
+		name: r.name,
+		type: r.type,
+		lengthM: r.length_m,
+		source: r.source,
+		dimensionSystem: r.dimension_system,
+		psiEntered: r.psi_entered,
+		psiSource: r.psi_source,
+		details: r.details
 	};
 }
 
@@ -85,12 +85,12 @@ export async function snapshotJunctions(
 	trx: Db,
 	organisationId: string,
 	dwellingId: string,
-	elementRows: Row[],
+	elementRows: JunctionElementRow[],
 	months: ClimateMonthValues[] | null,
 	mode: JunctionMode,
 	problems: string[]
 ): Promise<SnapshotJunction[]> {
-	const rows: Row[] = await trx('junctions')
+	const rows = await trx<JunctionRow>('junctions')
 		.where({ organisation_id: organisationId, dwelling_id: dwellingId })
 		.orderBy([{ column: 'created_at' }, { column: 'id' }])
 		.select('*');
@@ -100,7 +100,7 @@ export async function snapshotJunctions(
 		const b = base(r);
 		if (b.source === 'entered')
 			return { ...b, details: null, model: null, psi: b.psiEntered, result: null, field: null };
-		const stored = (r.last_result ?? null) as JunctionCalculation | null;
+		const stored = r.last_result;
 		const version = new Map(elements.map((e) => [e.id, e.version]));
 		const fresh =
 			stored !== null &&
@@ -109,7 +109,7 @@ export async function snapshotJunctions(
 		if (mode === 'stored' || (mode === 'check' && fresh))
 			return {
 				...b,
-				model: (r.model ?? null) as JunctionInput | null,
+				model: r.model,
 				psi: stored?.psi ?? null,
 				result: stored,
 				field: null
@@ -117,7 +117,7 @@ export async function snapshotJunctions(
 		const label = `Junction "${b.name}"`;
 		const empty = {
 			...b,
-			model: (r.model ?? null) as JunctionInput | null,
+			model: r.model,
 			psi: null,
 			result: null,
 			field: null
