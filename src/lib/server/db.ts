@@ -2,6 +2,7 @@ import knex, { type Knex } from 'knex';
 import pg from 'pg';
 import { building } from '$app/environment';
 import { setting } from './config';
+import type { ReferenceRows } from './tables';
 
 // double precision and bigint counts come back as JS numbers, not strings.
 pg.types.setTypeParser(pg.types.builtins.INT8, (v) => Number(v));
@@ -30,3 +31,16 @@ export type Db = Knex | Knex.Transaction;
 
 /** An ILIKE pattern that finds `text` anywhere, its own %, _ and backslash matched as themselves. */
 export const containsPattern = (text: string) => `%${text.replace(/[\\%_]/g, (c) => '\\' + c)}%`;
+
+/**
+ * The organisation's climate, limit table or template, locked until the transaction ends (so nobody
+ * changes it meanwhile), or undefined when it has none by that id; the caller checks the version.
+ */
+export function lockRecord<T extends keyof ReferenceRows>(
+	t: Db,
+	table: T,
+	organisationId: string,
+	id: string
+): Promise<ReferenceRows[T] | undefined> {
+	return t(table).where({ organisation_id: organisationId, id }).forUpdate().first();
+}

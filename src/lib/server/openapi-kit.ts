@@ -118,3 +118,24 @@ export const versioned = (s: Record<string, unknown>) => ({
 		{ type: 'object', properties: { version: { type: 'integer', minimum: 1 } }, required: ['version'] }
 	]
 });
+
+/** GET of one record of the organisation: the record, or 404. */
+export const readOne = (tags: string[], summary: string, description: string, record: JsonSchema) => ({
+	tags,
+	summary,
+	responses: { '200': ok(description, record), ...common, ...notFound() }
+});
+
+/** DELETE of a versioned record, with `?version=`: 204, or 409 when something uses it or it is stale. */
+export const deleteVersioned = (tags: string[], summary: string, conflictDescription: string) => ({
+	tags,
+	summary,
+	parameters: [versionQuery],
+	responses: {
+		'204': ok('Deleted.'),
+		...invalid('No ?version= given.'),
+		...common,
+		...notFound(),
+		...conflict(conflictDescription, currentVersion)
+	}
+});

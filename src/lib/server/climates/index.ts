@@ -1,4 +1,4 @@
-import { db, type Db } from '$lib/server/db';
+import { db, lockRecord, type Db } from '$lib/server/db';
 import { activityLog } from '$lib/server/activity';
 import type { Member } from '$lib/server/guard';
 import {
@@ -16,6 +16,7 @@ import {
 	uniqueViolationAs
 } from '$lib/server/errors';
 import { fieldIssues } from '$lib/validation';
+import type { ClimateMonthValues } from '$lib/dwellings/element-input';
 import { markIssuedDwellings, usingClimate } from '$lib/server/reports/marks';
 
 /** An organisation's climates: twelve months of external conditions with their source. */
@@ -57,7 +58,7 @@ export function toClimateBrief(c: Record<string, unknown>) {
 		name: c.name as string,
 		source: c.source as string,
 		illustrative: Boolean(c.illustrative),
-		months: c.months as ClimateMonth[]
+		months: c.months as ClimateMonthValues[]
 	};
 }
 
@@ -96,10 +97,6 @@ export async function createClimate(member: Member, input: ClimateInput, trx?: D
 	return trx ? write(trx) : db.transaction(write);
 }
 
-/** The climate's row, locked until the transaction ends. */
-const lockedRow = (t: Db, organisationId: string, id: string) =>
-	t('climates').where({ organisation_id: organisationId, id }).forUpdate().first();
-
 /**
  * Replaces the climate's fields; `version` must be the one the caller loaded, else 409 with the version
  * now stored and nothing is written. Null when there is no such climate in the organisation.
@@ -113,7 +110,7 @@ export async function updateClimate(
 	if (!parsed.success) throw new ValidationError(fieldIssues(parsed.error));
 	const { version, ...data } = parsed.data;
 	return db.transaction(async (t) => {
-		const current = await lockedRow(t, member.organisationId, id);
+		const current = await lockRecord(t, 'climates', member.organisationId, id);
 		if (!current) return null;
 		assertVersion(current.version, version);
 		try {
@@ -144,7 +141,7 @@ export async function updateClimate(
  */
 export async function deleteClimate(member: Member, id: string, version: number): Promise<boolean> {
 	return db.transaction(async (t) => {
-		const row = await lockedRow(t, member.organisationId, id);
+		const row = await lockRecord(t, 'climates', member.organisationId, id);
 		if (!row) return false;
 		assertVersion(row.version, version);
 		const usage = await getClimateUsage(member.organisationId, id, t);
@@ -187,13 +184,12 @@ function toClimate(r: Record<string, any>): Climate {
 	};
 }
 
-export type ClimateMonth = { month: number; temperature: number; relativeHumidity: number };
 export type Climate = {
 	id: string;
 	name: string;
 	source: string;
 	illustrative: boolean;
-	months: ClimateMonth[];
+	months: ClimateMonthValues[];
 	/** raised by one on every update; a save states the version it loaded */
 	version: number;
 	createdAt: string;

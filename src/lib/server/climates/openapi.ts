@@ -16,7 +16,8 @@ import {
 	withMeta,
 	currentVersion,
 	versioned,
-	versionQuery
+	readOne,
+	deleteVersioned
 } from '$lib/server/openapi-kit';
 
 const climate = versioned(withMeta(schema(climateInputSchema, 'output')));
@@ -67,11 +68,7 @@ export const paths: Record<string, unknown> = {
 	},
 	'/api/v1/climates/{climateId}': {
 		parameters: [idParam('climateId')],
-		get: {
-			tags,
-			summary: 'One climate',
-			responses: { '200': ok('The climate.', climate), ...common, ...notFound() }
-		},
+		get: readOne(tags, 'One climate', 'The climate.', climate),
 		put: {
 			tags,
 			summary: 'Replace a climate (admins); send the version you loaded',
@@ -87,17 +84,10 @@ export const paths: Record<string, unknown> = {
 				)
 			}
 		},
-		delete: {
+		delete: deleteVersioned(
 			tags,
-			summary: 'Delete a climate (admins)',
-			parameters: [versionQuery],
-			responses: {
-				'204': ok('Deleted.'),
-				...invalid('No ?version= given.'),
-				...common,
-				...notFound(),
-				...conflict('A dwelling or element uses it, or a stale version.', currentVersion)
-			}
-		}
+			'Delete a climate (admins)',
+			'A dwelling or element uses it, or a stale version.'
+		)
 	}
 };

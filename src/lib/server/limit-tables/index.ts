@@ -1,5 +1,5 @@
 import { calendarDay } from '$lib/format';
-import { db, type Db } from '$lib/server/db';
+import { db, lockRecord, type Db } from '$lib/server/db';
 import { activityLog } from '$lib/server/activity';
 import type { Member } from '$lib/server/guard';
 import { type ElementKind } from '$lib/dwellings/kinds';
@@ -43,10 +43,6 @@ const tableRow = (trx: Db, organisationId: string, id: string) =>
 
 const defaultRow = (trx: Db, organisationId: string) =>
 	trx('limit_tables').where({ organisation_id: organisationId, is_default: true }).first();
-
-/** The table's row, locked until the transaction ends. */
-const lockedRow = (t: Db, organisationId: string, id: string) =>
-	t('limit_tables').where({ organisation_id: organisationId, id }).forUpdate().first();
 
 /** The organisation's default is no longer the default (before another becomes it): an update, so its version goes up. */
 const unsetDefault = (t: Db, organisationId: string) =>
@@ -231,7 +227,7 @@ export async function updateLimitTable(
 	if (!parsed.success) throw new ValidationError(fieldIssues(parsed.error));
 	const { version, ...data } = parsed.data;
 	return db.transaction(async (t) => {
-		const current = await lockedRow(t, member.organisationId, id);
+		const current = await lockRecord(t, 'limit_tables', member.organisationId, id);
 		if (!current) return null;
 		assertVersion(current.version, version);
 		const previousLimits: Partial<Record<ElementKind, number>> = current.limits ?? {};
@@ -288,7 +284,7 @@ export async function updateLimitTable(
 /** Makes the table the organisation's default; returns null when there is no such table. */
 export async function setDefaultLimitTable(member: Member, id: string): Promise<LimitTable | null> {
 	return db.transaction(async (t) => {
-		const current = await lockedRow(t, member.organisationId, id);
+		const current = await lockRecord(t, 'limit_tables', member.organisationId, id);
 		if (!current) return null;
 		if (current.is_default) return toLimitTable(current);
 		await unsetDefault(t, member.organisationId);
@@ -310,7 +306,7 @@ export async function setDefaultLimitTable(member: Member, id: string): Promise<
  */
 export async function deleteLimitTable(member: Member, id: string, version: number): Promise<boolean> {
 	return db.transaction(async (t) => {
-		const row = await lockedRow(t, member.organisationId, id);
+		const row = await lockRecord(t, 'limit_tables', member.organisationId, id);
 		if (!row) return false;
 		assertVersion(row.version, version);
 		const label = `${row.name} (${row.edition})`;

@@ -16,7 +16,8 @@ import {
 	withMeta,
 	currentVersion,
 	versioned,
-	versionQuery
+	readOne,
+	deleteVersioned
 } from '$lib/server/openapi-kit';
 
 const limitTable = versioned(withMeta(schema(limitTableInputSchema, 'output')));
@@ -43,11 +44,7 @@ export const paths: Record<string, unknown> = {
 	},
 	'/api/v1/limit-tables/{limitTableId}': {
 		parameters: [idParam('limitTableId')],
-		get: {
-			tags,
-			summary: 'One limit table',
-			responses: { '200': ok('The table.', limitTable), ...common, ...notFound() }
-		},
+		get: readOne(tags, 'One limit table', 'The table.', limitTable),
 		put: {
 			tags,
 			summary:
@@ -86,18 +83,11 @@ export const paths: Record<string, unknown> = {
 				)
 			}
 		},
-		delete: {
+		delete: deleteVersioned(
 			tags,
-			summary: 'Delete a limit table (admins)',
-			parameters: [versionQuery],
-			responses: {
-				'204': ok('Deleted.'),
-				...invalid('No ?version= given.'),
-				...common,
-				...notFound(),
-				...conflict('A dwelling uses it, it is the default, or a stale version.', currentVersion)
-			}
-		}
+			'Delete a limit table (admins)',
+			'A dwelling uses it, it is the default, or a stale version.'
+		)
 	},
 	'/api/v1/limit-tables/{limitTableId}/default': {
 		parameters: [idParam('limitTableId')],

@@ -1,4 +1,4 @@
-import { containsPattern, db, type Db } from '$lib/server/db';
+import { containsPattern, db, lockRecord, type Db } from '$lib/server/db';
 import { activityLog } from '$lib/server/activity';
 import type { Member } from '$lib/server/guard';
 import { type ElementKind } from '$lib/dwellings/kinds';
@@ -93,10 +93,6 @@ export function canEditTemplate(
 
 const NOT_YOURS = 'Only an admin or the person who saved this template can change or delete it.';
 
-/** The template's id and version, its row locked until the transaction ends. */
-const lockedRow = (t: Db, organisationId: string, id: string) =>
-	t('templates').where({ organisation_id: organisationId, id }).forUpdate().first('id', 'version');
-
 /**
  * Changes some fields; `version` must be the one the caller loaded, else 409 with the version now stored
  * and nothing is written. Null when there is no such template in the organisation.
@@ -110,7 +106,7 @@ export async function updateTemplate(
 	if (!parsed.success) throw new ValidationError(fieldIssues(parsed.error));
 	const { version, ...data } = parsed.data;
 	return db.transaction(async (t) => {
-		const locked = await lockedRow(t, member.organisationId, id);
+		const locked = await lockRecord(t, 'templates', member.organisationId, id);
 		if (!locked) return null;
 		const current = (await getTemplate(member.organisationId, id, t))!;
 		if (!canEditTemplate(member, current)) throw new ForbiddenError(NOT_YOURS);
@@ -133,7 +129,7 @@ export async function updateTemplate(
 /** Deletes the template; `version` must be the one the caller loaded (else 409). False when there is none. */
 export async function deleteTemplate(member: Member, id: string, version: number): Promise<boolean> {
 	return db.transaction(async (t) => {
-		const locked = await lockedRow(t, member.organisationId, id);
+		const locked = await lockRecord(t, 'templates', member.organisationId, id);
 		if (!locked) return false;
 		const current = (await getTemplate(member.organisationId, id, t))!;
 		if (!canEditTemplate(member, current)) throw new ForbiddenError(NOT_YOURS);

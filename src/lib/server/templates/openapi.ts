@@ -17,7 +17,8 @@ import {
 	withMeta,
 	currentVersion,
 	versioned,
-	versionQuery
+	readOne,
+	deleteVersioned
 } from '$lib/server/openapi-kit';
 
 const template = versioned(
@@ -77,11 +78,7 @@ export const paths: Record<string, unknown> = {
 	},
 	'/api/v1/templates/{templateId}': {
 		parameters: [idParam('templateId')],
-		get: {
-			tags,
-			summary: 'One template',
-			responses: { '200': ok('The template.', template), ...common, ...notFound() }
-		},
+		get: readOne(tags, 'One template', 'The template.', template),
 		patch: {
 			tags,
 			summary: 'Change a template (its author or an admin); send the version you loaded',
@@ -112,17 +109,10 @@ export const paths: Record<string, unknown> = {
 				)
 			}
 		},
-		delete: {
+		delete: deleteVersioned(
 			tags,
-			summary: 'Delete a template (its author or an admin)',
-			parameters: [versionQuery],
-			responses: {
-				'204': ok('Deleted.'),
-				...invalid('No ?version= given.'),
-				...common,
-				...notFound(),
-				...conflict('A stale version (changed by someone else since you loaded it).', currentVersion)
-			}
-		}
+			'Delete a template (its author or an admin)',
+			'A stale version (changed by someone else since you loaded it).'
+		)
 	}
 };
