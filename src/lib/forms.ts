@@ -1,4 +1,4 @@
-/** Reading plain HTML form values into the shared schemas' input (used by the form actions). */
+/** A number a person typed into a form, as the domain's schemas take it (each domain's `forms.ts` uses it). */
 
 /** A form value as a number, or the raw text (so the schema says what is wrong with it), or undefined when blank. */
 export function formNumber(v: FormDataEntryValue | null | undefined): number | string | undefined {
@@ -11,6 +11,3 @@ export function formNumber(v: FormDataEntryValue | null | undefined): number | s
 	const n = Number(s);
 	return Number.isFinite(n) && /^[+-]?(\d+(\.\d*)?|\.\d+)$/.test(s) ? n : v.trim();
 }
-
-/** A form value as text; '' when absent or a file. */
-export const formText = (v: FormDataEntryValue | null) => (typeof v === 'string' ? v : '');
