@@ -26,6 +26,7 @@ import { fileTypeFromBuffer } from 'file-type';
 import sharp from 'sharp';
 import { z } from 'zod';
 import { db, type Db } from '$lib/server/db';
+import type { Evidence as SharedEvidence, EvidenceRequest } from '$lib/evidence/types';
 import { logActivity } from '$lib/server/activity';
 import type { Member } from '$lib/server/guard';
 import { readUpload, type Upload } from '$lib/server/csv/upload';
@@ -154,43 +155,9 @@ export function contentDisposition(kind: 'inline' | 'attachment', name: string):
 
 /* ------------------------------------------------------------------ rows */
 
-export type Evidence = {
-	id: string;
-	dwellingId: string;
-	elementId: string | null;
-	elementName: string | null;
-	/** 0-based position in the element's build-up when the file was uploaded */
-	layerIndex: number | null;
-	layerName: string | null;
-	name: string;
-	contentType: EvidenceContentType;
-	bytes: number;
-	sha256: string;
-	uploadedBy: { id: string; name: string | null };
-	createdAt: string;
-	/** when it was first listed in an issued report (then it is kept), or null */
-	reportedAt: string | null;
-	url: string;
-	thumbnailUrl: string | null;
-	/** whether the caller may delete it now */
-	deletable: boolean;
-};
-
-export type EvidenceRequest = {
-	id: string;
-	dwellingId: string;
-	auditItemId: string;
-	batchId: string;
-	requestedBy: { id: string; name: string | null };
-	note: string;
-	dueDate: string;
-	createdAt: string;
-	answeredAt: string | null;
-	answeredBy: { id: string; name: string | null } | null;
-	answerEvidenceId: string | null;
-	/** open and past its due date (UTC) */
-	overdue: boolean;
-};
+/** Evidence whose type is one the service accepts. */
+export type Evidence = SharedEvidence & { contentType: EvidenceContentType };
+export type { EvidenceRequest };
 
 const iso = (v: unknown) => (v ? new Date(v as string).toISOString() : null);
 
