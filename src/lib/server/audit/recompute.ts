@@ -1,8 +1,10 @@
 /**
- * The recompute of audit batches, self-contained (relative imports, the Knex instance passed in) so the
- * benchmark can run it outside SvelteKit. src/lib/server/audits.ts binds it to the app's database.
+ * The recompute of audit batches, self-contained (the Knex instance passed in, types only from the
+ * database module) so the benchmark can run it outside SvelteKit. The audit service binds it to the app's
+ * database.
  */
 import { randomUUID } from 'node:crypto';
+import type { Db } from '$lib/server/db';
 import { hostname } from 'node:os';
 import type { Knex } from 'knex';
 import {
@@ -23,8 +25,6 @@ import type { ClimateMonthValues } from '$lib/dwellings/element-input';
 import { type ElementKind } from '$lib/dwellings/kinds';
 import { limitTableFor } from '$lib/limit-tables/rules';
 import { isStalled, STALL_AFTER_MS } from '$lib/audit/rules';
-
-type Db = Knex | Knex.Transaction;
 
 /**
  * The parts of a report snapshot the audit compares, cut out in the database: per element its inputs

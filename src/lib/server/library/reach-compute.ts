@@ -10,7 +10,7 @@
  * (the Knex instance passed in) so the benchmark can run it outside SvelteKit.
  */
 import { createHash } from 'node:crypto';
-import type { Knex } from 'knex';
+import type { Db } from '$lib/server/db';
 import {
 	analyseElement,
 	ElementInputError,
@@ -25,8 +25,6 @@ import {
 	type StoredBuildUp,
 	type StoredInternal
 } from '$lib/dwellings/element-input';
-
-type Db = Knex | Knex.Transaction;
 
 /** The headline figures of a result: U (W/(m²·K)), as reported, the Glaser outcome and the fRsi check. */
 export type ReachOutcome = {

@@ -9,7 +9,7 @@
  * names the material and one of its revisions, whose number is below the current one's. The layer's new
  * values are the ones the editor's "Use revision N" and the move write (`applyRevisionUpdate`).
  */
-import type { Knex } from 'knex';
+import type { Db } from '$lib/server/db';
 import { ENGINE_VERSION, type ElementInput } from '$lib/physics';
 import type { ClimateMonthValues, StoredBuildUp, StoredInternal } from '$lib/dwellings/element-input';
 import { DWELLING_STATUS_LABELS, type DwellingStatus, type ElementKind } from '$lib/dwellings/kinds';
@@ -18,7 +18,6 @@ import { applyRevisionUpdate, type LayerValues } from '$lib/library/revisions';
 import { limitTableFor, meetsLimit } from '$lib/limit-tables/rules';
 import { engineInput, outcomesFor, type Computed, type ReachOutcome } from './reach-compute';
 
-type Db = Knex | Knex.Transaction;
 type Row = Record<string, any>;
 
 /** The material, its revisions by id, and which of them are older than the current one. */
