@@ -252,18 +252,38 @@ function moistureOf(j: Judged): Finding {
 
 /* ------------------------------------------------------------------ the summary */
 
-/**
- * The client's summary of a report. Pure: the same snapshot gives the same words. Works for a dwelling
- * report (every element) and an element report (the one element).
- */
-export function clientSummary(s: ClientSummaryInput): ClientSummary {
-	const d = s.dwelling;
-	const doc = s.document;
-	const { judged, failing, moistureRisk } = judge(s.elements);
-	const n = judged.length;
-	const where = d.address ? `${d.reference}, ${d.address}` : d.reference;
+/** The elements sorted by what the summary says of them, and the junctions that were modelled. */
+function groupsOf(s: ClientSummaryInput, judged: Judged[]) {
+	const mould = judged.filter((j) => j.mould === 'fail');
+	const junctions = (s.junctions ?? []).filter((j) => j.result?.surface.critical);
+	const coldJunctions = junctions.filter((j) => !j.result!.surface.critical!.pass);
+	return {
+		judged,
+		lt: s.limitTable,
+		withLimit: judged.filter((j) => j.pass !== null),
+		failed: judged.filter((j) => j.pass === false),
+		noLimit: judged.filter((j) => j.pass === null && j.el.u !== null),
+		noU: judged.filter((j) => j.el.u === null),
+		checkedMould: judged.filter((j) => j.mould === 'pass' || j.mould === 'fail'),
+		mould,
+		checkedGlaser: judged.filter((j) => ['none', 'dries', 'accumulates'].includes(j.glaser)),
+		builds: judged.filter((j) => j.glaser === 'accumulates'),
+		dries: judged.filter((j) => j.glaser === 'dries'),
+		onGround: judged.filter((j) => j.glaser === 'ground'),
+		noClimate: judged.filter((j) => j.glaser === 'no-climate' && j.mould === 'no-climate'),
+		givenOnly: judged.filter((j) => j.glaser === 'given'),
+		junctions,
+		coldJunctions,
+		/** where the inside surface may grow mould: elements, then junctions */
+		mouldAt: [...mould.map((j) => j.el.name), ...coldJunctions.map((j) => j.name)]
+	};
+}
+type Groups = ReturnType<typeof groupsOf>;
 
-	/* what was assessed */
+/** "What was assessed": how many elements of which kinds, and how their figures were found. */
+function assessedParagraphs(s: ClientSummaryInput, judged: Judged[]): string[] {
+	const doc = s.document;
+	const n = judged.length;
 	const byKind = new Map<ElementKind, number>();
 	for (const j of judged) byKind.set(j.el.kind, (byKind.get(j.el.kind) ?? 0) + 1);
 	const kinds = [...byKind].map(([k, m]) => countOf(m, ...KIND_WORDS[k]));
@@ -285,19 +305,18 @@ export function clientSummary(s: ClientSummaryInput): ClientSummary {
 	if (!judged.some((j) => j.el.result))
 		assessed[1] =
 			'Every element uses a figure given for it by its maker or another source named in the report.';
+	return assessed;
+}
 
-	/* heat loss */
+/** "Heat loss": what a U-value is, the limit table, and each element against its limit. */
+function heatLossFindings(g: Groups): Finding[] {
+	const { lt, withLimit, failed, noLimit, noU } = g;
 	const heat: Finding[] = [
 		{
 			text: `Each element has a heat loss figure (U-value): how many watts of heat pass through one square metre of it for every degree of difference between inside and outside, in ${U_UNIT}. The lower the figure, the better the element keeps the heat in.`,
 			tone: 'none'
 		}
 	];
-	const lt = s.limitTable;
-	const withLimit = judged.filter((j) => j.pass !== null);
-	const failed = judged.filter((j) => j.pass === false);
-	const noLimit = judged.filter((j) => j.pass === null && j.el.u !== null);
-	const noU = judged.filter((j) => j.el.u === null);
 	if (lt) {
 		heat.push({
 			text: `The limits come from “${lt.name}” (${lt.edition}): the highest heat loss figure each kind of element may have. An element meets its limit when its figure is at or below it.`,
@@ -343,17 +362,15 @@ export function clientSummary(s: ClientSummaryInput): ClientSummary {
 			text: `No heat loss figure could be worked out yet for ${names(noU.map((j) => j.el.name))}.`,
 			tone: 'none'
 		});
+	return heat;
+}
 
-	/* damp and mould */
+/** "Damp and mould": the surface check, the Glaser check, what was not checked, and the junctions. */
+function moistureFindings(g: Groups): Finding[] {
+	const { judged, checkedMould, mould, checkedGlaser, builds, dries, onGround, noClimate, givenOnly } = g;
+	const { junctions, coldJunctions } = g;
+	const n = judged.length;
 	const moisture: Finding[] = [];
-	const checkedMould = judged.filter((j) => j.mould === 'pass' || j.mould === 'fail');
-	const mould = judged.filter((j) => j.mould === 'fail');
-	const checkedGlaser = judged.filter((j) => ['none', 'dries', 'accumulates'].includes(j.glaser));
-	const builds = judged.filter((j) => j.glaser === 'accumulates');
-	const dries = judged.filter((j) => j.glaser === 'dries');
-	const onGround = judged.filter((j) => j.glaser === 'ground');
-	const noClimate = judged.filter((j) => j.glaser === 'no-climate' && j.mould === 'no-climate');
-	const givenOnly = judged.filter((j) => j.glaser === 'given');
 	if (checkedMould.length) {
 		moisture.push({
 			label: 'Mould on inside surfaces',
@@ -415,8 +432,6 @@ export function clientSummary(s: ClientSummaryInput): ClientSummary {
 			text: `${capital(givenOnly.length === n ? 'the elements' : names(givenOnly.map((j) => j.el.name)))} ${givenOnly.length === 1 ? 'uses' : 'use'} a given figure and ${givenOnly.length === 1 ? 'is' : 'are'} not checked for damp or mould here.`,
 			tone: 'none'
 		});
-	const junctions = (s.junctions ?? []).filter((j) => j.result?.surface.critical);
-	const coldJunctions = junctions.filter((j) => !j.result!.surface.critical!.pass);
 	if (coldJunctions.length)
 		moisture.push({
 			text: `Where elements meet, at ${names(coldJunctions.map((j) => j.name))}, the inside surface may get cold enough for mould to grow.`,
@@ -427,8 +442,12 @@ export function clientSummary(s: ClientSummaryInput): ClientSummary {
 			text: `The places where elements meet that were modelled (junctions such as corners and floor edges) pass the same mould check.`,
 			tone: 'pass'
 		});
+	return moisture;
+}
 
-	/* what to do next */
+/** "What to do next": one step per problem found, then what holds for every report. */
+function nextSteps(g: Groups, doc: ClientSummaryInput['document']): Finding[] {
+	const { lt, failed, noLimit, builds, dries, noClimate, mouldAt } = g;
 	const next: Finding[] = [];
 	if (failed.length)
 		next.push({
@@ -440,7 +459,6 @@ export function clientSummary(s: ClientSummaryInput): ClientSummary {
 			text: `Do not build ${names(builds.map((j) => j.el.name))} as described without advice. Ask your assessor or designer to change the build-up (for example, where a layer that holds back moisture from indoors, a vapour control layer, sits) and to check it again.`,
 			tone: 'fail'
 		});
-	const mouldAt = [...mould.map((j) => j.el.name), ...coldJunctions.map((j) => j.name)];
 	if (mouldAt.length)
 		next.push({
 			text: `Ask your assessor how the inside surface of ${names(mouldAt)} can be kept warmer, usually with more insulation. Until then, heating and ventilating the rooms well lowers the risk of mould.`,
@@ -479,8 +497,12 @@ export function clientSummary(s: ClientSummaryInput): ClientSummary {
 			text: `You can check that the report is genuine at ${doc.verifyUrl} with the code ${groupCode(doc.verificationCode)}.`,
 			tone: 'none'
 		});
+	return next;
+}
 
-	/* headline */
+/** The one line at the top: the problems, else how well the home did. */
+function headlineOf(g: Groups, failing: number, moistureRisk: number): Finding {
+	const { coldJunctions, dries, withLimit } = g;
 	const problems: string[] = [];
 	if (failing)
 		problems.push(
@@ -492,7 +514,7 @@ export function clientSummary(s: ClientSummaryInput): ClientSummary {
 		problems.push(
 			`mould may grow where elements meet at ${countOf(coldJunctions.length, 'junction', 'junctions')}`
 		);
-	const headline: Finding = problems.length
+	return problems.length
 		? { text: `${capital(problems.join(' and '))}: see what to do next below.`, tone: 'fail' }
 		: dries.length
 			? {
@@ -505,6 +527,23 @@ export function clientSummary(s: ClientSummaryInput): ClientSummary {
 						text: 'No damp or mould risk was found; no element has a limit to be judged against.',
 						tone: 'none'
 					};
+}
+
+/**
+ * The client's summary of a report. Pure: the same snapshot gives the same words. Works for a dwelling
+ * report (every element) and an element report (the one element).
+ */
+export function clientSummary(s: ClientSummaryInput): ClientSummary {
+	const d = s.dwelling;
+	const doc = s.document;
+	const { judged, failing, moistureRisk } = judge(s.elements);
+	const g = groupsOf(s, judged);
+	const where = d.address ? `${d.reference}, ${d.address}` : d.reference;
+	const assessed = assessedParagraphs(s, judged);
+	const heat = heatLossFindings(g);
+	const moisture = moistureFindings(g);
+	const next = nextSteps(g, doc);
+	const headline = headlineOf(g, failing, moistureRisk);
 
 	const intro: string[] = [
 		`This summary sets out in plain words the assessment of ${doc.scope === 'element' ? `one element of the home ${where}` : `the home ${where}`}, made by ${s.organisation.name || 'the assessor'}${doc.draft ? '' : `: report ${doc.number}, revision ${doc.revision}, issued on ${longDate(s.issuedAt)}`}.`,
