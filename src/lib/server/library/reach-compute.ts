@@ -26,13 +26,8 @@ import {
 	type StoredInternal
 } from '$lib/dwellings/element-input';
 
-/** The headline figures of a result: U (W/(m²·K)), as reported, the Glaser outcome and the fRsi check. */
-export type ReachOutcome = {
-	u: number | null;
-	uRounded: number | null;
-	moisture: 'none' | 'dries' | 'accumulates' | null;
-	surfacePass: boolean | null;
-};
+import type { ReachOutcome } from '$lib/library/reach';
+export type { ReachOutcome };
 
 /** An outcome, or why the engine refused the input. */
 export type Computed = { outcome: ReachOutcome } | { error: string };
