@@ -64,6 +64,8 @@ test('the public pages', async ({ page }) => {
 });
 
 test("the assessor's pages", async ({ context }) => {
+	// Seventeen pages, each loaded and scanned in turn: more than the default minute on a busy two-core machine.
+	test.setTimeout(180_000);
 	const page = await as(context, DEMO.assessor);
 	const i = await ids();
 	const paths = [
